@@ -1,0 +1,8 @@
+//! # offtake-io
+//!
+//! Everything that touches files: reading weather CSV files with a column and
+//! unit mapping, reading and writing project files (RON, versioned schema,
+//! atomic saves), and exporting result tables as CSV and XLSX.
+//!
+//! Errors carry the file, line and column of the offending cell and say what
+//! was found and what was expected.
