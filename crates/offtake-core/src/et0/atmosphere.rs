@@ -174,6 +174,15 @@ pub fn actual_vapour_pressure_from_tmin_kpa(tmin_c: f64, arid_offset_c: f64) -> 
     saturation_vapour_pressure_kpa(tmin_c - arid_offset_c) // Eq. 48
 }
 
+/// Actual vapour pressure for an hour from hourly relative humidity (kPa).
+///
+/// * `temperature_c` — mean hourly air temperature Thr (°C); `rh_pct` — mean hourly RH (%).
+///
+/// Eq. 54: ea = e°(Thr) RHhr/100. FAO-56 p. 74.
+pub fn actual_vapour_pressure_hourly_kpa(temperature_c: f64, rh_pct: f64) -> f64 {
+    saturation_vapour_pressure_kpa(temperature_c) * rh_pct / 100.0 // Eq. 54
+}
+
 /// Vapour pressure deficit es − ea (kPa), FAO-56 p. 39 (Example 6).
 pub fn vapour_pressure_deficit_kpa(es_kpa: f64, ea_kpa: f64) -> f64 {
     es_kpa - ea_kpa

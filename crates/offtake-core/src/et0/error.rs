@@ -84,12 +84,14 @@ pub enum Et0Error {
         /// Astronomical day length N (h, FAO-56 eq. 34).
         daylight_h: f64,
     },
-    /// An ET₀ method name that is not one of `pm`, `hargreaves`, `asce-short`, `asce-tall`.
-    #[error("unknown ET0 method '{found}'; expected one of pm, hargreaves, asce-short, asce-tall")]
-    UnknownMethod {
-        /// The name that was given.
-        found: String,
-    },
+}
+
+/// An ET₀ method name that is not one of `pm`, `hargreaves`, `asce-short`, `asce-tall`.
+#[derive(Debug, Clone, PartialEq, Eq, Error)]
+#[error("unknown ET0 method '{found}'; expected one of pm, hargreaves, asce-short, asce-tall")]
+pub struct UnknownMethodError {
+    /// The name that was given.
+    pub found: String,
 }
 
 /// Returns `Ok(value)` if `value` is finite, else [`Et0Error::NotFinite`].
