@@ -13,5 +13,6 @@
 //! by a qualified engineer against local codes and measured data.
 
 pub mod et0;
+pub mod openwater;
 pub mod units;
 pub mod weather;
