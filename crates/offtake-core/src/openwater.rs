@@ -12,7 +12,8 @@
 //!   4.2.30–4.2.31; check against the printed handbook).
 //!
 //! The public functions take SI inputs (°C, kPa, m/s, m, MJ m⁻² day⁻¹) and
-//! convert internally: 1 mmHg = 0.1333 kPa (FAO-56 Annex 1, p. 209) and
+//! convert internally: 1 mmHg = 101.325/760 kPa (FAO-56 Annex 1, p. 209, prints
+//! 0.1333 kPa) and
 //! 1 m/s = 3.6 km/h.
 //!
 //! Water-surface temperature is an input (monthly values are usual); when it
@@ -28,8 +29,13 @@ use crate::et0::atmosphere::{
     psychrometric_constant_kpa_c, saturation_slope_kpa_c, saturation_vapour_pressure_kpa,
 };
 
-/// kPa in one millimetre of mercury, FAO-56 Annex 1 (p. 209): 1 mmHg = 0.1333 kPa.
-pub const KPA_PER_MMHG: f64 = 0.1333;
+/// kPa in one millimetre of mercury: 101.325 kPa / 760 = 0.133322 kPa.
+///
+/// FAO-56 Annex 1 (p. 209) prints this rounded as 1 mmHg = 0.1333 kPa. The
+/// exact definition (1 atm = 101.325 kPa = 760 mmHg, also FAO-56 Annex 1) is
+/// used because it reproduces the tabulated e_w of the handbook at 35–40 °C
+/// (55.32 mm Hg at 40 °C; 0.1333 would give 55.33). The two differ by 0.017 %.
+pub const KPA_PER_MMHG: f64 = 101.325 / 760.0;
 /// km/h in one m/s.
 pub const KMH_PER_MS: f64 = 3.6;
 /// Height of the wind in Meyer's formula (m): "about 9 m above ground" (Subramanya p. 63).
@@ -88,12 +94,12 @@ impl MeyerWater {
     }
 }
 
-/// Converts kPa to mm of mercury (1 mmHg = 0.1333 kPa, FAO-56 Annex 1).
+/// Converts kPa to mm of mercury (1 mmHg = 101.325/760 kPa, see [`KPA_PER_MMHG`]).
 pub fn kpa_to_mmhg(kpa: f64) -> f64 {
     kpa / KPA_PER_MMHG
 }
 
-/// Converts mm of mercury to kPa (1 mmHg = 0.1333 kPa, FAO-56 Annex 1).
+/// Converts mm of mercury to kPa (1 mmHg = 101.325/760 kPa, see [`KPA_PER_MMHG`]).
 pub fn mmhg_to_kpa(mmhg: f64) -> f64 {
     mmhg * KPA_PER_MMHG
 }
@@ -110,7 +116,7 @@ pub fn kmh_to_ms(kmh: f64) -> f64 {
 
 /// Saturation vapour pressure over water at temperature T, in mm of mercury.
 ///
-/// FAO-56 eq. 11 (kPa) divided by 0.1333 kPa/mmHg (FAO-56 Annex 1). Matches the
+/// FAO-56 eq. 11 (kPa) divided by [`KPA_PER_MMHG`]. Matches the
 /// e_w column of Subramanya's Table 3.3 to its two decimals ([MEMORY] for the table).
 pub fn saturation_vapour_pressure_mmhg(temperature_c: f64) -> f64 {
     kpa_to_mmhg(saturation_vapour_pressure_kpa(temperature_c))

@@ -15,6 +15,9 @@ pub const SPECIFIC_HEAT_MJ_KG_C: f64 = 1.013e-3;
 /// Ratio of molecular weights of water vapour and dry air ε (–), FAO-56 eq. 8 (p. 31).
 pub const MOLECULAR_WEIGHT_RATIO: f64 = 0.622;
 
+/// cp/(ε λ) as printed in FAO-56 eq. 8 (p. 31): 0.665×10⁻³ °C⁻¹.
+pub const PSYCHROMETRIC_COEFFICIENT_PER_C: f64 = 0.665e-3;
+
 /// Psychrometer coefficient a_psy (°C⁻¹), FAO-56 eq. 16 (p. 38).
 #[derive(Debug, Clone, Copy, PartialEq)]
 #[non_exhaustive]
@@ -56,8 +59,10 @@ pub fn atmospheric_pressure_kpa(elevation_m: f64) -> f64 {
 /// * `pressure_kpa` — atmospheric pressure P (kPa).
 ///
 /// Eq. 8: γ = cp P/(ε λ) = 0.665×10⁻³ P with λ = 2.45 MJ kg⁻¹. FAO-56 p. 31.
+/// The printed coefficient 0.665×10⁻³ is used (as in ASCE-EWRI 2005 eq. 4 and
+/// Annex 2 Table 2.2); cp/(ε λ) itself evaluates to 0.6647×10⁻³.
 pub fn psychrometric_constant_kpa_c(pressure_kpa: f64) -> f64 {
-    SPECIFIC_HEAT_MJ_KG_C * pressure_kpa / (MOLECULAR_WEIGHT_RATIO * LATENT_HEAT_MJ_KG) // Eq. 8
+    PSYCHROMETRIC_COEFFICIENT_PER_C * pressure_kpa // Eq. 8
 }
 
 /// Saturation vapour pressure e°(T) at air temperature T (kPa).
