@@ -13,6 +13,7 @@
 //! by a qualified engineer against local codes and measured data.
 
 pub mod calendar;
+pub mod climate_stats;
 pub mod stats;
 pub mod units;
 pub mod weather;
