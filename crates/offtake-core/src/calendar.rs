@@ -108,7 +108,7 @@ pub fn day_of_year(date: NaiveDate) -> u32 {
 }
 
 /// Day of the year J by the published integer formula of FAO-56 (Allen et
-/// al. 1998, Annex 2, Table 2.5 note, p. 215):
+/// al. 1998, Annex 2, Table 2.5 note):
 ///
 /// J = INTEGER(275 M / 9 − 30 + D) − 2; if M < 3 then J = J + 2; in a leap
 /// year with M > 2, J = J + 1.

@@ -17,3 +17,4 @@ pub mod climate_stats;
 pub mod stats;
 pub mod units;
 pub mod weather;
+pub mod weather_gen;

@@ -12,7 +12,7 @@ fn d(y: i32, m: u32, day: u32) -> NaiveDate {
     NaiveDate::from_ymd_opt(y, m, day).expect("valid test date")
 }
 
-/// FAO-56 (Allen et al. 1998), Annex 2, Table 2.5, p. 215: J of the first of
+/// FAO-56 (Allen et al. 1998), Annex 2, Table 2.5: J of the first of
 /// each month in a non-leap year, "add 1 from March in a leap year".
 #[test]
 fn day_of_year_matches_fao56_table_2_5() {
