@@ -245,3 +245,50 @@ fn weather_statistics_keeps_the_two_kinds_apart() {
     assert!(close(w.et0.yearly.at[1].value, 1825.0));
     assert!(close(w.rain.yearly.at[1].value, 365.0));
 }
+
+mod properties {
+    use super::*;
+    use proptest::prelude::*;
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(24))]
+
+        /// Months add up to their year and 10-day periods to their month, for
+        /// any start month and any record start.
+        #[test]
+        fn periods_add_up(
+            start_offset in 0_i64..400,
+            len in 800_usize..1500,
+            start_month in 1_u32..=12,
+            seed in 0_u64..1000,
+        ) {
+            let start = d(2019, 1, 1) + chrono::Duration::days(start_offset);
+            // Deterministic pseudo-random values in 0..10 mm.
+            let values: Vec<_> = (0..len)
+                .map(|i| Some(((i as u64 * 7919 + seed * 104_729) % 1000) as f64 / 100.0))
+                .collect();
+            let series = DailySeries::new(start, &values, None).expect("valid");
+            let year_start = YearStart::new(start_month).expect("month");
+            let totals = series_totals(&series, year_start).expect("at least one complete year");
+            prop_assert_eq!(totals.months.len(), 12 * totals.years.len());
+            prop_assert_eq!(totals.ten_days.len(), 36 * totals.years.len());
+            for (y, year) in totals.years.iter().enumerate() {
+                let months: f64 = totals.months[y * 12..(y + 1) * 12]
+                    .iter()
+                    .map(|m| m.total.expect("complete"))
+                    .sum();
+                prop_assert!((months - year.total.expect("complete")).abs() < 1e-6);
+                prop_assert_eq!(totals.months[y * 12].period.start(), year.period.start());
+                for m in 0..12 {
+                    let month = &totals.months[y * 12 + m];
+                    let tens = &totals.ten_days[y * 36 + m * 3..y * 36 + m * 3 + 3];
+                    let sum: f64 = tens.iter().map(|t| t.total.expect("complete")).sum();
+                    prop_assert!((sum - month.total.expect("complete")).abs() < 1e-6);
+                    prop_assert_eq!(tens.iter().map(|t| t.days).sum::<u32>(), month.days);
+                    prop_assert_eq!(tens[0].period.start(), month.period.start());
+                    prop_assert_eq!(tens[2].period.end(), month.period.end());
+                }
+            }
+        }
+    }
+}
