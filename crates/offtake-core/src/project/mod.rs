@@ -521,3 +521,6 @@ impl Project {
             .map(|b| planting.area.hectares(b.area_ha))
     }
 }
+
+#[cfg(test)]
+mod tests;

@@ -512,3 +512,11 @@ impl WeatherPerturbation {
         out
     }
 }
+
+#[cfg(test)]
+pub(super) mod tests_support {
+    /// e°(T) for the tests (FAO-56 eq. 11).
+    pub fn es(t_c: f64) -> f64 {
+        super::saturation_vapour_pressure_kpa(t_c)
+    }
+}
