@@ -16,6 +16,7 @@ pub mod calendar;
 pub mod climate_stats;
 pub mod et0;
 pub mod openwater;
+pub mod project;
 pub mod stats;
 pub mod units;
 pub mod weather;
