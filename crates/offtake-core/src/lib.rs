@@ -12,5 +12,8 @@
 //! Results are planning estimates: canal and structure designs must be checked
 //! by a qualified engineer against local codes and measured data.
 
+pub mod crop;
+pub mod salinity;
+pub mod soil;
 pub mod units;
 pub mod weather;
