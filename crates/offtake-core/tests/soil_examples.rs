@@ -5,11 +5,14 @@
 use offtake_core::soil::{readily_available_water_mm, total_available_water_mm};
 use serde::Deserialize;
 
+/// (crop, Zr m, p, printed (TAW, RAW) per soil).
+type CropRow = (String, f64, f64, Vec<(f64, f64)>);
+
 #[derive(Deserialize)]
 struct Ex36 {
     source: String,
     soils: Vec<(String, f64, f64)>,
-    crops: Vec<(String, f64, f64, Vec<(f64, f64)>)>,
+    crops: Vec<CropRow>,
     tolerance: f64,
 }
 
