@@ -101,3 +101,16 @@ fn stage_mean_from_daily_weather() {
     assert!(stage_climate_from_slices(&[1.0], &[]).is_err());
     assert!(stage_climate_from_slices(&[f64::NAN], &[40.0]).is_err());
 }
+
+/// Per-day slices of the stage: Box 15 (p.130) dry beans with daily u2 and
+/// RHmin averaging 2.2 m/s and 30 % → Kc mid 1.19; Kc end 0.35 unchanged.
+#[test]
+fn box_15_from_daily_slices() {
+    use offtake_core::crop::climate::{kc_end_from_daily, kc_mid_from_daily};
+    let u2 = [1.8, 2.6, 2.0, 2.4];
+    let rh = [25.0, 35.0, 28.0, 32.0];
+    let k = kc_mid_from_daily(1.15, &u2, &rh, 0.4).unwrap();
+    assert!((k - 1.19).abs() <= 0.005, "{k}");
+    let e = kc_end_from_daily(0.35, &u2, &rh, 0.4).unwrap();
+    assert!((e - 0.35).abs() < 1e-12);
+}

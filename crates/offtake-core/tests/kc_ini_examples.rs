@@ -66,3 +66,22 @@ fn example_24_etc() {
     let etc = kc_ini_figure29(2.0, 4.0).unwrap() * 4.0;
     assert!((etc - 3.4).abs() <= 0.2, "{etc}");
 }
+
+/// FAO-56 Example 25 gives ETc = 3.0 mm/day (ETo 5) and Example 26 gives
+/// ETc = 1.7 mm/day (ETo 4) from the Kc ini values.
+#[test]
+fn example_25_and_26_etc() {
+    let k25 = kc_ini_full_wetting(3.5, 5.0, 20.0, WettingSoil::Coarse).unwrap();
+    assert!((k25 * 5.0 - 3.0).abs() <= 0.25, "{}", k25 * 5.0);
+    let k26 = kc_ini_partial_wetting(2.0, 4.0, 12.0, 0.4, WettingSoil::MediumFine).unwrap();
+    assert!((k26 * 4.0 - 1.7).abs() <= 0.2, "{}", k26 * 4.0);
+}
+
+/// FAO-56 Table 14 (Chapter 6), as read in the shared reference file §3.2.
+#[test]
+fn rice_table_14() {
+    use offtake_core::crop::kc_ini::{RiceHumidityClass as H, RiceWindClass as W, rice_kc_ini};
+    assert!((rice_kc_ini(H::AridSemiArid, W::Strong) - 1.20).abs() < 1e-12);
+    assert!((rice_kc_ini(H::SubhumidHumid, W::Moderate) - 1.10).abs() < 1e-12);
+    assert!((rice_kc_ini(H::VeryHumid, W::Light) - 1.00).abs() < 1e-12);
+}

@@ -90,6 +90,43 @@ pub fn stage_climate(days: &[DayClimate]) -> Result<StageClimate, CropError> {
     stage_climate_from_slices(&u, &r)
 }
 
+/// Kc mid from the Table 12 value and the per-day u2 (m/s) and RHmin (%) of
+/// the mid-season days: the stage means ([`stage_climate_from_slices`]) in
+/// FAO-56 eq. 62.
+///
+/// # Errors
+/// As [`stage_climate_from_slices`].
+pub fn kc_mid_from_daily(
+    kc_mid_tab: f64,
+    u2_ms: &[f64],
+    rhmin_pct: &[f64],
+    height_m: f64,
+) -> Result<f64, CropError> {
+    Ok(kc_mid_adjusted(
+        kc_mid_tab,
+        stage_climate_from_slices(u2_ms, rhmin_pct)?,
+        height_m,
+    ))
+}
+
+/// Kc end from the Table 12 value and the per-day u2 and RHmin of the
+/// late-season days: FAO-56 eq. 65 (only when Kc end > 0.45).
+///
+/// # Errors
+/// As [`stage_climate_from_slices`].
+pub fn kc_end_from_daily(
+    kc_end_tab: f64,
+    u2_ms: &[f64],
+    rhmin_pct: &[f64],
+    height_m: f64,
+) -> Result<f64, CropError> {
+    Ok(kc_end_adjusted(
+        kc_end_tab,
+        stage_climate_from_slices(u2_ms, rhmin_pct)?,
+        height_m,
+    ))
+}
+
 /// The climate term [0.04(u2 − 2) − 0.004(RHmin − 45)](h/3)^0.3 of
 /// FAO-56 eq. 62, 65, 68, 70 and 72.
 ///

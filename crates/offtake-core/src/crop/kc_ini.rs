@@ -231,3 +231,50 @@ mod tests {
         assert!(kc_ini_figure29(0.0, 4.0).is_err());
     }
 }
+
+/// Climate class of FAO-56 Table 14 (rows).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
+pub enum RiceHumidityClass {
+    /// Arid to semi-arid.
+    AridSemiArid,
+    /// Sub-humid to humid.
+    SubhumidHumid,
+    /// Very humid.
+    VeryHumid,
+}
+
+/// Wind class of FAO-56 Table 14 (columns; Table 15 gives the speeds:
+/// light ≤ 1, moderate about 2, strong ≥ 4–5 m/s at 2 m).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
+pub enum RiceWindClass {
+    /// Light wind.
+    Light,
+    /// Moderate wind.
+    Moderate,
+    /// Strong wind.
+    Strong,
+}
+
+/// FAO-56 Table 14 (Chapter 6): Kc ini of paddy rice (ponded water 0.10–0.20 m)
+/// by climate and wind, rows × columns light / moderate / strong wind.
+pub const RICE_KC_INI_TABLE14: [[f64; 3]; 3] = [
+    [1.10, 1.15, 1.20], // arid - semi-arid
+    [1.05, 1.10, 1.15], // sub-humid - humid
+    [1.00, 1.05, 1.10], // very humid
+];
+
+/// Kc ini of paddy rice from FAO-56 Table 14, replacing the single Table 12
+/// value 1.05 where the climate is known.
+pub fn rice_kc_ini(humidity: RiceHumidityClass, wind: RiceWindClass) -> f64 {
+    let r = match humidity {
+        RiceHumidityClass::AridSemiArid => 0,
+        RiceHumidityClass::SubhumidHumid => 1,
+        RiceHumidityClass::VeryHumid => 2,
+    };
+    let c = match wind {
+        RiceWindClass::Light => 0,
+        RiceWindClass::Moderate => 1,
+        RiceWindClass::Strong => 2,
+    };
+    RICE_KC_INI_TABLE14[r][c]
+}

@@ -57,7 +57,7 @@ pub struct SeasonSpec<'a> {
     pub length_days: Option<u32>,
     /// Weather for the climate adjustment.
     pub climate: ClimateInput<'a>,
-    /// Kc ini to use instead of the Table 12 value, e.g. from
+    /// Kc ini to use instead of the Table 12 value in every cycle, e.g. from
     /// [`super::kc_ini::kc_ini_full_wetting`].
     pub kc_ini_override: Option<f64>,
     /// Rooting depth at planting (m).
