@@ -1,5 +1,6 @@
 //! Soil and water salinity: the leaching requirement (FAO-29) and the
-//! salinity stress coefficient (FAO-56 Chapter 8, p.176–182).
+//! salinity stress coefficient (FAO-56 Chapter 8, p.176–182; equation pages
+//! not in our shared reference file are recalled from memory).
 
 use thiserror::Error;
 

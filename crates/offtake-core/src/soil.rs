@@ -1,5 +1,6 @@
 //! Soils: the soil library type and the soil water quantities of FAO-56
-//! Chapters 7 and 8 (TAW, RAW, TEW).
+//! Chapters 7 and 8 (TAW, RAW, TEW). Equation page numbers not in our shared
+//! reference file are recalled from memory.
 //!
 //! Representative θFC and θWP are chosen inside the FAO-56 Table 19 (p.144)
 //! ranges, which each entry keeps for display and validation.

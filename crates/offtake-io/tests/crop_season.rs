@@ -207,3 +207,36 @@ proptest! {
         }
     }
 }
+
+/// Missing daily weather (NaN) is skipped in the stage means; a stage with no
+/// usable day is left at the Table 12 value, and the counts are reported.
+#[test]
+fn missing_weather_days_are_skipped() {
+    let maize = crop("maize-grain");
+    let n = maize.stages.total_days() as usize;
+    let mid = maize.stages.day_range(Stage::MidSeason);
+    let weather: Vec<DayClimate> = (1..=n as u32)
+        .map(|d| {
+            if mid.contains(&d) && d % 2 == 0 {
+                DayClimate {
+                    u2_ms: 4.6,
+                    rhmin_pct: 44.0,
+                }
+            } else {
+                DayClimate {
+                    u2_ms: f64::NAN,
+                    rhmin_pct: 44.0,
+                }
+            }
+        })
+        .collect();
+    let mut spec = SeasonSpec::new(date(2001, 4, 1));
+    spec.climate = ClimateInput::Daily(&weather);
+    let s = crop_season_series(&maize, &spec).unwrap();
+    let c = &s.cycles[0];
+    assert_eq!(c.mid_weather_days, mid.count() / 2);
+    assert!((c.kc.mid - 1.30).abs() <= 0.005); // FAO-56 Example 27, Mocha
+    assert_eq!(c.late_weather_days, 0);
+    assert!((c.kc.end - 0.60).abs() < 1e-12);
+    assert!(s.days.iter().all(|d| d.kc.is_finite()));
+}

@@ -15,6 +15,12 @@
 //!   (FAO-56 eq. 59–61, Figures 29 and 30).
 //! - [`root`]: root depth growth over the season.
 //! - [`season`]: the daily sequence for a planting, including perennial cycles.
+//!
+//! Sources: FAO-56 is Allen, Pereira, Raes and Smith (1998), *Crop
+//! evapotranspiration*, FAO Irrigation and Drainage Paper 56. Page numbers
+//! beside equations that are not confirmed in our shared reference file
+//! (`published-check-values.md`) are recalled from memory; verify them
+//! against the printed text.
 
 pub mod climate;
 pub mod kc_curve;
@@ -267,8 +273,22 @@ impl Crop {
     /// The first inconsistency found.
     pub fn validate(&self) -> Result<(), CropError> {
         self.stages.validate(&self.id)?;
-        if let CycleKind::Repeated { later } = &self.cycle {
-            later.validate(&self.id)?;
+        match &self.cycle {
+            CycleKind::Repeated { later } => later.validate(&self.id)?,
+            CycleKind::Yearly {
+                off_season_kc,
+                off_season_kcb,
+            } => {
+                if self.stages.total_days() > 365 {
+                    return Err(CropError::BadStageLengths {
+                        what: format!("{} (a yearly cycle must fit in 365 days)", self.id),
+                        found: self.stages.as_array(),
+                    });
+                }
+                check_range("off-season Kc", *off_season_kc, 0.0, 2.0, "0 to 2")?;
+                check_range("off-season Kcb", *off_season_kcb, 0.0, 2.0, "0 to 2")?;
+            }
+            CycleKind::Annual => {}
         }
         for (what, v) in [
             ("kc ini", self.kc.ini),

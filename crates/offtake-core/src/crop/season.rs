@@ -40,8 +40,10 @@ pub enum ClimateInput<'a> {
     /// One mean for every stage (e.g. a climate from FAO-56 Tables 15–16).
     Constant(StageClimate),
     /// Daily u2 and RHmin, element 0 being day 1 of the planting. Days
-    /// beyond the slice are not used; a stage with no weather days is left
-    /// unadjusted.
+    /// beyond the slice, and days whose u2 or RHmin is missing (not finite)
+    /// or impossible (u2 < 0, RHmin outside 0..=100), are not used; a stage
+    /// with no usable weather day is left unadjusted. The number of days
+    /// used is reported in [`CycleSummary`].
     Daily(&'a [DayClimate]),
 }
 
@@ -123,6 +125,10 @@ pub struct CycleSummary {
     pub mid_climate: StageClimate,
     /// Mean weather of the late season used for the adjustment.
     pub late_climate: StageClimate,
+    /// Days of daily weather behind `mid_climate` (0 when not daily or none usable).
+    pub mid_weather_days: usize,
+    /// Days of daily weather behind `late_climate`.
+    pub late_weather_days: usize,
     /// Whether the cycle runs to the end of its late season.
     pub complete: bool,
 }
@@ -162,22 +168,31 @@ impl CropSeries {
 }
 
 /// Mean climate over season days `range` (1-based, inclusive), offset by
-/// `offset` days from the planting, or the standard climate if no weather.
+/// `offset` days from the planting, and the number of daily values used.
 fn climate_over(
     input: ClimateInput<'_>,
     offset: usize,
     range: std::ops::RangeInclusive<u32>,
-) -> Result<StageClimate, CropError> {
+) -> (StageClimate, usize) {
     match input {
-        ClimateInput::Standard => Ok(StageClimate::STANDARD),
-        ClimateInput::Constant(c) => Ok(c),
+        ClimateInput::Standard => (StageClimate::STANDARD, 0),
+        ClimateInput::Constant(c) => (c, 0),
         ClimateInput::Daily(days) => {
-            let lo = offset + *range.start() as usize - 1;
+            let lo = (offset + *range.start() as usize - 1).min(days.len());
             let hi = (offset + *range.end() as usize).min(days.len());
-            if lo >= hi {
-                Ok(StageClimate::STANDARD)
-            } else {
-                stage_climate(&days[lo..hi])
+            let usable: Vec<DayClimate> = days[lo..hi.max(lo)]
+                .iter()
+                .copied()
+                .filter(|d| {
+                    d.u2_ms.is_finite()
+                        && d.u2_ms >= 0.0
+                        && d.rhmin_pct.is_finite()
+                        && (0.0..=100.0).contains(&d.rhmin_pct)
+                })
+                .collect();
+            match stage_climate(&usable) {
+                Ok(c) => (c, usable.len()),
+                Err(_) => (StageClimate::STANDARD, 0),
             }
         }
     }
@@ -210,9 +225,9 @@ fn adjusted_sets(
 /// returned series has exactly the requested number of days.
 ///
 /// # Errors
-/// An invalid crop entry, a season shorter than 4 days, an initial root
-/// depth above the maximum, a Kc ini override outside 0..=2, or weather
-/// values that are not finite.
+/// An invalid crop entry, a season shorter than 4 days, a custom root depth
+/// outside 0.05..=10 m, or a Kc ini override outside 0..=2. Missing weather
+/// is not an error (see [`ClimateInput::Daily`]).
 pub fn crop_season_series(crop: &Crop, spec: &SeasonSpec<'_>) -> Result<CropSeries, CropError> {
     crop.validate()?;
     if let Some(k) = spec.kc_ini_override {
@@ -279,8 +294,10 @@ pub fn crop_season_series(crop: &Crop, spec: &SeasonSpec<'_>) -> Result<CropSeri
     let mut days = Vec::new();
     let mut cycles = Vec::new();
     for (cycle_no, &(offset, lengths, n_days, _span)) in layout.iter().enumerate() {
-        let mid = climate_over(spec.climate, offset, lengths.day_range(Stage::MidSeason))?;
-        let late = climate_over(spec.climate, offset, lengths.day_range(Stage::LateSeason))?;
+        let (mid, mid_weather_days) =
+            climate_over(spec.climate, offset, lengths.day_range(Stage::MidSeason));
+        let (late, late_weather_days) =
+            climate_over(spec.climate, offset, lengths.day_range(Stage::LateSeason));
         let (kc_set, kcb_set) = adjusted_sets(crop, kc_ini, mid, late);
         let kc_curve = KcCurve::new(lengths, kc_set)?;
         let kcb_curve = kcb_set.map(|s| KcCurve::new(lengths, s)).transpose()?;
@@ -324,6 +341,8 @@ pub fn crop_season_series(crop: &Crop, spec: &SeasonSpec<'_>) -> Result<CropSeri
             kcb: kcb_set,
             mid_climate: mid,
             late_climate: late,
+            mid_weather_days,
+            late_weather_days,
             complete: n_days >= lengths.total_days(),
         });
     }
