@@ -114,3 +114,18 @@ fn box_15_from_daily_slices() {
     let e = kc_end_from_daily(0.35, &u2, &rh, 0.4).unwrap();
     assert!((e - 0.35).abs() < 1e-12);
 }
+
+/// RHmin by eq. 63/64 is 100 e°(Tdew)/e°(Tmax). FAO-56 Example 3 (p.36)
+/// prints e°(24.5 °C) = 3.075 kPa and e°(15 °C) = 1.705 kPa, so with
+/// Tdew = Tmin = 15 °C and Tmax = 24.5 °C, RHmin = 100 × 1.705/3.075 = 55.45 %
+/// (tolerance from the printed three decimals of each e°).
+#[test]
+fn rhmin_from_example_3_vapour_pressures() {
+    use offtake_core::crop::climate::{rhmin_from_dewpoint_pct, rhmin_from_tmin_pct};
+    let expected = 100.0 * 1.705 / 3.075;
+    let rh = rhmin_from_dewpoint_pct(15.0, 24.5).unwrap();
+    assert!((rh - expected).abs() < 0.03, "{rh}");
+    let rh_tmin = rhmin_from_tmin_pct(15.0, 24.5, false).unwrap();
+    assert!((rh_tmin - rh).abs() < 1e-12);
+    assert!(rhmin_from_dewpoint_pct(f64::NAN, 24.5).is_err());
+}

@@ -32,6 +32,7 @@ pub mod stages;
 use serde::{Deserialize, Serialize};
 use thiserror::Error;
 
+pub use season::{ClimateInput, CropDay, CropSeries, CycleSummary, SeasonSpec, crop_season_series};
 pub use stages::{Stage, StageLengths};
 
 /// The broad group a crop belongs to (used for defaults and for display).
