@@ -14,9 +14,12 @@
 
 pub mod calendar;
 pub mod climate_stats;
+pub mod crop;
 pub mod et0;
 pub mod openwater;
 pub mod project;
+pub mod salinity;
+pub mod soil;
 pub mod stats;
 pub mod units;
 pub mod weather;
