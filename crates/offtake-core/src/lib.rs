@@ -14,3 +14,4 @@
 
 pub mod units;
 pub mod weather;
+pub mod balance;
