@@ -96,6 +96,12 @@ pub enum ExposedWetted<'a> {
     /// A fixed few for every day (e.g. 1 for bare soil wetted all over, as in
     /// FAO-56 Example 31).
     Fixed(f64),
+    /// From a given canopy cover fc per day (0..1) and the fraction wetted by
+    /// the last event (eq. 75: few = min(1 − fc, fw)).
+    FromCover {
+        /// Effective canopy cover fc per day.
+        canopy_cover: &'a [f64],
+    },
     /// From the canopy (eq. 76, with the crop height per day in m) and the
     /// fraction wetted by the last event (eq. 75).
     FromCanopy {

@@ -515,6 +515,15 @@ fn validate(series: &DailySeries<'_>, params: &BalanceParams) -> Result<(), Bala
                 ExposedWetted::Fixed(f) => {
                     check_param("few", f, f > 0.0 && f <= 1.0, "0 < few ≤ 1")?;
                 }
+                ExposedWetted::FromCover { canopy_cover } => {
+                    check_series(
+                        "canopy_cover",
+                        canopy_cover,
+                        n,
+                        |v| (0.0..=1.0).contains(&v),
+                        "a cover fraction 0..1",
+                    )?;
+                }
                 ExposedWetted::FromCanopy {
                     kc_min,
                     crop_height_m,
@@ -674,6 +683,9 @@ pub fn simulate_into(
                 }
                 let few_i = match few {
                     ExposedWetted::Fixed(f) => f,
+                    ExposedWetted::FromCover { canopy_cover } => {
+                        evaporation::exposed_wetted_fraction(canopy_cover[i], last_fw)
+                    }
                     ExposedWetted::FromCanopy {
                         kc_min,
                         crop_height_m,
