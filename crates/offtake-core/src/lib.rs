@@ -15,3 +15,4 @@
 pub mod units;
 pub mod weather;
 pub mod balance;
+pub mod yield_response;
