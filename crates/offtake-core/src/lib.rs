@@ -16,3 +16,4 @@ pub mod units;
 pub mod weather;
 pub mod balance;
 pub mod yield_response;
+pub mod rain;
