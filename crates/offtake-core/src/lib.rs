@@ -17,3 +17,4 @@ pub mod weather;
 pub mod balance;
 pub mod yield_response;
 pub mod rain;
+pub mod paddy;
