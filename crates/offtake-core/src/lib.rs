@@ -12,9 +12,9 @@
 //! Results are planning estimates: canal and structure designs must be checked
 //! by a qualified engineer against local codes and measured data.
 
+pub mod balance;
+pub mod paddy;
+pub mod rain;
 pub mod units;
 pub mod weather;
-pub mod balance;
 pub mod yield_response;
-pub mod rain;
-pub mod paddy;

@@ -207,7 +207,12 @@ pub struct PaddyFieldDay {
     pub ponding_mm: f64,
 }
 
-fn check_param(name: &'static str, value: f64, ok: bool, expected: &'static str) -> Result<(), PaddyError> {
+fn check_param(
+    name: &'static str,
+    value: f64,
+    ok: bool,
+    expected: &'static str,
+) -> Result<(), PaddyError> {
     if value.is_finite() && ok {
         Ok(())
     } else {
@@ -355,7 +360,13 @@ impl PaddyPlanting {
     pub fn group_offsets(&self) -> Vec<usize> {
         let g = self.groups.max(1);
         (0..g)
-            .map(|k| if g == 1 { 0 } else { k * self.window_days / (g - 1) })
+            .map(|k| {
+                if g == 1 {
+                    0
+                } else {
+                    k * self.window_days / (g - 1)
+                }
+            })
             .collect()
     }
 
@@ -513,8 +524,7 @@ mod tests {
     #[test]
     fn rain_above_bund_spills() {
         let f = PaddyField::default();
-        let days =
-            paddy_field_balance(&[5.0, 5.0], &[150.0, 0.0], &[1.0, 1.0], &f).unwrap();
+        let days = paddy_field_balance(&[5.0, 5.0], &[150.0, 0.0], &[1.0, 1.0], &f).unwrap();
         assert!((days[0].spill_mm - 50.0).abs() < 1e-12);
         assert!((days[0].peff_mm - 100.0).abs() < 1e-12);
         assert!(days[0].irrigation_mm.abs() < 1e-12);

@@ -43,11 +43,18 @@ pub enum RainError {
         expected: &'static str,
     },
     /// The water-balance method was asked for a period total.
-    #[error("the water-balance method of effective rain runs day by day in the balance, not on period totals")]
+    #[error(
+        "the water-balance method of effective rain runs day by day in the balance, not on period totals"
+    )]
     NotAPeriodMethod,
 }
 
-fn check(name: &'static str, value: f64, ok: bool, expected: &'static str) -> Result<(), RainError> {
+fn check(
+    name: &'static str,
+    value: f64,
+    ok: bool,
+    expected: &'static str,
+) -> Result<(), RainError> {
     if value.is_finite() && ok {
         Ok(())
     } else {
@@ -88,7 +95,12 @@ pub fn usda_scs_effective_rain_mm(
 ) -> Result<f64, RainError> {
     check("rain_mm", rain_mm, rain_mm >= 0.0, "a finite depth ≥ 0 mm")?;
     check("etc_mm", etc_mm, etc_mm >= 0.0, "a finite depth ≥ 0 mm")?;
-    check("storage_mm", storage_mm, storage_mm > 0.0, "a finite depth > 0 mm")?;
+    check(
+        "storage_mm",
+        storage_mm,
+        storage_mm > 0.0,
+        "a finite depth > 0 mm",
+    )?;
     if rain_mm <= 0.0 {
         return Ok(0.0);
     }
@@ -125,7 +137,12 @@ pub fn fixed_percentage_effective_rain_mm(rain_mm: f64, fraction: f64) -> Result
 /// # Errors
 /// [`RainError::BadValue`] for a negative or non-finite rain.
 pub fn dependable_rain_fao_tm3_mm(rain_month_mm: f64) -> Result<f64, RainError> {
-    check("rain_mm", rain_month_mm, rain_month_mm >= 0.0, "a finite depth ≥ 0 mm")?;
+    check(
+        "rain_mm",
+        rain_month_mm,
+        rain_month_mm >= 0.0,
+        "a finite depth ≥ 0 mm",
+    )?;
     let pe = if rain_month_mm > 75.0 {
         0.8 * rain_month_mm - 25.0
     } else {

@@ -4,9 +4,9 @@
 #![allow(clippy::unwrap_used, clippy::float_cmp)]
 
 use offtake_core::balance::{
-    BalanceParams, CropCoefficients, DailySeries, EvaporationLayer, ExposedWetted,
-    IrrigationEvent, RunoffRule, Strategy, readily_available_water_mm, simulate,
-    total_available_water_mm, water_stress_coefficient,
+    BalanceParams, CropCoefficients, DailySeries, EvaporationLayer, ExposedWetted, IrrigationEvent,
+    RunoffRule, Strategy, readily_available_water_mm, simulate, total_available_water_mm,
+    water_stress_coefficient,
 };
 
 /// Reads a reference CSV: `#` comments, a header, then rows. Returns the
@@ -66,8 +66,16 @@ fn example36_taw_raw() {
     for i in 0..rows.len() {
         let t = total_available_water_mm(fc[i], wp[i], zr[i]);
         let r = readily_available_water_mm(p[i], t);
-        assert!((t - taw[i]).abs() <= 0.5 + 1e-9, "row {i}: TAW {t} vs {}", taw[i]);
-        assert!((r - raw[i]).abs() <= 0.5 + 1e-9, "row {i}: RAW {r} vs {}", raw[i]);
+        assert!(
+            (t - taw[i]).abs() <= 0.5 + 1e-9,
+            "row {i}: TAW {t} vs {}",
+            taw[i]
+        );
+        assert!(
+            (r - raw[i]).abs() <= 0.5 + 1e-9,
+            "row {i}: RAW {r} vs {}",
+            raw[i]
+        );
     }
 }
 
@@ -80,7 +88,12 @@ fn example39_ks_without_salinity() {
     let ks = column(&h, &rows, "ks_no_salinity");
     for i in 0..rows.len() {
         let k = water_stress_coefficient(110.0, 44.0, dr[i]);
-        assert!((k - ks[i]).abs() <= 0.005 + 1e-9, "Dr {}: Ks {k} vs {}", dr[i], ks[i]);
+        assert!(
+            (k - ks[i]).abs() <= 0.005 + 1e-9,
+            "Dr {}: Ks {k} vs {}",
+            dr[i],
+            ks[i]
+        );
     }
 }
 
@@ -115,7 +128,12 @@ fn example37_ten_days_single_kc() {
     for (i, d) in run.days.iter().enumerate() {
         assert!((d.taw_mm - 160.0).abs() < 1e-9);
         assert!((d.raw_mm - 64.0).abs() < 1e-9);
-        assert!((d.ks - ks[i]).abs() <= 0.005 + 1e-9, "day {}: Ks {}", i + 1, d.ks);
+        assert!(
+            (d.ks - ks[i]).abs() <= 0.005 + 1e-9,
+            "day {}: Ks {}",
+            i + 1,
+            d.ks
+        );
         assert!(
             (d.etc_adj_mm - etc_adj[i]).abs() <= 0.05 + 1e-9,
             "day {}: ETc adj {}",
@@ -175,8 +193,16 @@ fn example31_bare_soil_evaporation() {
         let ev = run.evaporation[i];
         let d = run.days[i];
         let day = i + 1;
-        assert!((ev.kr - kr[i]).abs() <= 0.005 + 1e-9, "day {day}: Kr {}", ev.kr);
-        assert!((ev.ke - ke[i]).abs() <= 0.005 + 1e-9, "day {day}: Ke {}", ev.ke);
+        assert!(
+            (ev.kr - kr[i]).abs() <= 0.005 + 1e-9,
+            "day {day}: Kr {}",
+            ev.kr
+        );
+        assert!(
+            (ev.ke - ke[i]).abs() <= 0.005 + 1e-9,
+            "day {day}: Ke {}",
+            ev.ke
+        );
         assert!(
             (ev.evaporation_mm - e[i]).abs() <= 0.015,
             "day {day}: E {}",
@@ -187,7 +213,11 @@ fn example31_bare_soil_evaporation() {
             "day {day}: De {}",
             ev.depletion_mm
         );
-        assert!((d.etc_adj_mm - etc[i]).abs() <= 0.05 + 1e-9, "day {day}: ETc {}", d.etc_adj_mm);
+        assert!(
+            (d.etc_adj_mm - etc[i]).abs() <= 0.05 + 1e-9,
+            "day {day}: ETc {}",
+            d.etc_adj_mm
+        );
     }
 }
 
@@ -257,19 +287,43 @@ fn example38_dual_kc_scheduling() {
         let d = run.days[i];
         let day = i + 1;
         // Zr is printed to 0.01 m: RAW = 78 Zr carries ±0.39 mm besides its own rounding.
-        assert!((d.raw_mm - raw[i]).abs() <= 0.9, "day {day}: RAW {}", d.raw_mm);
+        assert!(
+            (d.raw_mm - raw[i]).abs() <= 0.9,
+            "day {day}: RAW {}",
+            d.raw_mm
+        );
         assert!((d.ks - 1.0).abs() < 1e-12, "day {day}: Ks {}", d.ks);
-        assert!((run.evaporation[i].ke - ke[i]).abs() <= 0.02, "day {day}: Ke {}", run.evaporation[i].ke);
+        assert!(
+            (run.evaporation[i].ke - ke[i]).abs() <= 0.02,
+            "day {day}: Ke {}",
+            run.evaporation[i].ke
+        );
         assert!((d.kc - kc[i]).abs() <= 0.02, "day {day}: Kc {}", d.kc);
-        assert!((d.etc_adj_mm - etc[i]).abs() <= 0.15, "day {day}: ETc {}", d.etc_adj_mm);
-        assert!((d.deep_perc_mm - dp[i]).abs() <= 1.0, "day {day}: DP {}", d.deep_perc_mm);
-        assert!((d.depletion_mm - dr_end[i]).abs() <= 1.0, "day {day}: Dr {}", d.depletion_mm);
+        assert!(
+            (d.etc_adj_mm - etc[i]).abs() <= 0.15,
+            "day {day}: ETc {}",
+            d.etc_adj_mm
+        );
+        assert!(
+            (d.deep_perc_mm - dp[i]).abs() <= 1.0,
+            "day {day}: DP {}",
+            d.deep_perc_mm
+        );
+        assert!(
+            (d.depletion_mm - dr_end[i]).abs() <= 1.0,
+            "day {day}: Dr {}",
+            d.depletion_mm
+        );
     }
     // Day 10's irrigation is the refill decision: Dr at the end of day 9
     // has reached RAW of day 10 (FAO-56 p. 170: irrigate at Dr = RAW), to
     // the printed rounding, and not before.
     assert!(run.days[8].depletion_mm >= run.days[9].raw_mm - 1.0);
     for i in 1..8 {
-        assert!(run.days[i].depletion_mm < run.days[i + 1].raw_mm, "day {}", i + 1);
+        assert!(
+            run.days[i].depletion_mm < run.days[i + 1].raw_mm,
+            "day {}",
+            i + 1
+        );
     }
 }

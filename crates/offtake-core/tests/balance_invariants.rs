@@ -20,15 +20,29 @@ fn check_closure(run: &BalanceRun) -> Result<(), TestCaseError> {
         let rhs = prev - (d.rain_mm - d.runoff_mm) - d.irrigation_mm - d.capillary_rise_mm
             + d.etc_adj_mm
             + d.deep_perc_mm;
-        prop_assert!((d.depletion_mm - rhs).abs() < TOL_MM, "day {i}: {} vs {rhs}", d.depletion_mm);
+        prop_assert!(
+            (d.depletion_mm - rhs).abs() < TOL_MM,
+            "day {i}: {} vs {rhs}",
+            d.depletion_mm
+        );
         // Eq. 86.
-        prop_assert!(d.depletion_mm >= -TOL_MM && d.depletion_mm <= d.taw_mm + TOL_MM, "day {i}");
+        prop_assert!(
+            d.depletion_mm >= -TOL_MM && d.depletion_mm <= d.taw_mm + TOL_MM,
+            "day {i}"
+        );
         prop_assert!((0.0..=1.0).contains(&d.ks));
         prop_assert!(d.etc_adj_mm <= d.etc_mm + TOL_MM);
         prop_assert!(d.peff_mm >= -TOL_MM && d.peff_mm <= d.rain_mm - d.runoff_mm + TOL_MM);
         prop_assert!(d.deep_perc_mm >= 0.0 && d.runoff_mm >= 0.0);
         prop_assert!(d.p > 0.0 && d.p < 1.0);
-        for v in [d.etc_mm, d.etc_adj_mm, d.peff_mm, d.depletion_mm, d.ks, d.raw_mm] {
+        for v in [
+            d.etc_mm,
+            d.etc_adj_mm,
+            d.peff_mm,
+            d.depletion_mm,
+            d.ks,
+            d.raw_mm,
+        ] {
             prop_assert!(v.is_finite());
         }
         prev = d.depletion_mm;
@@ -44,19 +58,27 @@ fn check_closure(run: &BalanceRun) -> Result<(), TestCaseError> {
 
 fn strategy_strategy() -> impl proptest::strategy::Strategy<Value = Strategy> {
     prop_oneof![
-        (20.0..150.0f64, prop_oneof![Just(None), (0.3..1.0f64).prop_map(Some)]).prop_map(
-            |(t, f)| Strategy::Refill {
+        (
+            20.0..150.0f64,
+            prop_oneof![Just(None), (0.3..1.0f64).prop_map(Some)]
+        )
+            .prop_map(|(t, f)| Strategy::Refill {
                 trigger_pct_of_raw: t,
-                refill_to: f.map_or(RefillTarget::FieldCapacity, RefillTarget::FractionOfDepletion),
-            }
-        ),
-        (1usize..15, 0usize..10, prop_oneof![Just(None), (0.0..80.0f64).prop_map(Some)]).prop_map(
-            |(days, first_day, d)| Strategy::FixedInterval {
+                refill_to: f.map_or(
+                    RefillTarget::FieldCapacity,
+                    RefillTarget::FractionOfDepletion
+                ),
+            }),
+        (
+            1usize..15,
+            0usize..10,
+            prop_oneof![Just(None), (0.0..80.0f64).prop_map(Some)]
+        )
+            .prop_map(|(days, first_day, d)| Strategy::FixedInterval {
                 days,
                 first_day,
                 depth: d.map_or(IntervalDepth::CurrentDepletion, IntervalDepth::FixedMm),
-            }
-        ),
+            }),
         (1.0..80.0f64, 20.0..150.0f64).prop_map(|(net_mm, t)| Strategy::FixedDepth {
             net_mm,
             trigger_pct_of_raw: t
@@ -88,7 +110,10 @@ fn case() -> impl proptest::strategy::Strategy<Value = Case> {
             (0.05..1.0f64, 0.0..1.5f64),
             prop::option::of(prop::collection::vec(0.0..3.0f64, n)),
             (30.0..250.0f64, 0.1..0.9f64, any::<bool>(), 0.0..1.0f64),
-            (prop::option::of(30.0..99.0f64), prop::option::of(0.0..80.0f64)),
+            (
+                prop::option::of(30.0..99.0f64),
+                prop::option::of(0.0..80.0f64),
+            ),
             strategy_strategy(),
         )
             .prop_map(
@@ -195,7 +220,9 @@ fn rainfed_vs_irrigated_sanity() {
             _ => 1.15 - 0.55 * (i - 99) as f64 / 20.0,
         })
         .collect();
-    let zr: Vec<f64> = (0..n).map(|i| 0.3 + 0.9 * (i as f64 / 60.0).min(1.0)).collect();
+    let zr: Vec<f64> = (0..n)
+        .map(|i| 0.3 + 0.9 * (i as f64 / 60.0).min(1.0))
+        .collect();
     let rain = vec![0.0; n];
     let series = DailySeries {
         et0_mm: &et0,
@@ -211,7 +238,10 @@ fn rainfed_vs_irrigated_sanity() {
     let irrigated = simulate(&series, &base).unwrap();
     let t = irrigated.totals();
     assert!(t.irrigation_count > 3);
-    assert!((t.etc_adj_mm - t.etc_mm).abs() < 1e-9, "no stress under refill");
+    assert!(
+        (t.etc_adj_mm - t.etc_mm).abs() < 1e-9,
+        "no stress under refill"
+    );
     assert!(t.deep_perc_mm.abs() < 1e-9);
     assert!((t.irrigation_mm - (t.etc_mm - t.storage_change_mm())).abs() < 1e-9);
 

@@ -16,7 +16,10 @@ const DATA: &str = include_str!(concat!(
 #[test]
 fn reference_rows() {
     let mut checked = 0;
-    for line in DATA.lines().filter(|l| !l.trim().is_empty() && !l.starts_with('#')) {
+    for line in DATA
+        .lines()
+        .filter(|l| !l.trim().is_empty() && !l.starts_with('#'))
+    {
         let f: Vec<&str> = line.split(',').collect();
         let v = |k: usize| f[k].parse::<f64>().unwrap();
         let (a, b, c, expected, tol) = (v(1), v(2), v(3), v(4), v(5));
@@ -26,7 +29,9 @@ fn reference_rows() {
             "usda_sf" => usda_scs_storage_factor(a),
             // FAO Training Manual No. 3 worked table.
             "tm3_pe" => dependable_rain_fao_tm3_mm(a).unwrap(),
-            "tm3_nir" => period_net_irrigation_mm(b, dependable_rain_fao_tm3_mm(a).unwrap().round()),
+            "tm3_nir" => {
+                period_net_irrigation_mm(b, dependable_rain_fao_tm3_mm(a).unwrap().round())
+            }
             // Peace Corps (1994) exam problems 6 and 7.
             "pct_pe" => fixed_percentage_effective_rain_mm(a, b).unwrap(),
             "pct_nir_day" => a - b / c,

@@ -82,14 +82,17 @@ fn land_preparation_volume_and_staggering() {
         assert!((lp - 577.5).abs() < 1e-9, "{lp}");
         assert!((nu - 38.75).abs() < 1e-9, "{nu}");
         for d in run.iter() {
-            assert!((d.nir_mm - (d.land_prep_mm + d.nursery_mm + d.field_irrigation_mm)).abs() < 1e-12);
+            assert!(
+                (d.nir_mm - (d.land_prep_mm + d.nursery_mm + d.field_irrigation_mm)).abs() < 1e-12
+            );
             assert!(d.field_share <= 1.0 + 1e-12);
         }
         // Main field: 90 irrigated days × 9.5 mm (ETc 5.5 + S&P 4), the last 10 drained.
         let fi: f64 = run.iter().map(|d| d.field_irrigation_mm).sum();
         assert!((fi - 90.0 * 9.5).abs() < 1e-9, "{fi}");
     }
-    let peak = |r: &[offtake_core::paddy::PaddyDay]| r.iter().map(|d| d.land_prep_mm).fold(0.0, f64::max);
+    let peak =
+        |r: &[offtake_core::paddy::PaddyDay]| r.iter().map(|d| d.land_prep_mm).fold(0.0, f64::max);
     assert!((peak(&a) - 19.25).abs() < 1e-9, "{}", peak(&a));
     assert!((peak(&b) - 19.25 * 5.0 / 6.0).abs() < 1e-9, "{}", peak(&b));
     let five = planting(5, 120);

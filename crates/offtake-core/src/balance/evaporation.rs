@@ -56,7 +56,9 @@ pub fn canopy_cover_fraction(kcb: f64, kc_min: f64, kc_max: f64, crop_height_m: 
         return 0.0;
     }
     let ratio = ((kcb - kc_min) / (kc_max - kc_min)).clamp(0.0, 1.0);
-    ratio.powf(1.0 + 0.5 * crop_height_m.max(0.0)).clamp(0.0, 0.99)
+    ratio
+        .powf(1.0 + 0.5 * crop_height_m.max(0.0))
+        .clamp(0.0, 0.99)
 }
 
 /// Exposed and wetted soil fraction few, FAO-56 eq. 75 (p. 147).
@@ -143,7 +145,10 @@ pub struct EvaporationDay {
 /// shallow-rooted crops.
 ///
 /// Returns the day record; `kcb`, `kc_max` and `few` are this day's values.
-#[expect(clippy::too_many_arguments, reason = "one argument per FAO-56 quantity")]
+#[expect(
+    clippy::too_many_arguments,
+    reason = "one argument per FAO-56 quantity"
+)]
 pub fn evaporation_layer_step(
     layer: &EvaporationLayer,
     depletion_prev_mm: f64,
@@ -165,7 +170,11 @@ pub fn evaporation_layer_step(
     let room = (layer.tew_mm - start).max(0.0);
     if evaporation_mm / few > room {
         evaporation_mm = room * few;
-        ke = if et0_mm > 0.0 { evaporation_mm / et0_mm } else { 0.0 };
+        ke = if et0_mm > 0.0 {
+            evaporation_mm / et0_mm
+        } else {
+            0.0
+        };
     }
     EvaporationDay {
         kcb,

@@ -103,7 +103,9 @@ pub enum BalanceError {
         expected: &'static str,
     },
     /// The root depth decreased from one day to the next.
-    #[error("root depth decreases on day {day}: {previous_m} m then {found_m} m (must not decrease within a run)")]
+    #[error(
+        "root depth decreases on day {day}: {previous_m} m then {found_m} m (must not decrease within a run)"
+    )]
     RootDepthDecreasing {
         /// Day index (0-based).
         day: usize,
@@ -460,7 +462,13 @@ fn validate(series: &DailySeries<'_>, params: &BalanceParams) -> Result<(), Bala
     let n = series.et0_mm.len();
     let nonneg = |v: f64| v >= 0.0;
     check_series("et0_mm", series.et0_mm, n, nonneg, "a finite value ≥ 0 mm")?;
-    check_series("rain_mm", series.rain_mm, n, nonneg, "a finite value ≥ 0 mm")?;
+    check_series(
+        "rain_mm",
+        series.rain_mm,
+        n,
+        nonneg,
+        "a finite value ≥ 0 mm",
+    )?;
     check_series(
         "root_depth_m",
         series.root_depth_m,
@@ -563,12 +571,7 @@ fn validate(series: &DailySeries<'_>, params: &BalanceParams) -> Result<(), Bala
         "0 ≤ initial depletion ≤ TAW of the first day (mm)",
     )?;
     if let Some(cn) = params.runoff.curve_number {
-        check_param(
-            "curve_number",
-            cn,
-            cn > 0.0 && cn <= 100.0,
-            "0 < CN ≤ 100",
-        )?;
+        check_param("curve_number", cn, cn > 0.0 && cn <= 100.0, "0 < CN ≤ 100")?;
     }
     if let Some(m) = params.runoff.max_infiltration_mm_day {
         check_param(
@@ -594,7 +597,10 @@ fn validate(series: &DailySeries<'_>, params: &BalanceParams) -> Result<(), Bala
 /// # Errors
 /// [`BalanceError`] when a series has the wrong length or a bad value, a
 /// parameter is out of range, or the root depth decreases.
-pub fn simulate(series: &DailySeries<'_>, params: &BalanceParams) -> Result<BalanceRun, BalanceError> {
+pub fn simulate(
+    series: &DailySeries<'_>,
+    params: &BalanceParams,
+) -> Result<BalanceRun, BalanceError> {
     let mut run = BalanceRun::default();
     simulate_into(series, params, &mut run)?;
     Ok(run)
@@ -618,29 +624,145 @@ pub fn simulate_into(
     run.events.clear();
     run.initial_depletion_mm = params.initial_depletion_mm;
 
-    let mut dr = params.initial_depletion_mm;
-    let mut de = match series.crop {
-        CropCoefficients::Dual { layer, .. } => {
-            run.evaporation.reserve(n);
-            layer.initial_depletion_mm
+    match series.crop {
+        CropCoefficients::Single { kc } => {
+            run_days(series, params, run, &mut SingleCoefficient { kc });
         }
-        CropCoefficients::Single { .. } => 0.0,
-    };
-    let mut last_fw = 1.0;
-    let mut next_scheduled = 0usize;
+        CropCoefficients::Dual {
+            kcb,
+            kc_max,
+            layer,
+            few,
+        } => {
+            let mut evaporation = std::mem::take(&mut run.evaporation);
+            evaporation.reserve(n);
+            let mut dual = DualCoefficient {
+                kcb,
+                kc_max,
+                layer,
+                few,
+                depletion_mm: layer.initial_depletion_mm,
+                last_fw: 1.0,
+                records: evaporation,
+            };
+            run_days(series, params, run, &mut dual);
+            run.evaporation = dual.records;
+        }
+    }
+    Ok(())
+}
 
-    for i in 0..n {
-        let et0 = series.et0_mm[i];
-        let rain = series.rain_mm[i];
-        let taw = params.taw_mm_per_m * series.root_depth_m[i];
-        // Unstressed coefficient for p: the single Kc, or Kcb + Ke where Ke is
-        // not yet known: p uses Kcb·ET0 then (the transpiration demand).
-        let kc_for_p = match series.crop {
-            CropCoefficients::Single { kc } => kc[i],
-            CropCoefficients::Dual { kcb, .. } => kcb[i],
+/// The crop-coefficient side of the daily step, monomorphised so that the
+/// daily loop carries no branch on the coefficient kind.
+trait DayCoefficient {
+    /// Coefficient whose ET sets the p adjustment: Kc, or Kcb for the dual
+    /// coefficient (Ke is not known before the wetting).
+    fn kc_for_p(&self, i: usize) -> f64;
+    /// Returns (unstressed Kc, ETc adj before the bound by the water left).
+    fn coefficients(
+        &mut self,
+        i: usize,
+        ks: f64,
+        infiltrated_mm: f64,
+        irrigation_mm: f64,
+        et0_mm: f64,
+    ) -> (f64, f64);
+}
+
+struct SingleCoefficient<'a> {
+    kc: &'a [f64],
+}
+
+impl DayCoefficient for SingleCoefficient<'_> {
+    #[inline]
+    fn kc_for_p(&self, i: usize) -> f64 {
+        self.kc[i]
+    }
+    #[inline]
+    fn coefficients(&mut self, i: usize, ks: f64, _: f64, _: f64, et0_mm: f64) -> (f64, f64) {
+        let kc = self.kc[i];
+        (kc, ks * kc * et0_mm)
+    }
+}
+
+struct DualCoefficient<'a> {
+    kcb: &'a [f64],
+    kc_max: &'a [f64],
+    layer: EvaporationLayer,
+    few: ExposedWetted<'a>,
+    depletion_mm: f64,
+    last_fw: f64,
+    records: Vec<EvaporationDay>,
+}
+
+impl DayCoefficient for DualCoefficient<'_> {
+    #[inline]
+    fn kc_for_p(&self, i: usize) -> f64 {
+        self.kcb[i]
+    }
+    fn coefficients(
+        &mut self,
+        i: usize,
+        ks: f64,
+        infiltrated_mm: f64,
+        irrigation_mm: f64,
+        et0_mm: f64,
+    ) -> (f64, f64) {
+        let kcb = self.kcb[i];
+        let kc_max = self.kc_max[i];
+        if irrigation_mm > 0.0 {
+            self.last_fw = self.layer.fw_irrigation;
+        } else if infiltrated_mm > 0.0 {
+            self.last_fw = 1.0;
+        }
+        let few = match self.few {
+            ExposedWetted::Fixed(f) => f,
+            ExposedWetted::FromCover { canopy_cover } => {
+                evaporation::exposed_wetted_fraction(canopy_cover[i], self.last_fw)
+            }
+            ExposedWetted::FromCanopy {
+                kc_min,
+                crop_height_m,
+            } => evaporation::exposed_wetted_fraction(
+                evaporation::canopy_cover_fraction(kcb, kc_min, kc_max, crop_height_m[i]),
+                self.last_fw,
+            ),
         };
+        let ev = evaporation::evaporation_layer_step(
+            &self.layer,
+            self.depletion_mm,
+            infiltrated_mm,
+            irrigation_mm,
+            self.layer.fw_irrigation,
+            et0_mm,
+            kcb,
+            kc_max,
+            few,
+        );
+        self.depletion_mm = ev.depletion_mm;
+        self.records.push(ev);
+        (kcb + ev.ke, (ks * kcb + ev.ke) * et0_mm)
+    }
+}
+
+fn run_days<C: DayCoefficient>(
+    series: &DailySeries<'_>,
+    params: &BalanceParams,
+    run: &mut BalanceRun,
+    crop: &mut C,
+) {
+    let n = series.et0_mm.len();
+    let et0_s = &series.et0_mm[..n];
+    let rain_s = &series.rain_mm[..n];
+    let zr_s = &series.root_depth_m[..n];
+    let mut dr = params.initial_depletion_mm;
+    let mut next_scheduled = 0usize;
+    for i in 0..n {
+        let et0 = et0_s[i];
+        let rain = rain_s[i];
+        let taw = params.taw_mm_per_m * zr_s[i];
         let p = if params.adjust_p_for_etc {
-            depletion_fraction_adjusted(params.p_table, kc_for_p * et0)
+            depletion_fraction_adjusted(params.p_table, crop.kc_for_p(i) * et0)
         } else {
             params.p_table
         };
@@ -656,7 +778,11 @@ pub fn simulate_into(
                 net_mm: irrigation,
             });
         }
-        let runoff = params.runoff.runoff_mm(rain);
+        let runoff = if rain > 0.0 {
+            params.runoff.runoff_mm(rain)
+        } else {
+            0.0
+        };
         let infiltrated = rain - runoff;
         let after = dr - infiltrated - irrigation;
         let cr = match series.capillary_rise_mm {
@@ -668,53 +794,7 @@ pub fn simulate_into(
         let dr_start = after.max(0.0);
         let ks = water_stress_coefficient(taw, raw, dr_start);
 
-        let (kc, etc_adj_raw) = match series.crop {
-            CropCoefficients::Single { kc } => (kc[i], ks * kc[i] * et0),
-            CropCoefficients::Dual {
-                kcb,
-                kc_max,
-                layer,
-                few,
-            } => {
-                if irrigation > 0.0 {
-                    last_fw = layer.fw_irrigation;
-                } else if infiltrated > 0.0 {
-                    last_fw = 1.0;
-                }
-                let few_i = match few {
-                    ExposedWetted::Fixed(f) => f,
-                    ExposedWetted::FromCover { canopy_cover } => {
-                        evaporation::exposed_wetted_fraction(canopy_cover[i], last_fw)
-                    }
-                    ExposedWetted::FromCanopy {
-                        kc_min,
-                        crop_height_m,
-                    } => evaporation::exposed_wetted_fraction(
-                        evaporation::canopy_cover_fraction(
-                            kcb[i],
-                            kc_min,
-                            kc_max[i],
-                            crop_height_m[i],
-                        ),
-                        last_fw,
-                    ),
-                };
-                let ev = evaporation::evaporation_layer_step(
-                    &layer,
-                    de,
-                    infiltrated,
-                    irrigation,
-                    layer.fw_irrigation,
-                    et0,
-                    kcb[i],
-                    kc_max[i],
-                    few_i,
-                );
-                de = ev.depletion_mm;
-                run.evaporation.push(ev);
-                (kcb[i] + ev.ke, (ks * kcb[i] + ev.ke) * et0)
-            }
-        };
+        let (kc, etc_adj_raw) = crop.coefficients(i, ks, infiltrated, irrigation, et0);
         let etc = kc * et0;
         let etc_adj = etc_adj_raw.min(taw - dr_start).max(0.0);
         dr = dr_start + etc_adj;
@@ -742,7 +822,6 @@ pub fn simulate_into(
             ks,
         });
     }
-    Ok(())
 }
 
 #[cfg(test)]
@@ -788,7 +867,10 @@ mod tests {
             capillary_rise_mm: None,
         };
         let e = simulate(&s, &BalanceParams::new(0.3, 0.1, 0.5)).unwrap_err();
-        assert!(matches!(e, BalanceError::RootDepthDecreasing { day: 1, .. }));
+        assert!(matches!(
+            e,
+            BalanceError::RootDepthDecreasing { day: 1, .. }
+        ));
     }
 
     #[test]
