@@ -100,10 +100,10 @@ fn bench<M: Measurement + 'static>(c: &mut Criterion<M>, tag: &str) {
         .map(|i| {
             let d = i % 365;
             match d {
-                0..=29 => 0.3,
                 30..=69 => 0.3 + 0.9 * (d - 29) as f64 / 40.0,
                 70..=119 => 1.2,
                 120..=149 => 1.2 - 0.6 * (d - 119) as f64 / 30.0,
+                // Initial stage and the bare soil between seasons.
                 _ => 0.3,
             }
         })
@@ -129,7 +129,8 @@ fn bench<M: Measurement + 'static>(c: &mut Criterion<M>, tag: &str) {
     let mut run = BalanceRun::default();
     c.bench_function(&format!("balance_single_kc_30y_{tag}"), |b| {
         b.iter(|| {
-            simulate_into(black_box(&single), black_box(&params), &mut run).unwrap();
+            simulate_into(black_box(&single), black_box(&params), &mut run)
+                .expect("valid invented inputs");
             black_box(run.days.len())
         });
     });
@@ -157,7 +158,8 @@ fn bench<M: Measurement + 'static>(c: &mut Criterion<M>, tag: &str) {
     };
     c.bench_function(&format!("balance_dual_kc_30y_{tag}"), |b| {
         b.iter(|| {
-            simulate_into(black_box(&dual), black_box(&params), &mut run).unwrap();
+            simulate_into(black_box(&dual), black_box(&params), &mut run)
+                .expect("valid invented inputs");
             black_box(run.days.len())
         });
     });

@@ -498,6 +498,7 @@ pub fn paddy_planting_requirement(
 }
 
 #[cfg(test)]
+#[allow(clippy::unwrap_used)]
 mod tests {
     use super::*;
 

@@ -251,6 +251,7 @@ pub fn daily_nir_from_periods(
 }
 
 #[cfg(test)]
+#[allow(clippy::unwrap_used)]
 mod tests {
     use super::*;
 

@@ -151,6 +151,7 @@ pub fn stage_water(
 }
 
 #[cfg(test)]
+#[allow(clippy::unwrap_used)]
 mod tests {
     use super::*;
 

@@ -81,7 +81,7 @@ fn land_preparation_volume_and_staggering() {
         let nu: f64 = run.iter().map(|d| d.nursery_mm).sum();
         assert!((lp - 577.5).abs() < 1e-9, "{lp}");
         assert!((nu - 38.75).abs() < 1e-9, "{nu}");
-        for d in run.iter() {
+        for d in run {
             assert!(
                 (d.nir_mm - (d.land_prep_mm + d.nursery_mm + d.field_irrigation_mm)).abs() < 1e-12
             );

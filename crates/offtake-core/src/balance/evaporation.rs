@@ -189,6 +189,7 @@ pub fn evaporation_layer_step(
 }
 
 #[cfg(test)]
+#[allow(clippy::unwrap_used)]
 mod tests {
     use super::*;
 

@@ -825,6 +825,7 @@ fn run_days<C: DayCoefficient>(
 }
 
 #[cfg(test)]
+#[allow(clippy::unwrap_used)]
 mod tests {
     use super::*;
 

@@ -263,7 +263,7 @@ impl Strategy {
                 first_day,
                 depth,
             } => {
-                if day >= first_day && (day - first_day) % days == 0 {
+                if day >= first_day && (day - first_day).is_multiple_of(days) {
                     match depth {
                         IntervalDepth::CurrentDepletion => depletion_prev_mm,
                         IntervalDepth::FixedMm(d) => d,
@@ -314,6 +314,7 @@ impl Strategy {
 }
 
 #[cfg(test)]
+#[allow(clippy::unwrap_used)]
 mod tests {
     use super::*;
 
