@@ -23,6 +23,7 @@
 //! With any of them the net irrigation requirement of a period is
 //! NIR = max(0, ETc − Pe), spread evenly over the period's days.
 
+use chrono::{Datelike, NaiveDate};
 use serde::{Deserialize, Serialize};
 
 /// Millimetres per inch.
@@ -225,6 +226,86 @@ pub fn effective_rain_period_mm(
     Ok(pe_month / to_month)
 }
 
+/// Calendar periods for the period-total methods.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+pub enum PeriodKind {
+    /// Calendar months.
+    Month,
+    /// 10-day periods: days 1–10, 11–20 and 21–end of each month (8 to 11
+    /// days), as DESIGN.md defines them.
+    TenDay,
+}
+
+/// Days in the month of `date` (28–31).
+pub fn days_in_month(date: NaiveDate) -> u32 {
+    let (y, m) = (date.year(), date.month());
+    let next = if m == 12 {
+        NaiveDate::from_ymd_opt(y + 1, 1, 1)
+    } else {
+        NaiveDate::from_ymd_opt(y, m + 1, 1)
+    };
+    next.and_then(|n| n.pred_opt()).map_or(30, |d| d.day())
+}
+
+fn period_key(date: NaiveDate, kind: PeriodKind) -> (i32, u32, u32) {
+    let part = match kind {
+        PeriodKind::Month => 0,
+        PeriodKind::TenDay => ((date.day() - 1) / 10).min(2),
+    };
+    (date.year(), date.month(), part)
+}
+
+/// Sums daily rain and ETc (series starting on `first_day`) into calendar
+/// periods. A period cut by the start or end of the series keeps only the
+/// days inside it (its `days` is then smaller), so the rescaling of
+/// [`effective_rain_period_mm`] treats the covered days as the period.
+///
+/// # Errors
+/// [`RainError::BadValue`] when the series differ in length or hold a
+/// negative or non-finite value.
+pub fn period_totals(
+    first_day: NaiveDate,
+    rain_mm: &[f64],
+    etc_mm: &[f64],
+    kind: PeriodKind,
+) -> Result<Vec<PeriodTotals>, RainError> {
+    check(
+        "etc_mm length",
+        etc_mm.len() as f64,
+        etc_mm.len() == rain_mm.len(),
+        "as many days as rain_mm",
+    )?;
+    let mut out: Vec<PeriodTotals> = Vec::new();
+    let mut key = None;
+    let mut date = first_day;
+    for (&p, &e) in rain_mm.iter().zip(etc_mm) {
+        check("rain_mm", p, p >= 0.0, "a finite depth ≥ 0 mm")?;
+        check("etc_mm", e, e >= 0.0, "a finite depth ≥ 0 mm")?;
+        let k = period_key(date, kind);
+        match out.last_mut() {
+            Some(last) if key == Some(k) => {
+                last.days += 1;
+                last.rain_mm += p;
+                last.etc_mm += e;
+            }
+            _ => {
+                out.push(PeriodTotals {
+                    days: 1,
+                    days_in_month: days_in_month(date),
+                    rain_mm: p,
+                    etc_mm: e,
+                });
+                key = Some(k);
+            }
+        }
+        match date.succ_opt() {
+            Some(d) => date = d,
+            None => break,
+        }
+    }
+    Ok(out)
+}
+
 /// Net irrigation requirement of a period (mm): NIR = max(0, ETc − Pe).
 pub fn period_net_irrigation_mm(etc_mm: f64, peff_mm: f64) -> f64 {
     (etc_mm - peff_mm).max(0.0)
@@ -282,6 +363,21 @@ mod tests {
         };
         let pe = effective_rain_period_mm(EffectiveRainMethod::DependableFaoTm3, &p).unwrap();
         assert!((pe - 47.0 / 3.0).abs() < 1e-12);
+    }
+
+    /// DESIGN.md 10-day periods: February 2024 (leap year) splits 10/10/9.
+    #[test]
+    fn ten_day_periods_of_a_leap_february() {
+        let start = NaiveDate::from_ymd_opt(2024, 2, 1).unwrap();
+        let n = 29 + 5;
+        let t = period_totals(start, &vec![1.0; n], &vec![2.0; n], PeriodKind::TenDay).unwrap();
+        let days: Vec<u32> = t.iter().map(|p| p.days).collect();
+        assert_eq!(days, vec![10, 10, 9, 5]);
+        assert_eq!(t[2].days_in_month, 29);
+        assert_eq!(t[3].days_in_month, 31);
+        assert!((t[2].etc_mm - 18.0).abs() < 1e-12);
+        let m = period_totals(start, &vec![1.0; n], &vec![2.0; n], PeriodKind::Month).unwrap();
+        assert_eq!(m.iter().map(|p| p.days).collect::<Vec<_>>(), vec![29, 5]);
     }
 
     #[test]

@@ -858,6 +858,38 @@ mod tests {
         assert!(r.runoff_mm(30.0).abs() < 1e-12);
     }
 
+    /// Effective rain as documented: Dr 10 mm, 30 mm rain, no runoff →
+    /// DP 20 mm, Peff 10 mm. With 20 mm of scheduled irrigation the same day
+    /// DP is 40 mm, shared 30:20 → Peff = 30 − 40·30/50 = 6 mm.
+    #[test]
+    fn effective_rain_shares_deep_percolation() {
+        let s = DailySeries {
+            et0_mm: &[0.0],
+            rain_mm: &[30.0],
+            crop: CropCoefficients::Single { kc: &[1.0] },
+            root_depth_m: &[0.5],
+            capillary_rise_mm: None,
+        };
+        let params = BalanceParams {
+            initial_depletion_mm: 10.0,
+            strategy: Strategy::Rainfed,
+            ..BalanceParams::new(0.3, 0.1, 0.5)
+        };
+        let d = simulate(&s, &params).unwrap().days[0];
+        assert!((d.deep_perc_mm - 20.0).abs() < 1e-12);
+        assert!((d.peff_mm - 10.0).abs() < 1e-12);
+        let params = BalanceParams {
+            strategy: Strategy::Scheduled(vec![IrrigationEvent {
+                day: 0,
+                net_mm: 20.0,
+            }]),
+            ..params
+        };
+        let d = simulate(&s, &params).unwrap().days[0];
+        assert!((d.deep_perc_mm - 40.0).abs() < 1e-12);
+        assert!((d.peff_mm - 6.0).abs() < 1e-12);
+    }
+
     #[test]
     fn decreasing_roots_is_an_error() {
         let s = DailySeries {
