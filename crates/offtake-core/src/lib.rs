@@ -13,8 +13,15 @@
 //! by a qualified engineer against local codes and measured data.
 
 pub mod balance;
+pub mod calendar;
+pub mod climate_stats;
+pub mod et0;
+pub mod openwater;
 pub mod paddy;
+pub mod project;
 pub mod rain;
+pub mod stats;
 pub mod units;
 pub mod weather;
+pub mod weather_gen;
 pub mod yield_response;

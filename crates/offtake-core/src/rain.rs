@@ -23,8 +23,10 @@
 //! With any of them the net irrigation requirement of a period is
 //! NIR = max(0, ETc − Pe), spread evenly over the period's days.
 
-use chrono::{Datelike, NaiveDate};
+use chrono::NaiveDate;
 use serde::{Deserialize, Serialize};
+
+use crate::calendar::{TenDayPeriod, YearMonth};
 
 /// Millimetres per inch.
 pub const MM_PER_INCH: f64 = 25.4;
@@ -236,23 +238,12 @@ pub enum PeriodKind {
     TenDay,
 }
 
-/// Days in the month of `date` (28–31).
-pub fn days_in_month(date: NaiveDate) -> u32 {
-    let (y, m) = (date.year(), date.month());
-    let next = if m == 12 {
-        NaiveDate::from_ymd_opt(y + 1, 1, 1)
-    } else {
-        NaiveDate::from_ymd_opt(y, m + 1, 1)
+fn period_key(date: NaiveDate, kind: PeriodKind) -> (YearMonth, Option<TenDayPeriod>) {
+    let ten_day = match kind {
+        PeriodKind::Month => None,
+        PeriodKind::TenDay => Some(TenDayPeriod::containing(date)),
     };
-    next.and_then(|n| n.pred_opt()).map_or(30, |d| d.day())
-}
-
-fn period_key(date: NaiveDate, kind: PeriodKind) -> (i32, u32, u32) {
-    let part = match kind {
-        PeriodKind::Month => 0,
-        PeriodKind::TenDay => ((date.day() - 1) / 10).min(2),
-    };
-    (date.year(), date.month(), part)
+    (YearMonth::containing(date), ten_day)
 }
 
 /// Sums daily rain and ETc (series starting on `first_day`) into calendar
@@ -291,7 +282,7 @@ pub fn period_totals(
             _ => {
                 out.push(PeriodTotals {
                     days: 1,
-                    days_in_month: days_in_month(date),
+                    days_in_month: k.0.length_days(),
                     rain_mm: p,
                     etc_mm: e,
                 });
