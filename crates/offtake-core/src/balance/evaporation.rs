@@ -5,16 +5,16 @@
 //! water; the first REW mm evaporate at the energy-limited rate (stage 1),
 //! the rest at a rate falling with the layer's depletion De (stage 2).
 //! Sources: Allen, Pereira, Raes & Smith (1998), FAO Irrigation and Drainage
-//! Paper 56, Chapter 7, eqs. 71–79, pp. 142–152.
+//! Paper 56, Chapter 7, eqs. 71–79.
 
 use serde::{Deserialize, Serialize};
 
-/// Upper limit of Kc after rain or irrigation, FAO-56 eq. 72 (p. 146).
+/// Upper limit of Kc after rain or irrigation, FAO-56 eq. 72.
 ///
 /// Kc max = max({1.2 + [0.04(u2 − 2) − 0.004(RHmin − 45)](h/3)^0.3}, {Kcb + 0.05}).
 ///
 /// Inputs: `wind_2m_ms` u2 (m/s), `rh_min_pct` RHmin (%), `crop_height_m` h
-/// (m), `kcb`. `base` is 1.2 normally; FAO-56 p. 146 uses 1.1 instead of 1.2
+/// (m), `kcb`. `base` is 1.2 normally; FAO-56 uses 1.1 instead of 1.2
 /// where wetting is daily or every 2 days. FAO-56 limits the climate term to
 /// 1 ≤ u2 ≤ 6 m/s and 20 ≤ RHmin ≤ 80 %; the inputs are clamped to that range.
 pub fn kc_max(base: f64, wind_2m_ms: f64, rh_min_pct: f64, crop_height_m: f64, kcb: f64) -> f64 {
@@ -25,7 +25,7 @@ pub fn kc_max(base: f64, wind_2m_ms: f64, rh_min_pct: f64, crop_height_m: f64, k
     (base + climate).max(kcb + 0.05)
 }
 
-/// Total evaporable water TEW (mm), FAO-56 eq. 73 (p. 147).
+/// Total evaporable water TEW (mm), FAO-56 eq. 73.
 ///
 /// TEW = 1000 (θFC − 0.5 θWP) Ze, with θ in m³/m³ and Ze (m) the depth of
 /// the evaporating layer (0.10–0.15 m).
@@ -33,7 +33,7 @@ pub fn total_evaporable_water_mm(theta_fc: f64, theta_wp: f64, layer_depth_m: f6
     1000.0 * (theta_fc - 0.5 * theta_wp) * layer_depth_m
 }
 
-/// Evaporation reduction coefficient Kr, FAO-56 eq. 74 (p. 147).
+/// Evaporation reduction coefficient Kr, FAO-56 eq. 74.
 ///
 /// Kr = (TEW − De)/(TEW − REW) when De > REW, else 1; De (mm) is the
 /// depletion of the surface layer after the day's wetting. Clamped to 0..1.
@@ -47,10 +47,10 @@ pub fn evaporation_reduction_coefficient(depletion_mm: f64, tew_mm: f64, rew_mm:
     }
 }
 
-/// Effective fraction of ground covered by vegetation fc, FAO-56 eq. 76 (p. 149).
+/// Effective fraction of ground covered by vegetation fc, FAO-56 eq. 76.
 ///
 /// fc = ((Kcb − Kc min)/(Kc max − Kc min))^(1 + 0.5 h), limited to 0..0.99 as
-/// FAO-56 advises. `kc_min` ≈ 0.15 for annual crops (FAO-56 p. 149).
+/// FAO-56 advises. `kc_min` ≈ 0.15 for annual crops (FAO-56 Chapter 7).
 pub fn canopy_cover_fraction(kcb: f64, kc_min: f64, kc_max: f64, crop_height_m: f64) -> f64 {
     if kc_max <= kc_min || kcb <= kc_min {
         return 0.0;
@@ -61,7 +61,7 @@ pub fn canopy_cover_fraction(kcb: f64, kc_min: f64, kc_max: f64, crop_height_m: 
         .clamp(0.0, 0.99)
 }
 
-/// Exposed and wetted soil fraction few, FAO-56 eq. 75 (p. 147).
+/// Exposed and wetted soil fraction few, FAO-56 eq. 75.
 ///
 /// few = min(1 − fc, fw), with fc the canopy cover and fw the fraction of the
 /// surface wetted by the last irrigation or rain (1 for rain; FAO-56 Table 20).
@@ -70,7 +70,7 @@ pub fn exposed_wetted_fraction(canopy_cover: f64, fw: f64) -> f64 {
     (1.0 - canopy_cover).min(fw).clamp(0.01, 1.0)
 }
 
-/// Soil evaporation coefficient Ke, FAO-56 eq. 71 (p. 145).
+/// Soil evaporation coefficient Ke, FAO-56 eq. 71.
 ///
 /// Ke = Kr (Kc max − Kcb) ≤ few · Kc max.
 pub fn soil_evaporation_coefficient(kr: f64, kc_max: f64, kcb: f64, few: f64) -> f64 {
@@ -107,7 +107,7 @@ pub enum ExposedWetted<'a> {
     /// From the canopy (eq. 76, with the crop height per day in m) and the
     /// fraction wetted by the last event (eq. 75).
     FromCanopy {
-        /// Kc min, ≈ 0.15 for annual crops (FAO-56 p. 149).
+        /// Kc min, ≈ 0.15 for annual crops (FAO-56 Chapter 7).
         kc_min: f64,
         /// Crop height per day (m).
         crop_height_m: &'a [f64],
@@ -141,7 +141,7 @@ pub struct EvaporationDay {
 /// surplus percolating (eq. 79); Kr and Ke follow from the depletion after
 /// wetting; the evaporation E/few is then drawn from the exposed wetted part
 /// (eq. 77), bounded so that 0 ≤ De ≤ TEW (eq. 78). Transpiration from the
-/// layer (T_ew) is neglected, as FAO-56 p. 153 allows except for
+/// layer (T_ew) is neglected, as FAO-56 Chapter 7 allows except for
 /// shallow-rooted crops.
 ///
 /// Returns the day record; `kcb`, `kc_max` and `few` are this day's values.
@@ -209,7 +209,7 @@ mod tests {
         assert!((total_evaporable_water_mm(0.23, 0.10, 0.10) - 18.0).abs() < 1e-9);
     }
 
-    /// Kr printed in FAO-56 Example 31 (p. 146): TEW 20, REW 9;
+    /// Kr printed in FAO-56 Example 31: TEW 20, REW 9;
     /// De = 9.45 → 0.96, 13.98 → 0.55.
     #[test]
     fn kr_example31() {

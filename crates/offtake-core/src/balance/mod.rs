@@ -1,7 +1,7 @@
 //! Root-zone water balance of one planting, FAO-56 Chapter 8.
 //!
 //! Source: Allen, Pereira, Raes & Smith (1998), *Crop evapotranspiration*,
-//! FAO Irrigation and Drainage Paper 56, Chapter 8, eqs. 81–88, pp. 161–173;
+//! FAO Irrigation and Drainage Paper 56, Chapter 8, eqs. 81–88;
 //! the dual coefficient's evaporation layer is Chapter 7 (see
 //! [`evaporation`]).
 //!
@@ -54,7 +54,7 @@ use serde::{Deserialize, Serialize};
 pub use evaporation::{EvaporationDay, EvaporationLayer, ExposedWetted};
 pub use strategy::{IntervalDepth, IrrigationEvent, ParseStrategyError, RefillTarget, Strategy};
 
-/// p of FAO-56 Table 22 applies at ETc ≈ 5 mm/day (Table 22 note, p. 162).
+/// p of FAO-56 Table 22 applies at ETc ≈ 5 mm/day (Table 22 note).
 pub const P_REFERENCE_ETC_MM_DAY: f64 = 5.0;
 /// Slope of the p adjustment, per mm/day of ETc (Table 22 note).
 pub const P_ADJUST_PER_MM_DAY: f64 = 0.04;
@@ -116,26 +116,26 @@ pub enum BalanceError {
     },
 }
 
-/// Total available water TAW (mm), FAO-56 eq. 82 (p. 162).
+/// Total available water TAW (mm), FAO-56 eq. 82.
 ///
 /// TAW = 1000 (θFC − θWP) Zr, with θ in m³/m³ and Zr the root depth (m).
 pub fn total_available_water_mm(theta_fc: f64, theta_wp: f64, root_depth_m: f64) -> f64 {
     1000.0 * (theta_fc - theta_wp) * root_depth_m
 }
 
-/// Readily available water RAW (mm), FAO-56 eq. 83 (p. 162): RAW = p TAW.
+/// Readily available water RAW (mm), FAO-56 eq. 83: RAW = p TAW.
 pub fn readily_available_water_mm(p: f64, taw_mm: f64) -> f64 {
     p * taw_mm
 }
 
-/// Depletion fraction p adjusted for the day's ETc, FAO-56 Table 22 note
-/// (p. 162): p = p_tab + 0.04 (5 − ETc), limited to 0.1 ≤ p ≤ 0.8, with ETc
+/// Depletion fraction p adjusted for the day's ETc, FAO-56 Table 22 note:
+/// p = p_tab + 0.04 (5 − ETc), limited to 0.1 ≤ p ≤ 0.8, with ETc
 /// in mm/day and p_tab the Table 22 value (valid at ETc ≈ 5 mm/day).
 pub fn depletion_fraction_adjusted(p_table: f64, etc_mm_day: f64) -> f64 {
     (p_table + P_ADJUST_PER_MM_DAY * (P_REFERENCE_ETC_MM_DAY - etc_mm_day)).clamp(P_MIN, P_MAX)
 }
 
-/// Water stress coefficient Ks, FAO-56 eq. 84 (p. 169).
+/// Water stress coefficient Ks, FAO-56 eq. 84.
 ///
 /// Ks = (TAW − Dr)/(TAW − RAW) when Dr > RAW, else 1; Dr the root-zone
 /// depletion (mm). Clamped to 0..1 (Dr ≥ TAW gives 0).
@@ -150,7 +150,7 @@ pub fn water_stress_coefficient(taw_mm: f64, raw_mm: f64, depletion_mm: f64) -> 
 }
 
 /// Initial root-zone depletion (mm) from the initial water content,
-/// FAO-56 eq. 87 (p. 170): Dr,i−1 = 1000 (θFC − θi−1) Zr.
+/// FAO-56 eq. 87: Dr,i−1 = 1000 (θFC − θi−1) Zr.
 pub fn initial_depletion_mm(theta_fc: f64, theta_initial: f64, root_depth_m: f64) -> f64 {
     1000.0 * (theta_fc - theta_initial) * root_depth_m
 }
@@ -246,7 +246,7 @@ pub struct DailySeries<'a> {
     /// Effective root depth Zr (m, > 0, non-decreasing).
     pub root_depth_m: &'a [f64],
     /// Capillary rise from a shallow water table CR (mm/day), optional
-    /// (FAO-56 p. 170: CR ≈ 0 when the water table is more than about 1 m
+    /// (FAO-56 pp. 170–171: CR ≈ 0 when the water table is more than about 1 m
     /// below the root zone).
     pub capillary_rise_mm: Option<&'a [f64]>,
 }

@@ -6,7 +6,7 @@
 //! not see the day's rain (no forecast). Water is applied early in the day, as
 //! in FAO-56 Example 38 (p. 172).
 //!
-//! FAO-56 (Allen et al. 1998) p. 170 gives the rule the refill strategy
+//! FAO-56 (Allen et al. 1998, pp. 170–171) gives the rule the refill strategy
 //! follows: irrigate at or before Dr = RAW, with net depth I ≤ Dr. The other
 //! strategies are common scheduling practices; their default numbers are our
 //! own planning defaults, not published values, and say so.
@@ -53,7 +53,7 @@ pub struct IrrigationEvent {
 #[non_exhaustive]
 pub enum Strategy {
     /// Irrigate when the depletion reaches `trigger_pct_of_raw` % of RAW
-    /// (FAO-56 p. 170: "at or before Dr = RAW"; default 100 %), bringing the
+    /// (FAO-56 pp. 170–171: "at or before Dr = RAW"; default 100 %), bringing the
     /// root zone back to `refill_to`.
     Refill {
         /// Trigger depletion as a percentage of RAW (0 < x ≤ 100 for no stress).
@@ -105,7 +105,7 @@ pub const DEFAULT_FIXED_NET_MM: f64 = 40.0;
 pub const DEFAULT_DEFICIT_ALLOWED_STRESS: f64 = 0.3;
 
 impl Default for Strategy {
-    /// Refill at 100 % of RAW back to field capacity (FAO-56 p. 170).
+    /// Refill at 100 % of RAW back to field capacity (FAO-56 pp. 170–171).
     fn default() -> Self {
         Strategy::Refill {
             trigger_pct_of_raw: 100.0,
