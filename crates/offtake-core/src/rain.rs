@@ -74,8 +74,9 @@ fn check(
 /// SF = 0.531747 + 0.295164 D − 0.057697 D² + 0.003804 D³, with D the usable
 /// soil water storage in inches (normally the net depth of application);
 /// SF(3 in) ≈ 1. Source: USDA-SCS (1970) TR-21, as restated in NEH Part 623
-/// Ch. 2 (§623.0207) — the polynomial fits the printed storage-factor table
-/// within about 0.01. Meant for D of about 0.75–7 in (19–178 mm).
+/// Ch. 2 (§623.0207) [primary text not retrieved; formula as quoted in the
+/// project's reference file] — the polynomial differs from the NEH table's
+/// 2-decimal values by up to about 0.01 [table values from memory]. Meant for D of about 0.75–7 in (19–178 mm).
 pub fn usda_scs_storage_factor(storage_in: f64) -> f64 {
     let d = storage_in;
     0.531_747 + 0.295_164 * d - 0.057_697 * d * d + 0.003_804 * d * d * d

@@ -157,7 +157,8 @@ pub fn initial_depletion_mm(theta_fc: f64, theta_initial: f64, root_depth_m: f64
 
 /// Daily surface runoff (mm) by the USDA-SCS curve number method
 /// (USDA-NRCS National Engineering Handbook Part 630, Chapter 10, runoff
-/// equation; originally NEH-4 Section 4):
+/// equation; originally NEH-4 Section 4) [equation written from memory of
+/// the handbook; the primary text was not retrieved here — verify]:
 ///
 /// Q = (P − Ia)² / (P − Ia + S) for P > Ia, else 0; S = 25400/CN − 254 (mm),
 /// Ia = 0.2 S.
