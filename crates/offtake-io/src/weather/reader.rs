@@ -122,7 +122,70 @@ pub struct ImportedSeries {
     pub fields: Vec<&'static str>,
 }
 
-type Source<R> = std::io::Chain<Cursor<Vec<u8>>, BufReader<R>>;
+type Source<R> = LineTap<std::io::Chain<Cursor<Vec<u8>>, BufReader<R>>>;
+
+/// A reader that notes where each line-end byte is, so a record's byte offset
+/// (which the csv crate reports from the end of the previous record, blank
+/// lines included) can be turned into the line number an editor shows.
+/// Offsets already passed are dropped, so memory stays bounded by the csv
+/// read-ahead buffer.
+struct LineTap<R> {
+    inner: R,
+    offset: u64,
+    /// Offsets of `\r` and `\n` bytes not yet passed, with whether each is `\n`.
+    ends: VecDeque<(u64, bool)>,
+    lines_before: u64,
+}
+
+impl<R> LineTap<R> {
+    fn new(inner: R) -> Self {
+        Self {
+            inner,
+            offset: 0,
+            ends: VecDeque::new(),
+            lines_before: 0,
+        }
+    }
+
+    /// Line number (from 1) of the first byte at or after `byte` that is not a
+    /// line end; calls must not go backwards.
+    fn line_at(&mut self, byte: u64) -> u64 {
+        while let Some(&(at, is_nl)) = self.ends.front() {
+            if at >= byte {
+                break;
+            }
+            self.ends.pop_front();
+            if is_nl {
+                self.lines_before += 1;
+            }
+        }
+        let mut expected = byte;
+        let mut leading = 0;
+        for &(at, is_nl) in &self.ends {
+            if at != expected {
+                break;
+            }
+            expected += 1;
+            if is_nl {
+                leading += 1;
+            }
+        }
+        self.lines_before + leading + 1
+    }
+}
+
+impl<R: Read> Read for LineTap<R> {
+    fn read(&mut self, buf: &mut [u8]) -> std::io::Result<usize> {
+        let n = self.inner.read(buf)?;
+        for (i, b) in buf[..n].iter().enumerate() {
+            if *b == b'\n' || *b == b'\r' {
+                self.ends.push_back((self.offset + i as u64, *b == b'\n'));
+            }
+        }
+        self.offset += n as u64;
+        Ok(n)
+    }
+}
 
 /// Streaming weather CSV reader: yields one [`ReadDay`] at a time, so a file of
 /// any length is processed without holding it.
@@ -223,7 +286,7 @@ impl<R: Read> WeatherReader<R> {
             .has_headers(false)
             .flexible(true)
             .delimiter(delimiter)
-            .from_reader(Cursor::new(first).chain(buffered));
+            .from_reader(LineTap::new(Cursor::new(first).chain(buffered)));
         let mut header = csv::ByteRecord::new();
         csv.read_byte_record(&mut header)
             .map_err(|e| csv_fatal(e, source))?;
@@ -255,6 +318,16 @@ impl<R: Read> WeatherReader<R> {
                     .filter(|(_, l)| !l.is_empty() && !OWN_COLUMNS.contains(&l.as_str()))
                     .map(|(h, _)| h.clone())
                     .collect();
+                if header.len() == 1 {
+                    return Err(ImportError::Header {
+                        at: at(1, 1),
+                        found: format!(
+                            "header \"{header_text}\" read as a single column with delimiter {}",
+                            delimiter_name(delimiter)
+                        ),
+                        expected: "several columns; check the delimiter (comma, semicolon or tab)".into(),
+                    });
+                }
                 let own_count = lower
                     .iter()
                     .filter(|l| OWN_COLUMNS.contains(&l.as_str()))
@@ -402,9 +475,10 @@ impl<R: Read> WeatherReader<R> {
             if !more {
                 return Ok(None);
             }
-            let line = rec
-                .position()
-                .map_or(self.last_line + 1, csv::Position::line);
+            let line = match rec.position() {
+                Some(p) => self.csv.get_mut().line_at(p.byte()),
+                None => self.last_line + 1,
+            };
             // A line of only delimiters and spaces counts as blank.
             let blank = rec.iter().all(|f| f.iter().all(u8::is_ascii_whitespace));
             if line > self.last_line + 1 {
