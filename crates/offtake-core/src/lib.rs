@@ -12,5 +12,6 @@
 //! Results are planning estimates: canal and structure designs must be checked
 //! by a qualified engineer against local codes and measured data.
 
+pub mod quality;
 pub mod units;
 pub mod weather;
