@@ -12,6 +12,7 @@
 //! Results are planning estimates: canal and structure designs must be checked
 //! by a qualified engineer against local codes and measured data.
 
+pub mod gapfill;
 pub mod quality;
 pub mod units;
 pub mod weather;
