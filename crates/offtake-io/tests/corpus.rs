@@ -11,7 +11,11 @@ use offtake_io::weather::{
 };
 
 fn corpus(name: &str) -> PathBuf {
-    PathBuf::from(concat!(env!("CARGO_MANIFEST_DIR"), "/../../tests/weather-corpus/")).join(name)
+    PathBuf::from(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/../../tests/weather-corpus/"
+    ))
+    .join(name)
 }
 
 fn import(name: &str) -> Result<ImportedSeries, ImportError> {
@@ -87,7 +91,10 @@ fn stated_delimiter_that_does_not_match() {
 fn missing_header() {
     let msg = err_text("missing_header.csv");
     assert_at("missing_header.csv", &msg, 1, 1);
-    assert!(msg.contains("found a date \"2021-03-01\" on the first line"), "{msg}");
+    assert!(
+        msg.contains("found a date \"2021-03-01\" on the first line"),
+        "{msg}"
+    );
 }
 
 #[test]
@@ -112,7 +119,10 @@ fn duplicate_date_rejects_row() {
 fn out_of_order_rejects_row() {
     let msg = err_text("out_of_order.csv");
     assert_at("out_of_order.csv", &msg, 4, 1);
-    assert!(msg.contains("found 2021-03-02 after 2021-03-03 (line 3)"), "{msg}");
+    assert!(
+        msg.contains("found 2021-03-02 after 2021-03-03 (line 3)"),
+        "{msg}"
+    );
 }
 
 #[test]
@@ -135,7 +145,11 @@ fn blank_lines_are_skipped_and_reported() {
 fn decimal_comma_with_semicolons() {
     let s = import("decimal_comma.csv").unwrap();
     assert_good_three_days(&s);
-    assert!(s.warnings.iter().any(|w| w.kind == WarningKind::DecimalComma));
+    assert!(
+        s.warnings
+            .iter()
+            .any(|w| w.kind == WarningKind::DecimalComma)
+    );
 }
 
 #[test]
@@ -193,7 +207,10 @@ fn header_only() {
 fn ambiguous_dates_are_not_guessed() {
     let msg = err_text("ambiguous_dates.csv");
     assert_at("ambiguous_dates.csv", &msg, 2, 1);
-    assert!(msg.contains("expected the date format to be stated"), "{msg}");
+    assert!(
+        msg.contains("expected the date format to be stated"),
+        "{msg}"
+    );
     // Stating the format reads it.
     for (format, month) in [(DateFormat::DayMonthYear, 3), (DateFormat::MonthDayYear, 1)] {
         let opts = ImportOptions {
@@ -289,9 +306,9 @@ fn foreign_units_converted_with_mapping() {
     assert!(close(d.rain_mm, 25.4)); // 1 in
     assert_eq!(s.wind_height_m, Some(10.0));
     assert!(
-        s.warnings
-            .iter()
-            .any(|w| matches!(&w.kind, WarningKind::IgnoredColumn { header } if header == "Station"))
+        s.warnings.iter().any(
+            |w| matches!(&w.kind, WarningKind::IgnoredColumn { header } if header == "Station")
+        )
     );
 }
 

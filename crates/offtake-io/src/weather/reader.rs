@@ -159,13 +159,11 @@ impl<R> LineTap<R> {
                 self.lines_before += 1;
             }
         }
-        let mut expected = byte;
         let mut leading = 0;
-        for &(at, is_nl) in &self.ends {
+        for (expected, &(at, is_nl)) in (byte..).zip(self.ends.iter()) {
             if at != expected {
                 break;
             }
-            expected += 1;
             if is_nl {
                 leading += 1;
             }
@@ -325,7 +323,8 @@ impl<R: Read> WeatherReader<R> {
                             "header \"{header_text}\" read as a single column with delimiter {}",
                             delimiter_name(delimiter)
                         ),
-                        expected: "several columns; check the delimiter (comma, semicolon or tab)".into(),
+                        expected: "several columns; check the delimiter (comma, semicolon or tab)"
+                            .into(),
                     });
                 }
                 let own_count = lower
