@@ -13,7 +13,10 @@ use std::path::{Path, PathBuf};
 
 use anyhow::{Context, Result, bail};
 use clap::Args as ClapArgs;
-use offtake_core::quality::{QualityReport, QualityRules, Rule, check_series};
+use offtake_core::et0::series::{MAX_ELEVATION_M, MIN_ELEVATION_M};
+use offtake_core::quality::{
+    DayAstronomy, QualityReport, QualityRules, Rule, SiteAstronomy, check_series,
+};
 use offtake_core::weather::StationSite;
 use offtake_io::weather::{
     DateFormat, ImportOptions, ImportedSeries, import_weather_file, load_mapping,
@@ -52,11 +55,13 @@ pub fn run(args: &Args) -> Result<()> {
         eprintln!("{w}");
     }
     let site = site_from_args(args.lat, args.elevation, None)?;
-    // The clear-sky radiation (Rso, FAO-56 eq. 37) and daylight hours (N,
-    // eq. 34) come from the ET0 module; until it is part of the core the two
-    // rules that need them are not applied and the report says so.
-    let _ = site;
-    let report = check_series(&series.days, &QualityRules::default(), None)
+    // Rso (FAO-56 eq. 37) and N (eq. 34) for the radiation and sunshine rules.
+    let astronomy = site.as_ref().map(SiteAstronomy::new).transpose()?;
+    let lookup = astronomy.as_ref().map(|a| move |d| a.for_date(d));
+    let lookup_ref = lookup
+        .as_ref()
+        .map(|f| f as &dyn Fn(chrono::NaiveDate) -> Option<DayAstronomy>);
+    let report = check_series(&series.days, &QualityRules::default(), lookup_ref)
         .with_context(|| format!("{}: quality checks", args.file.display()))?;
     let text = render_report(&report);
     let mut stdout = std::io::stdout().lock();
@@ -134,9 +139,9 @@ pub(crate) fn site_from_args(
     if !(-90.0..=90.0).contains(&latitude_deg) {
         bail!("--lat: found {latitude_deg}, expected decimal degrees from -90 to 90");
     }
-    if !elevation_m.is_finite() || !(-500.0..=9000.0).contains(&elevation_m) {
+    if !elevation_m.is_finite() || !(MIN_ELEVATION_M..=MAX_ELEVATION_M).contains(&elevation_m) {
         bail!(
-            "--elevation: found {elevation_m}, expected metres above sea level from -500 to 9000"
+            "--elevation: found {elevation_m}, expected metres above sea level from {MIN_ELEVATION_M} to {MAX_ELEVATION_M}"
         );
     }
     let wind_height_m = wind_height_m.unwrap_or(2.0);
@@ -184,8 +189,9 @@ fn render_report(report: &QualityReport) -> String {
     if !report.radiation_rules_applied {
         let _ = writeln!(
             s,
-            "note: rules {} and {} not applied (they need --lat and --elevation and the ET0 module's Rso and N)",
+            "note: rules {}, {} and {} not applied (give --lat and --elevation)",
             Rule::SolarAboveClearSky,
+            Rule::SolarImplausiblyLow,
             Rule::SunshineAboveDaylight
         );
     }

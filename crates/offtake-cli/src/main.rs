@@ -9,6 +9,7 @@ use std::process::ExitCode;
 
 use clap::{Parser, Subcommand};
 
+mod cmd_et0;
 mod cmd_weather_check;
 
 /// Irrigation crop water demand planner (headless).
@@ -21,6 +22,8 @@ struct Cli {
 
 #[derive(Debug, Subcommand)]
 enum Command {
+    /// Reference evapotranspiration (ET0) of each day of a weather file.
+    Et0(cmd_et0::Args),
     /// Weather series: quality checks.
     Weather {
         #[command(subcommand)]
@@ -37,6 +40,7 @@ enum WeatherCommand {
 fn main() -> ExitCode {
     let cli = Cli::parse();
     let result = match &cli.command {
+        Command::Et0(args) => cmd_et0::run(args),
         Command::Weather {
             command: WeatherCommand::Check(args),
         } => cmd_weather_check::run(args),

@@ -15,7 +15,10 @@ use std::fmt;
 
 use chrono::{Datelike, NaiveDate};
 
-use crate::weather::WeatherDay;
+use crate::et0::Et0Error;
+use crate::et0::daily::DaySun;
+use crate::et0::radiation::clear_sky_radiation_mj;
+use crate::weather::{StationSite, WeatherDay};
 
 /// A daily weather variable (a field of [`WeatherDay`]).
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
@@ -265,6 +268,54 @@ pub struct DayAstronomy {
     pub daylight_h: f64,
 }
 
+/// Rso (FAO-56 eq. 37) and N (eq. 34) of every day of the year for a station,
+/// from the ET₀ module's Ra (eq. 21) and sunset hour angle (eq. 25).
+#[derive(Debug, Clone, PartialEq)]
+pub struct SiteAstronomy {
+    /// Indexed by day of year 1..=366 (index 0 unused).
+    table: Vec<DayAstronomy>,
+}
+
+impl SiteAstronomy {
+    /// Builds the table for a station.
+    ///
+    /// Rso uses eq. 37, Rso = (0.75 + 2×10⁻⁵ z) Ra (FAO-56 p. 51), the form
+    /// for uncalibrated Ångström coefficients.
+    ///
+    /// # Errors
+    /// [`QualityError::Site`] for a latitude outside −90..=90° or a
+    /// non-finite elevation.
+    pub fn new(site: &StationSite) -> Result<Self, QualityError> {
+        if !(-90.0..=90.0).contains(&site.latitude_deg) {
+            return Err(QualityError::Site(Et0Error::LatitudeOutOfRange {
+                latitude_deg: site.latitude_deg,
+            }));
+        }
+        if !site.elevation_m.is_finite() {
+            return Err(QualityError::Site(Et0Error::NotFinite {
+                quantity: "elevation_m",
+                value: site.elevation_m,
+            }));
+        }
+        let latitude_rad = site.latitude_deg.to_radians();
+        let table = (0..=366u32)
+            .map(|j| {
+                let sun = DaySun::new(latitude_rad, j.max(1));
+                DayAstronomy {
+                    rso_mj: clear_sky_radiation_mj(sun.ra_mj, site.elevation_m), // Eq. 37
+                    daylight_h: sun.daylight_h,                                  // Eq. 34
+                }
+            })
+            .collect();
+        Ok(Self { table })
+    }
+
+    /// Rso and N of a date.
+    pub fn for_date(&self, date: NaiveDate) -> Option<DayAstronomy> {
+        self.table.get(date.ordinal() as usize).copied()
+    }
+}
+
 /// One flagged value.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Flag {
@@ -372,6 +423,9 @@ pub struct QualityReport {
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
 #[non_exhaustive]
 pub enum QualityError {
+    /// The station site cannot give Rso and N.
+    #[error("station site: {0}")]
+    Site(#[source] Et0Error),
     /// The series is empty.
     #[error("the weather series is empty; expected at least one day")]
     Empty,
@@ -940,6 +994,33 @@ mod tests {
             check_series(&[], &QualityRules::default(), None),
             Err(QualityError::Empty)
         );
+    }
+
+    /// FAO-56 Examples 8 and 9 (pp. 47, 49): 20° S, 3 September (J = 246):
+    /// Ra = 32.2 MJ m⁻² day⁻¹, N = 11.7 h. [COMPUTED] full precision Ra = 32.194,
+    /// N = 11.6656 (published-check-values.md §1.7–1.8); Rso at sea level by
+    /// eq. 37 = 0.75 × 32.194 = 24.146 (computed from the published formula).
+    #[test]
+    fn site_astronomy_fao56_examples_8_9() {
+        let site = StationSite {
+            latitude_deg: -20.0,
+            elevation_m: 0.0,
+            wind_height_m: 2.0,
+        };
+        let a = SiteAstronomy::new(&site).unwrap();
+        let d = a
+            .for_date(NaiveDate::from_ymd_opt(2021, 9, 3).unwrap())
+            .unwrap();
+        assert!((d.daylight_h - 11.6656).abs() < 5e-4, "{}", d.daylight_h);
+        assert!((d.rso_mj - 0.75 * 32.194).abs() < 2e-3, "{}", d.rso_mj);
+        let bad = StationSite {
+            latitude_deg: 91.0,
+            ..site
+        };
+        assert!(matches!(
+            SiteAstronomy::new(&bad),
+            Err(QualityError::Site(_))
+        ));
     }
 
     #[test]

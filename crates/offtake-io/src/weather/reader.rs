@@ -450,6 +450,11 @@ impl<R: Read> WeatherReader<R> {
         self.columns.iter().map(|(_, q)| q.field_name()).collect()
     }
 
+    /// The last line read so far (1 = the header).
+    pub fn last_line(&self) -> u64 {
+        self.last_line
+    }
+
     /// The input's name as used in messages.
     pub fn source(&self) -> &str {
         &self.source
@@ -711,28 +716,35 @@ impl<R: Read> WeatherReader<R> {
         let Some(date) = date else {
             return Err(problems);
         };
-        if !problems.is_empty() {
-            return Err(problems);
-        }
+        // Date order is checked even when a cell is rejected, so a rejected
+        // row with a good date does not show up as a missing day.
         if let Some((prev, prev_line)) = self.previous {
             if date == prev {
-                return Err(vec![ImportProblem {
-                    at: self.at(line, date_col),
-                    kind: ProblemKind::DuplicateDate {
-                        date,
-                        first_line: prev_line,
+                problems.insert(
+                    0,
+                    ImportProblem {
+                        at: self.at(line, date_col),
+                        kind: ProblemKind::DuplicateDate {
+                            date,
+                            first_line: prev_line,
+                        },
                     },
-                }]);
+                );
+                return Err(problems);
             }
             if date < prev {
-                return Err(vec![ImportProblem {
-                    at: self.at(line, date_col),
-                    kind: ProblemKind::OutOfOrder {
-                        date,
-                        previous: prev,
-                        previous_line: prev_line,
+                problems.insert(
+                    0,
+                    ImportProblem {
+                        at: self.at(line, date_col),
+                        kind: ProblemKind::OutOfOrder {
+                            date,
+                            previous: prev,
+                            previous_line: prev_line,
+                        },
                     },
-                }]);
+                );
+                return Err(problems);
             }
             let gap = (date - prev).num_days() - 1;
             if gap > 0 {
@@ -748,6 +760,9 @@ impl<R: Read> WeatherReader<R> {
             }
         }
         self.previous = Some((date, line));
+        if !problems.is_empty() {
+            return Err(problems);
+        }
         Ok(ReadDay { line, day })
     }
 
