@@ -29,7 +29,7 @@ fn thirty_years_csv() -> String {
             1.0 + 2.0 * k,
             15.0 + 10.0 * k,
             6.0 + 4.0 * k,
-            if i % 7 == 0 { 3.2 } else { 0.0 }
+            if i.is_multiple_of(7) { 3.2 } else { 0.0 }
         );
         d = d.succ_opt().unwrap();
         i += 1;
