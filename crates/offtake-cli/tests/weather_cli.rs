@@ -300,3 +300,21 @@ fn check_writes_flags_csv() {
     assert_eq!(rows[0], "date,variable,rule,value,limit");
     assert_eq!(rows[1], "2021-03-01,tmin_c,tmin_above_tmax,35,31.2");
 }
+
+#[test]
+fn bad_mapping_file_is_positioned() {
+    let mapping = corpus("good_own.csv"); // not RON
+    let o = offtake(&[
+        "weather",
+        "check",
+        &corpus("foreign_units.csv"),
+        "--mapping",
+        &mapping,
+    ]);
+    assert!(!o.status.success());
+    let err = text(&o.stderr);
+    assert!(
+        err.starts_with(&format!("{mapping}:1:1: mapping file:")),
+        "{err}"
+    );
+}
