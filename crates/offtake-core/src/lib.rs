@@ -12,5 +12,7 @@
 //! Results are planning estimates: canal and structure designs must be checked
 //! by a qualified engineer against local codes and measured data.
 
+pub mod rotation;
+pub mod scheme;
 pub mod units;
 pub mod weather;
