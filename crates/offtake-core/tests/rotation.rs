@@ -5,8 +5,8 @@
 
 use chrono::NaiveDate;
 use offtake_core::rotation::{
-    continuous_flow_roster, relative_irrigation_supply, relative_water_supply, rotation_roster,
-    AvailableFlow, CycleMode, RotationError, RotationProblem, RotationUnit,
+    AvailableFlow, CycleMode, RotationError, RotationProblem, RotationUnit, continuous_flow_roster,
+    relative_irrigation_supply, relative_water_supply, rotation_roster,
 };
 use proptest::prelude::*;
 
@@ -115,16 +115,23 @@ fn continuous_flow_when_supply_suffices() {
         unit("b", vec![50.0, 0.0, 25.0], None),
     ];
     // 1000 m³/day available, at most 325 m³/day asked.
-    let roster = rotation_roster(start(), &units, &AvailableFlow::Constant(1000.0 / 86.4), 7).unwrap();
+    let roster =
+        rotation_roster(start(), &units, &AvailableFlow::Constant(1000.0 / 86.4), 7).unwrap();
     assert_eq!(roster.cycles.len(), 1);
     assert_eq!(roster.cycles[0].mode, CycleMode::Continuous);
-    assert_eq!(roster.delivered_m3_day, vec![100.0, 200.0, 300.0, 50.0, 0.0, 25.0]);
+    assert_eq!(
+        roster.delivered_m3_day,
+        vec![100.0, 200.0, 300.0, 50.0, 0.0, 25.0]
+    );
     assert_eq!(roster.relative_irrigation_supply(0), Some(1.0));
 }
 
 #[test]
 fn continuous_flow_alternative_shares_a_short_day_in_proportion() {
-    let units = vec![unit("a", vec![300.0, 300.0], None), unit("b", vec![100.0, 100.0], Some(1.0))];
+    let units = vec![
+        unit("a", vec![300.0, 300.0], None),
+        unit("b", vec![100.0, 100.0], Some(1.0)),
+    ];
     // Day 0: 200 m³ for 400 asked → half each; day 1: 400 m³ → full, but b's
     // capacity 1 l/s = 86.4 m³/day holds it.
     let available = AvailableFlow::Daily(vec![200.0 / 86.4, 400.0 / 86.4]);
@@ -152,17 +159,40 @@ fn every_input_problem_is_listed() {
         unit("a", vec![1.0, f64::NAN], Some(-3.0)),
         unit("b", vec![1.0], None),
     ];
-    let Err(RotationError::Invalid(problems)) =
-        rotation_roster(start(), &units, &AvailableFlow::Daily(vec![1.0, -1.0, 2.0]), 0)
-    else {
+    let Err(RotationError::Invalid(problems)) = rotation_roster(
+        start(),
+        &units,
+        &AvailableFlow::Daily(vec![1.0, -1.0, 2.0]),
+        0,
+    ) else {
         panic!("expected invalid input");
     };
     assert!(problems.contains(&RotationProblem::ZeroRotationPeriod));
-    assert!(problems.iter().any(|p| matches!(p, RotationProblem::BadDemand { day: 1, .. })));
-    assert!(problems.iter().any(|p| matches!(p, RotationProblem::BadUnitValue { .. })));
-    assert!(problems.iter().any(|p| matches!(p, RotationProblem::DemandLength { found: 1, .. })));
-    assert!(problems.iter().any(|p| matches!(p, RotationProblem::AvailableLength { found: 3, .. })));
-    assert!(problems.iter().any(|p| matches!(p, RotationProblem::BadAvailable { day: 1, .. })));
+    assert!(
+        problems
+            .iter()
+            .any(|p| matches!(p, RotationProblem::BadDemand { day: 1, .. }))
+    );
+    assert!(
+        problems
+            .iter()
+            .any(|p| matches!(p, RotationProblem::BadUnitValue { .. }))
+    );
+    assert!(
+        problems
+            .iter()
+            .any(|p| matches!(p, RotationProblem::DemandLength { found: 1, .. }))
+    );
+    assert!(
+        problems
+            .iter()
+            .any(|p| matches!(p, RotationProblem::AvailableLength { found: 3, .. }))
+    );
+    assert!(
+        problems
+            .iter()
+            .any(|p| matches!(p, RotationProblem::BadAvailable { day: 1, .. }))
+    );
 }
 
 /// Relative water supply as defined by Levine (1982):
@@ -170,9 +200,18 @@ fn every_input_problem_is_listed() {
 #[test]
 fn relative_supply_definitions() {
     // (300 + 100) ÷ (350 + 50) = 1.0; (150 + 50) ÷ (350 + 50) = 0.5.
-    assert!(close(relative_water_supply(300.0, 100.0, 350.0, 50.0).unwrap(), 1.0));
-    assert!(close(relative_water_supply(150.0, 50.0, 350.0, 50.0).unwrap(), 0.5));
+    assert!(close(
+        relative_water_supply(300.0, 100.0, 350.0, 50.0).unwrap(),
+        1.0
+    ));
+    assert!(close(
+        relative_water_supply(150.0, 50.0, 350.0, 50.0).unwrap(),
+        0.5
+    ));
     assert_eq!(relative_water_supply(10.0, 0.0, 0.0, 0.0), None);
-    assert!(close(relative_irrigation_supply(14_000.0, 28_000.0).unwrap(), 0.5));
+    assert!(close(
+        relative_irrigation_supply(14_000.0, 28_000.0).unwrap(),
+        0.5
+    ));
     assert_eq!(relative_irrigation_supply(1.0, 0.0), None);
 }

@@ -6,8 +6,8 @@
 use chrono::NaiveDate;
 use offtake_core::scheme::design::{design_flow_from_depth_ls, duty_ls_ha, required_capacity_ls};
 use offtake_core::scheme::{
-    capacity_shortfall, design_values, storage_losses_m3_day, Block, Canal, DesignOptions, Network,
-    NirSeries, Node, SchemeDemand, SchemeError,
+    Block, Canal, DesignOptions, Network, NirSeries, Node, SchemeDemand, SchemeError,
+    capacity_shortfall, design_values, storage_losses_m3_day,
 };
 
 fn assert_close(found: f64, expected: f64, tol: f64, what: &str) {
@@ -18,14 +18,7 @@ fn assert_close(found: f64, expected: f64, tol: f64, what: &str) {
 }
 
 /// One block on one canal, constant NIR depth, whole calendar years.
-fn one_block(
-    ec: f64,
-    ea: f64,
-    eb: f64,
-    hours: f64,
-    area_ha: f64,
-    nir_mm_day: f64,
-) -> SchemeDemand {
+fn one_block(ec: f64, ea: f64, eb: f64, hours: f64, area_ha: f64, nir_mm_day: f64) -> SchemeDemand {
     let network = Network::new(
         vec![Canal {
             id: "main".into(),
@@ -55,8 +48,18 @@ fn one_block(
 #[test]
 fn duty_identity_fao56_annex1() {
     let demand = one_block(1.0, 1.0, 1.0, 24.0, 1.0, 8.64);
-    assert_close(demand.demand_ls(Node::Headworks)[0], 1.0, 1e-12, "l/s per ha");
-    assert_close(duty_ls_ha(design_flow_from_depth_ls(8.64, 1.0), 1.0), 1.0, 1e-12, "duty");
+    assert_close(
+        demand.demand_ls(Node::Headworks)[0],
+        1.0,
+        1e-12,
+        "l/s per ha",
+    );
+    assert_close(
+        duty_ls_ha(design_flow_from_depth_ls(8.64, 1.0), 1.0),
+        1.0,
+        1e-12,
+        "duty",
+    );
 }
 
 /// published-check-values §10.3 [COMPUTED from the published formula
@@ -83,7 +86,12 @@ fn canal_capacity_check_section_10_3() {
 #[test]
 fn gross_requirement_peace_corps_1994() {
     let demand = one_block(0.8, 0.7, 1.0, 24.0, 25.0, 2.8);
-    assert_close(demand.demand_mm_day(Node::Headworks)[10], 5.0, 1e-12, "mm/day");
+    assert_close(
+        demand.demand_mm_day(Node::Headworks)[10],
+        5.0,
+        1e-12,
+        "mm/day",
+    );
 }
 
 /// Lined-canal preset of published-check-values §10.1: with Ec 0.9, Eb 0.8,
@@ -92,7 +100,12 @@ fn gross_requirement_peace_corps_1994() {
 #[test]
 fn project_efficiency_preset() {
     let demand = one_block(0.9, 0.55, 0.8, 24.0, 10.0, 3.96);
-    assert_close(demand.demand_mm_day(Node::Headworks)[0], 10.0, 1e-12, "mm/day");
+    assert_close(
+        demand.demand_mm_day(Node::Headworks)[0],
+        10.0,
+        1e-12,
+        "mm/day",
+    );
 }
 
 /// Capacity 2 l/s at 24 h/day delivers 0.002 × 24 × 3600 = 172.8 m³/day.
@@ -112,13 +125,26 @@ fn capacity_shortfall_constructed_series() {
     assert_eq!(dates, ["2031-01-10", "2031-01-11"]);
     assert_close(s.days[0].deficit_m3, 27.2, 1e-9, "10 Jan");
     assert_eq!(s.periods.len(), 2);
-    assert_eq!((s.periods[0].period.part(), s.periods[1].period.part()), (1, 2));
+    assert_eq!(
+        (s.periods[0].period.part(), s.periods[1].period.part()),
+        (1, 2)
+    );
     // Mean demand of 1–10 Jan in the record (9, 10 Jan): 150 m³/day = 1.736 l/s.
-    assert_close(s.periods[0].mean_demand_ls, 150.0 / 86.4, 1e-12, "period mean");
+    assert_close(
+        s.periods[0].mean_demand_ls,
+        150.0 / 86.4,
+        1e-12,
+        "period mean",
+    );
     assert_close(s.volume_not_delivered_m3, 154.4, 1e-9, "not delivered");
     let half = capacity_shortfall(start, &demand, 0.002, 12.0);
     assert_eq!(half.days.len(), 4);
-    assert_close(half.volume_not_delivered_m3, 427.2, 1e-9, "12 h not delivered");
+    assert_close(
+        half.volume_not_delivered_m3,
+        427.2,
+        1e-9,
+        "12 h not delivered",
+    );
 }
 
 /// Reservoir losses: 5 mm/day over 200 ha = 5 × 200 × 10 = 10 000 m³/day

@@ -2,10 +2,12 @@
 //! the sum over blocks of NIR ÷ (Ea × Eb) ÷ the conveyance efficiencies along
 //! the block's path equals the headworks demand. The reference sum is
 //! computed here independently of the tree walk in `SchemeDemand`.
-#![allow(clippy::unwrap_used, clippy::float_cmp)]
+#![allow(clippy::unwrap_used, clippy::float_cmp, clippy::needless_range_loop)]
 
 use chrono::NaiveDate;
-use offtake_core::scheme::{Block, Canal, Network, NetworkProblem, NirSeries, Node, SchemeDemand, SchemeError};
+use offtake_core::scheme::{
+    Block, Canal, Network, NetworkProblem, NirSeries, Node, SchemeDemand, SchemeError,
+};
 use proptest::prelude::*;
 
 const DAYS: usize = 15;
@@ -193,16 +195,40 @@ fn every_network_problem_is_listed() {
         panic!("expected an invalid network");
     };
     let has = |f: &dyn Fn(&NetworkProblem) -> bool| problems.iter().any(f);
-    assert!(has(&|p| matches!(p, NetworkProblem::DuplicateCanal { id } if id == "main")));
-    assert!(has(&|p| matches!(p, NetworkProblem::Cycle { canals } if canals.len() == 2)));
-    assert!(has(&|p| matches!(p, NetworkProblem::MissingParent { parent, .. } if parent == "nowhere")));
-    assert!(has(&|p| matches!(p, NetworkProblem::EfficiencyOutOfRange { kind: "Ec", value, .. } if *value == 1.2)));
-    assert!(has(&|p| matches!(p, NetworkProblem::EfficiencyOutOfRange { kind: "Ec", value, .. } if *value == 0.0)));
-    assert!(has(&|p| matches!(p, NetworkProblem::HoursOutOfRange { .. })));
-    assert!(has(&|p| matches!(p, NetworkProblem::CapacityNotPositive { .. })));
-    assert!(has(&|p| matches!(p, NetworkProblem::BlockOnMissingCanal { canal, .. } if canal == "missing")));
-    assert!(has(&|p| matches!(p, NetworkProblem::AreaNotPositive { .. })));
-    assert!(has(&|p| matches!(p, NetworkProblem::EfficiencyOutOfRange { kind: "Ea", .. })));
+    assert!(has(
+        &|p| matches!(p, NetworkProblem::DuplicateCanal { id } if id == "main")
+    ));
+    assert!(has(
+        &|p| matches!(p, NetworkProblem::Cycle { canals } if canals.len() == 2)
+    ));
+    assert!(has(
+        &|p| matches!(p, NetworkProblem::MissingParent { parent, .. } if parent == "nowhere")
+    ));
+    assert!(has(
+        &|p| matches!(p, NetworkProblem::EfficiencyOutOfRange { kind: "Ec", value, .. } if *value == 1.2)
+    ));
+    assert!(has(
+        &|p| matches!(p, NetworkProblem::EfficiencyOutOfRange { kind: "Ec", value, .. } if *value == 0.0)
+    ));
+    assert!(has(&|p| matches!(
+        p,
+        NetworkProblem::HoursOutOfRange { .. }
+    )));
+    assert!(has(&|p| matches!(
+        p,
+        NetworkProblem::CapacityNotPositive { .. }
+    )));
+    assert!(has(
+        &|p| matches!(p, NetworkProblem::BlockOnMissingCanal { canal, .. } if canal == "missing")
+    ));
+    assert!(has(&|p| matches!(
+        p,
+        NetworkProblem::AreaNotPositive { .. }
+    )));
+    assert!(has(&|p| matches!(
+        p,
+        NetworkProblem::EfficiencyOutOfRange { kind: "Ea", .. }
+    )));
     // The message lists them all, one per line.
     let message = SchemeError::Invalid(problems.clone()).to_string();
     assert_eq!(message.lines().count(), problems.len() + 1);
@@ -223,9 +249,21 @@ fn bad_requirement_series_are_listed() {
     .unwrap();
     let start = NaiveDate::from_ymd_opt(2030, 1, 1).unwrap();
     let series = vec![
-        NirSeries { block: "b".into(), crop: "x".into(), nir_m3_day: vec![1.0, f64::NAN, 2.0] },
-        NirSeries { block: "nope".into(), crop: "x".into(), nir_m3_day: vec![1.0, 1.0] },
-        NirSeries { block: "b".into(), crop: "y".into(), nir_m3_day: vec![1.0, -1.0, 1.0] },
+        NirSeries {
+            block: "b".into(),
+            crop: "x".into(),
+            nir_m3_day: vec![1.0, f64::NAN, 2.0],
+        },
+        NirSeries {
+            block: "nope".into(),
+            crop: "x".into(),
+            nir_m3_day: vec![1.0, 1.0],
+        },
+        NirSeries {
+            block: "b".into(),
+            crop: "y".into(),
+            nir_m3_day: vec![1.0, -1.0, 1.0],
+        },
     ];
     let Err(SchemeError::Invalid(problems)) = SchemeDemand::compute(&network, start, 3, &series)
     else {

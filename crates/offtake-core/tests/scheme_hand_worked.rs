@@ -21,13 +21,21 @@
 #![allow(clippy::unwrap_used, clippy::float_cmp)]
 
 use chrono::{Datelike, NaiveDate};
-use offtake_core::rotation::{rotation_roster, AvailableFlow, CycleMode, RosterWarning, RotationUnit};
+use offtake_core::rotation::{
+    AvailableFlow, CycleMode, RosterWarning, RotationUnit, rotation_roster,
+};
 use offtake_core::scheme::{
-    design_values, Block, Canal, DesignBasis, DesignOptions, Network, NirSeries, Node, PeriodStep,
-    SchemeDemand,
+    Block, Canal, DesignBasis, DesignOptions, Network, NirSeries, Node, PeriodStep, SchemeDemand,
+    design_values,
 };
 
-const FACTORS: [(i32, f64); 5] = [(2001, 1.0), (2002, 1.2), (2003, 0.8), (2004, 1.1), (2005, 0.9)];
+const FACTORS: [(i32, f64); 5] = [
+    (2001, 1.0),
+    (2002, 1.2),
+    (2003, 0.8),
+    (2004, 1.1),
+    (2005, 0.9),
+];
 
 fn assert_close(found: f64, expected: f64, tol: f64, what: &str) {
     assert!(
@@ -101,12 +109,19 @@ fn daily_demand_up_the_tree() {
     let d = Node::Canal(network.canal_index("D").unwrap());
     // 1 July 2001 is day 181 (31+28+31+30+31+30).
     let day = 181;
-    assert_eq!(demand.date(day), NaiveDate::from_ymd_opt(2001, 7, 1).unwrap());
+    assert_eq!(
+        demand.date(day),
+        NaiveDate::from_ymd_opt(2001, 7, 1).unwrap()
+    );
     // Block NIR and GIR (m³/day):
     //   A: 4.8 mm × 50 ha × 10 = 2400;   GIR = 2400 ÷ (0.60 × 0.80 = 0.48) = 5000
     //   B: 5.04 mm × 40 ha × 10 = 2016;  GIR = 2016 ÷ (0.70 × 0.90 = 0.63) = 3200
     //   C: 6.0 mm × 60 ha × 10 = 3600;   GIR = 3600 ÷ (0.75 × 0.80 = 0.60) = 6000
-    for (b, nir, gir) in [(0, 2400.0, 5000.0), (1, 2016.0, 3200.0), (2, 3600.0, 6000.0)] {
+    for (b, nir, gir) in [
+        (0, 2400.0, 5000.0),
+        (1, 2016.0, 3200.0),
+        (2, 3600.0, 6000.0),
+    ] {
         assert_close(demand.block_nir_m3_day(b)[day], nir, 1e-9, "block NIR");
         assert_close(demand.block_gir_m3_day(b)[day], gir, 1e-9, "block GIR");
     }
@@ -114,23 +129,58 @@ fn daily_demand_up_the_tree() {
     // M = (5000 + 11 500) ÷ 0.9 = 18 333.33 m³/day = headworks
     assert_close(demand.demand_m3_day(d)[day], 11_500.0, 1e-9, "D");
     assert_close(demand.demand_m3_day(m)[day], 18_333.333_333, 1e-6, "M");
-    assert_close(demand.demand_m3_day(Node::Headworks)[day], 18_333.333_333, 1e-6, "headworks");
+    assert_close(
+        demand.demand_m3_day(Node::Headworks)[day],
+        18_333.333_333,
+        1e-6,
+        "headworks",
+    );
     // In l/s: 11 500 ÷ 86.4 = 133.1019; in mm over D's 100 ha: 11 500 ÷ 1000 = 11.5
     assert_close(demand.demand_ls(d)[day], 133.101_852, 1e-6, "D l/s");
     assert_close(demand.demand_mm_day(d)[day], 11.5, 1e-9, "D mm");
     // Headworks over 150 ha: 18 333.33 ÷ 1500 = 12.2222 mm/day
-    assert_close(demand.demand_mm_day(Node::Headworks)[day], 12.222_222, 1e-6, "hw mm");
+    assert_close(
+        demand.demand_mm_day(Node::Headworks)[day],
+        12.222_222,
+        1e-6,
+        "hw mm",
+    );
     // 15 July 2002 (day 365 + 195): twice the base × 1.2 → D = 11 500 × 2.4 = 27 600
-    assert_close(demand.demand_m3_day(d)[365 + 195], 27_600.0, 1e-9, "D 2002-07-15");
+    assert_close(
+        demand.demand_m3_day(d)[365 + 195],
+        27_600.0,
+        1e-9,
+        "D 2002-07-15",
+    );
     // Crop breakdown at M, 1 July 2001:
     //   maize = (A 5000 ÷ 0.9) + (C half 3000 ÷ 0.8 ÷ 0.9) = 5555.56 + 4166.67 = 9722.22
     //   cotton = 3200 ÷ 0.8 ÷ 0.9 = 4444.44; sorghum = 3000 ÷ 0.8 ÷ 0.9 = 4166.67
     let crop = |name: &str| demand.crops().iter().position(|c| c == name).unwrap();
-    assert_close(demand.crop_demand_m3_day(m, crop("maize"))[day], 9_722.222_222, 1e-6, "maize");
-    assert_close(demand.crop_demand_m3_day(m, crop("cotton"))[day], 4_444.444_444, 1e-6, "cotton");
-    assert_close(demand.crop_demand_m3_day(m, crop("sorghum"))[day], 4_166.666_667, 1e-6, "sorghum");
+    assert_close(
+        demand.crop_demand_m3_day(m, crop("maize"))[day],
+        9_722.222_222,
+        1e-6,
+        "maize",
+    );
+    assert_close(
+        demand.crop_demand_m3_day(m, crop("cotton"))[day],
+        4_444.444_444,
+        1e-6,
+        "cotton",
+    );
+    assert_close(
+        demand.crop_demand_m3_day(m, crop("sorghum"))[day],
+        4_166.666_667,
+        1e-6,
+        "sorghum",
+    );
     // Block breakdown at the headworks: B's share 3200 ÷ 0.8 ÷ 0.9 = 4444.44; A is not below D.
-    assert_close(demand.block_share_m3_day(Node::Headworks, 1).unwrap()[day], 4_444.444_444, 1e-6, "B share");
+    assert_close(
+        demand.block_share_m3_day(Node::Headworks, 1).unwrap()[day],
+        4_444.444_444,
+        1e-6,
+        "B share",
+    );
     assert!(demand.block_share_m3_day(d, 0).is_none());
     assert_close(network.commanded_area_ha(d), 100.0, 0.0, "D area");
     assert_close(network.commanded_area_ha(m), 150.0, 0.0, "M area");
@@ -141,21 +191,36 @@ fn ten_day_and_monthly_tables() {
     let (network, demand) = scheme();
     let d = Node::Canal(network.canal_index("D").unwrap());
     let tenday = demand.periods(d, PeriodStep::TenDay);
-    let july = |p: &&offtake_core::scheme::PeriodDemand| p.start.year() == 2001 && p.start.month() == 7;
+    let july =
+        |p: &&offtake_core::scheme::PeriodDemand| p.start.year() == 2001 && p.start.month() == 7;
     let july_periods: Vec<_> = tenday.iter().filter(july).collect();
     assert_eq!(july_periods.len(), 3);
     // 1–10 July: 10 × 11 500 = 115 000 m³; 133.10 l/s; 115 mm over 100 ha
     assert_close(july_periods[0].volume_m3, 115_000.0, 1e-6, "July d1");
-    assert_close(july_periods[0].mean_flow_ls, 133.101_852, 1e-6, "July d1 l/s");
+    assert_close(
+        july_periods[0].mean_flow_ls,
+        133.101_852,
+        1e-6,
+        "July d1 l/s",
+    );
     assert_close(july_periods[0].depth_mm, 115.0, 1e-9, "July d1 mm");
     // 11–20 July: 10 × 23 000 = 230 000 m³; 266.20 l/s
-    assert_close(july_periods[1].mean_flow_ls, 266.203_704, 1e-6, "July d2 l/s");
+    assert_close(
+        july_periods[1].mean_flow_ls,
+        266.203_704,
+        1e-6,
+        "July d2 l/s",
+    );
     // 21–31 July: 11 days × 11 500 = 126 500 m³
     assert_eq!(july_periods[2].period_days, 11);
     assert_close(july_periods[2].volume_m3, 126_500.0, 1e-6, "July d3");
     // 36 periods a year, 5 years
     assert_eq!(tenday.len(), 180);
-    assert!(tenday.iter().all(offtake_core::scheme::PeriodDemand::is_complete));
+    assert!(
+        tenday
+            .iter()
+            .all(offtake_core::scheme::PeriodDemand::is_complete)
+    );
     // July 2001 month: 115 000 + 230 000 + 126 500 = 471 500 m³; 471.5 mm
     let months = demand.periods(d, PeriodStep::Month);
     let m = months.iter().find(july).unwrap();
@@ -181,7 +246,12 @@ fn design_values_duty_capacity_shortfall() {
     assert_eq!(d.design_year.start_year(), 2002);
     // Duty = 314.1204 ÷ 100 ha = 3.141204 l/s/ha = 318.35 ha per m³/s
     assert_close(d.duty_ls_ha.unwrap(), 3.141_204, 1e-6, "D duty");
-    assert_close(d.duty_ha_per_m3s.unwrap(), 100.0 / 0.314_120_370, 1e-3, "D ha per m3/s");
+    assert_close(
+        d.duty_ha_per_m3s.unwrap(),
+        100.0 / 0.314_120_370,
+        1e-3,
+        "D ha per m3/s",
+    );
     // Required capacity at 12 h/day = 314.1204 × 24 ÷ 12 = 628.2407 l/s
     assert_close(d.required_capacity_ls, 628.240_741, 1e-5, "D capacity");
     // Peaks over the years: daily and 10-day both 266.2037 × 1.2 = 319.4444
@@ -193,7 +263,12 @@ fn design_values_duty_capacity_shortfall() {
     // Headworks: 2 × 18 333.33 × 1.18 ÷ 86.4 = 500.7716 l/s; duty ÷ 150 ha = 3.338477
     assert_close(hw.design_flow_ls, 500.771_605, 1e-5, "hw design flow");
     assert_close(hw.duty_ls_ha.unwrap(), 3.338_477, 1e-6, "hw duty");
-    assert_close(hw.required_capacity_ls, hw.design_flow_ls, 0.0, "hw at 24 h");
+    assert_close(
+        hw.required_capacity_ls,
+        hw.design_flow_ls,
+        0.0,
+        "hw at 24 h",
+    );
     // Shortfall at D: capacity 0.5 m³/s × 12 h × 3600 s = 21 600 m³/day.
     // Only 11–20 July exceeds it: 23 000 f > 21 600 for f = 1.0, 1.1, 1.2.
     //   deficits: 10 × (23 000 − 21 600) = 14 000; 10 × (25 300 − 21 600) = 37 000;
@@ -202,7 +277,11 @@ fn design_values_duty_capacity_shortfall() {
     assert_close(s.deliverable_m3_day, 21_600.0, 1e-9, "deliverable");
     assert_eq!(s.days.len(), 30);
     assert_eq!(s.periods.len(), 3);
-    assert!(s.periods.iter().all(|p| p.period.month() == 7 && p.period.part() == 2));
+    assert!(
+        s.periods
+            .iter()
+            .all(|p| p.period.month() == 7 && p.period.part() == 2)
+    );
     assert_close(s.volume_not_delivered_m3, 111_000.0, 1e-6, "not delivered");
     assert!(hw.shortfall.is_none());
 
@@ -216,7 +295,12 @@ fn design_values_duty_capacity_shortfall() {
         },
     )
     .unwrap();
-    assert_close(monthly[di].design_flow_ls, 207.724_761, 1e-5, "D monthly design");
+    assert_close(
+        monthly[di].design_flow_ls,
+        207.724_761,
+        1e-5,
+        "D monthly design",
+    );
     // Daily basis: the peak day is inside 11–20 July, the same 266.2037 f.
     let daily = design_values(
         &demand,
@@ -226,7 +310,12 @@ fn design_values_duty_capacity_shortfall() {
         },
     )
     .unwrap();
-    assert_close(daily[di].design_flow_ls, 314.120_370, 1e-5, "D daily design");
+    assert_close(
+        daily[di].design_flow_ls,
+        314.120_370,
+        1e-5,
+        "D daily design",
+    );
     // An irrigation year starting in April leaves only 4 complete years
     // (2001/02 .. 2004/05), f = 1.0, 1.2, 0.8, 1.1 (July falls in the start year).
     // Ascending 0.8, 1.0, 1.1, 1.2; rank 0.8 × 5 = 4.0 → f = 1.2 → 319.4444 l/s.
@@ -239,7 +328,12 @@ fn design_values_duty_capacity_shortfall() {
     )
     .unwrap();
     assert_eq!(april[di].years.len(), 4);
-    assert_close(april[di].design_flow_ls, 319.444_444, 1e-5, "D April-year design");
+    assert_close(
+        april[di].design_flow_ls,
+        319.444_444,
+        1e-5,
+        "D April-year design",
+    );
     assert_eq!(april[di].design_year.label(), "2002/03");
 }
 
@@ -278,7 +372,10 @@ fn roster_on_the_distributary() {
     // alone; C: 66.55 × 52 500 ÷ 100 = 34 939 ≤ 52 500, alone too. Two turns.
     assert_eq!(roster.entries.len(), 2);
     let (b, c) = (&roster.entries[0], &roster.entries[1]);
-    assert_eq!((b.unit_name.as_str(), b.turn, c.unit_name.as_str(), c.turn), ("B", 1, "C", 2));
+    assert_eq!(
+        (b.unit_name.as_str(), b.turn, c.unit_name.as_str(), c.turn),
+        ("B", 1, "C", 2)
+    );
     // Durations ∝ demand: B 7 d × 28 000 ÷ 80 500 = 2.434783 d = 210 365.2 s
     //   = 2 d 10 h 26 min 05 s → ends 3 July 10:26:05; C runs to 8 July 00:00.
     let at = |s: &str| chrono::NaiveDateTime::parse_from_str(s, "%Y-%m-%d %H:%M:%S").unwrap();
@@ -298,8 +395,18 @@ fn roster_on_the_distributary() {
     assert_close(roster.delivered_m3_day(1)[2], 3_250.0, 1e-6, "C 3 July");
     assert_close(roster.delivered_m3_day(1)[6], 5_750.0, 1e-6, "C 7 July");
     // Relative irrigation supply: 14 000 ÷ 28 000 = 0.5 for both.
-    assert_close(roster.relative_irrigation_supply(0).unwrap(), 0.5, 1e-12, "RIS B");
-    assert_close(roster.relative_irrigation_supply(1).unwrap(), 0.5, 1e-12, "RIS C");
+    assert_close(
+        roster.relative_irrigation_supply(0).unwrap(),
+        0.5,
+        1e-12,
+        "RIS B",
+    );
+    assert_close(
+        roster.relative_irrigation_supply(1).unwrap(),
+        0.5,
+        1e-12,
+        "RIS C",
+    );
     // B: RAW ÷ ETc = 40 ÷ 8 = 5 days < 7-day rotation → warned; C: 70 ÷ 8 = 8.75, not.
     assert_eq!(
         roster.warnings,

@@ -18,10 +18,12 @@
 //! the area commanded below the node (1 mm on 1 ha = 10 m³, FAO-56 Annex 1).
 
 use chrono::{Datelike, NaiveDate};
+
+use crate::calendar::{TenDayPeriod, YearMonth};
 use serde::{Deserialize, Serialize};
 
-use super::network::{Network, NetworkProblem, Node};
 use super::SchemeError;
+use super::network::{Network, NetworkProblem, Node};
 use crate::units::{depth_mm_over_area_ha_to_m3, m3_day_to_l_s};
 
 /// One daily NIR series for (part of) a block, labelled with its crop.
@@ -93,39 +95,16 @@ impl PeriodDemand {
     }
 }
 
-/// First day of the calendar period containing `date`.
-pub(crate) fn period_start(date: NaiveDate, step: PeriodStep) -> NaiveDate {
-    let day = match step {
-        PeriodStep::Month => 1,
-        PeriodStep::TenDay => match date.day() {
-            1..=10 => 1,
-            11..=20 => 11,
-            _ => 21,
-        },
-    };
-    date.with_day(day).unwrap_or(date)
-}
-
-/// Calendar length of the period starting on `start` (days).
-pub(crate) fn period_length_days(start: NaiveDate, step: PeriodStep) -> u32 {
-    let month_len = {
-        let (y, m) = if start.month() == 12 {
-            (start.year() + 1, 1)
-        } else {
-            (start.year(), start.month() + 1)
-        };
-        NaiveDate::from_ymd_opt(y, m, 1)
-            .and_then(|next| next.pred_opt())
-            .map_or(30, |last| last.day())
-    };
+/// First day and calendar length (days) of the period containing `date`.
+fn period_of(date: NaiveDate, step: PeriodStep) -> (NaiveDate, u32) {
     match step {
-        PeriodStep::Month => month_len,
         PeriodStep::TenDay => {
-            if start.day() == 21 {
-                month_len - 20
-            } else {
-                10
-            }
+            let p = TenDayPeriod::containing(date);
+            (p.start(), p.length_days())
+        }
+        PeriodStep::Month => {
+            let m = YearMonth::containing(date);
+            (m.start(), m.length_days())
         }
     }
 }
@@ -144,7 +123,7 @@ pub fn aggregate_periods(
     let mut out: Vec<PeriodDemand> = Vec::new();
     let mut date = start;
     for &v in series_m3_day {
-        let ps = period_start(date, step);
+        let (ps, period_days) = period_of(date, step);
         match out.last_mut() {
             Some(last) if last.start == ps => {
                 last.covered_days += 1;
@@ -152,7 +131,7 @@ pub fn aggregate_periods(
             }
             _ => out.push(PeriodDemand {
                 start: ps,
-                period_days: period_length_days(ps, step),
+                period_days,
                 covered_days: 1,
                 volume_m3: v,
                 mean_flow_ls: 0.0,
@@ -213,14 +192,13 @@ impl SchemeDemand {
         let mut crops: Vec<String> = Vec::new();
         let mut series_crop = Vec::with_capacity(nir.len());
         for s in nir {
-            match network.block_index(&s.block) {
-                Some(b) => series_block.push(b),
-                None => {
-                    series_block.push(usize::MAX);
-                    problems.push(NetworkProblem::SeriesOnMissingBlock {
-                        block: s.block.clone(),
-                    });
-                }
+            if let Some(b) = network.block_index(&s.block) {
+                series_block.push(b);
+            } else {
+                series_block.push(usize::MAX);
+                problems.push(NetworkProblem::SeriesOnMissingBlock {
+                    block: s.block.clone(),
+                });
             }
             if s.nir_m3_day.len() != days {
                 problems.push(NetworkProblem::SeriesLength {
@@ -388,7 +366,10 @@ impl SchemeDemand {
     pub fn block_gir_m3_day(&self, block: usize) -> Vec<f64> {
         let b = &self.network.blocks()[block];
         let k = 1.0 / (b.application_efficiency * b.field_canal_efficiency);
-        self.block_nir_m3_day(block).iter().map(|&v| v * k).collect()
+        self.block_nir_m3_day(block)
+            .iter()
+            .map(|&v| v * k)
+            .collect()
     }
 
     /// Blocks served through `node`.
@@ -403,7 +384,12 @@ impl SchemeDemand {
     /// Over all blocks below a node these add up to the node's demand.
     pub fn block_share_m3_day(&self, node: Node, block: usize) -> Option<Vec<f64>> {
         let k = self.network.block_factor(block, node)?;
-        Some(self.block_nir_m3_day(block).iter().map(|&v| v * k).collect())
+        Some(
+            self.block_nir_m3_day(block)
+                .iter()
+                .map(|&v| v * k)
+                .collect(),
+        )
     }
 
     /// 10-day or monthly table of a node's demand.

@@ -30,12 +30,12 @@
 use chrono::NaiveDate;
 use serde::{Deserialize, Serialize};
 
+use super::SchemeError;
 use super::demand::SchemeDemand;
 use super::network::Node;
-use super::SchemeError;
-use crate::calendar::{year_coverage, IrrigationYear, TenDayPeriod, YearMonth, YearStart};
-use crate::stats::{design_year, Probability};
-use crate::units::{m3_day_to_l_s, SECONDS_PER_DAY};
+use crate::calendar::{IrrigationYear, TenDayPeriod, YearMonth, YearStart, year_coverage};
+use crate::stats::{Probability, design_year};
+use crate::units::{SECONDS_PER_DAY, m3_day_to_l_s};
 
 /// The yearly peak the design flow is taken from.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Default, Serialize, Deserialize)]
@@ -357,7 +357,8 @@ pub fn design_values(
             let (peak_daily_ls, peak_daily_date) = peak_mean_ls(s, year.start(), |d| d);
             let (peak_10day_ls, peak_10day_period) =
                 peak_mean_ls(s, year.start(), TenDayPeriod::containing);
-            let (peak_monthly_ls, peak_month) = peak_mean_ls(s, year.start(), YearMonth::containing);
+            let (peak_monthly_ls, peak_month) =
+                peak_mean_ls(s, year.start(), YearMonth::containing);
             let volume_m3: f64 = s.iter().sum();
             years.push(YearValues {
                 year,

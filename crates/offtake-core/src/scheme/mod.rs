@@ -12,15 +12,18 @@
 //! checked by a qualified engineer against local codes and measured data.
 
 pub mod demand;
-// DESIGN-PENDING pub mod design;
+pub mod design;
 pub mod network;
 
 use std::fmt;
 
 pub use demand::{
-    aggregate_periods, storage_losses_m3_day, NirSeries, PeriodDemand, PeriodStep, SchemeDemand,
+    NirSeries, PeriodDemand, PeriodStep, SchemeDemand, aggregate_periods, storage_losses_m3_day,
 };
-// DESIGN-PENDING-USE
+pub use design::{
+    DesignBasis, DesignOptions, NodeDesign, Shortfall, ShortfallDay, ShortfallPeriod, YearValues,
+    capacity_shortfall, design_values,
+};
 pub use network::{Block, Canal, Network, NetworkProblem, Node};
 
 /// Errors of the scheme computations.

@@ -15,7 +15,7 @@
 //! The distribution efficiency is Eb × the product of the Ec along the path,
 //! so the tree never divides by a lumped distribution efficiency as well.
 
-use std::collections::HashMap;
+use std::collections::{HashMap, HashSet};
 use std::fmt;
 
 use serde::{Deserialize, Serialize};
@@ -162,7 +162,9 @@ impl fmt::Display for NetworkProblem {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             Self::DuplicateCanal { id } => write!(f, "canal id `{id}` is used more than once"),
-            Self::DuplicateBlock { name } => write!(f, "block name `{name}` is used more than once"),
+            Self::DuplicateBlock { name } => {
+                write!(f, "block name `{name}` is used more than once")
+            }
             Self::MissingParent { canal, parent } => {
                 write!(f, "canal `{canal}`: parent canal `{parent}` does not exist")
             }
@@ -187,11 +189,17 @@ impl fmt::Display for NetworkProblem {
                 "canal `{canal}`: existing capacity = {value} m³/s, expected a positive number"
             ),
             Self::AreaNotPositive { block, value } => {
-                write!(f, "block `{block}`: area = {value} ha, expected a positive number")
+                write!(
+                    f,
+                    "block `{block}`: area = {value} ha, expected a positive number"
+                )
             }
             Self::NoCanals => write!(f, "the scheme has no canal"),
             Self::SeriesOnMissingBlock { block } => {
-                write!(f, "requirement series for block `{block}`, which does not exist")
+                write!(
+                    f,
+                    "requirement series for block `{block}`, which does not exist"
+                )
             }
             Self::SeriesLength {
                 block,
@@ -312,23 +320,22 @@ impl Network {
                 colour[w] = 2;
             }
         }
-        let mut names: HashMap<&str, ()> = HashMap::new();
+        let mut names: HashSet<&str> = HashSet::new();
         let mut block_canal = Vec::with_capacity(blocks.len());
         for b in &blocks {
-            if names.insert(b.name.as_str(), ()).is_some() {
+            if !names.insert(b.name.as_str()) {
                 problems.push(NetworkProblem::DuplicateBlock {
                     name: b.name.clone(),
                 });
             }
-            match index.get(b.canal.as_str()) {
-                Some(&ci) => block_canal.push(ci),
-                None => {
-                    block_canal.push(0);
-                    problems.push(NetworkProblem::BlockOnMissingCanal {
-                        block: b.name.clone(),
-                        canal: b.canal.clone(),
-                    });
-                }
+            if let Some(&ci) = index.get(b.canal.as_str()) {
+                block_canal.push(ci);
+            } else {
+                block_canal.push(0);
+                problems.push(NetworkProblem::BlockOnMissingCanal {
+                    block: b.name.clone(),
+                    canal: b.canal.clone(),
+                });
             }
             if !(b.area_ha.is_finite() && b.area_ha > 0.0) {
                 problems.push(NetworkProblem::AreaNotPositive {
