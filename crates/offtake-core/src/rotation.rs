@@ -35,7 +35,7 @@ use std::fmt;
 use chrono::{NaiveDate, NaiveDateTime, TimeDelta};
 use serde::{Deserialize, Serialize};
 
-use crate::units::{l_s_to_m3_day, m3_day_to_l_s, SECONDS_PER_DAY};
+use crate::units::{SECONDS_PER_DAY, l_s_to_m3_day, m3_day_to_l_s};
 
 /// A child canal or block that takes part in the rotation.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -238,10 +238,9 @@ impl fmt::Display for RotationProblem {
             Self::BadUnitValue { unit, what, value } => {
                 write!(f, "`{unit}`: {what} = {value}, expected a positive number")
             }
-            Self::AvailableLength { expected, found } => write!(
-                f,
-                "available flow has {found} days, expected {expected}"
-            ),
+            Self::AvailableLength { expected, found } => {
+                write!(f, "available flow has {found} days, expected {expected}")
+            }
             Self::BadAvailable { day, value } => write!(
                 f,
                 "day {day}: available flow = {value} l/s, expected a finite value >= 0"
@@ -381,7 +380,13 @@ pub fn continuous_flow_roster(
     available: &AvailableFlow,
     rotation_period_days: u32,
 ) -> Result<Roster, RotationError> {
-    build(start, units, available, rotation_period_days, Policy::Continuous)
+    build(
+        start,
+        units,
+        available,
+        rotation_period_days,
+        Policy::Continuous,
+    )
 }
 
 fn validate(
@@ -555,12 +560,7 @@ fn build(
                 for &i in members {
                     let flow_ls = qa_ls * unit_demand[i] / dg;
                     let volume = qa_m3_s * (unit_demand[i] / dg) * (cycle_s * dg / total);
-                    spread(
-                        &mut delivered[i * days..(i + 1) * days],
-                        s0,
-                        s1,
-                        volume,
-                    );
+                    spread(&mut delivered[i * days..(i + 1) * days], s0, s1, volume);
                     cycle_delivered += volume;
                     entries.push(RosterEntry {
                         cycle: cycle_no,
