@@ -245,17 +245,17 @@ impl SchemeDemand {
         for ((s, &b), &c) in nir.iter().zip(&series_block).zip(&series_crop) {
             let block = &network.blocks()[b];
             let to_gir = 1.0 / (block.application_efficiency * block.field_canal_efficiency);
-            let row = &mut block_nir_m3_day[b * days..(b + 1) * days];
-            for (acc, &v) in row.iter_mut().zip(&s.nir_m3_day) {
-                *acc += v;
-            }
             let canal = network.block_canal(b);
             let at = (canal * n_crops + c) * days;
-            for (acc, &v) in node_crop_m3_day[at..at + days]
+            let block_row = &mut block_nir_m3_day[b * days..(b + 1) * days];
+            let node_row = &mut node_crop_m3_day[at..at + days];
+            for ((nir_acc, gir_acc), &v) in block_row
                 .iter_mut()
+                .zip(node_row.iter_mut())
                 .zip(&s.nir_m3_day)
             {
-                *acc += v * to_gir;
+                *nir_acc += v;
+                *gir_acc += v * to_gir;
             }
         }
         // Canals, children first: divide the sum at the canal by its Ec, then
