@@ -12,7 +12,14 @@
 //! Results are planning estimates: canal and structure designs must be checked
 //! by a qualified engineer against local codes and measured data.
 
+pub mod calendar;
+pub mod climate_stats;
+pub mod et0;
+pub mod openwater;
+pub mod project;
 pub mod rotation;
 pub mod scheme;
+pub mod stats;
 pub mod units;
 pub mod weather;
+pub mod weather_gen;

@@ -6,3 +6,4 @@
 //!
 //! Errors carry the file, line and column of the offending cell and say what
 //! was found and what was expected.
+pub mod project_file;
