@@ -35,6 +35,7 @@ use std::fmt;
 use chrono::{NaiveDate, NaiveDateTime, TimeDelta};
 use serde::{Deserialize, Serialize};
 
+use crate::scheme::{Node, SchemeDemand};
 use crate::units::{SECONDS_PER_DAY, l_s_to_m3_day, m3_day_to_l_s};
 
 /// A child canal or block that takes part in the rotation.
@@ -318,6 +319,59 @@ impl Roster {
             self.demand_m3_day[row].iter().sum(),
         )
     }
+}
+
+/// The units that rotate at a node: its child canals (main canals for the
+/// headworks) and the blocks taking directly from it, with their demand over
+/// the days `days` of `demand`.
+///
+/// Demands and capacities are expressed at the node's head, like the
+/// available flow: a child's demand (or a child canal's existing capacity)
+/// ÷ the node's own conveyance efficiency Ec (1 at the headworks). RAW and
+/// ETc are left empty for the caller to fill per block.
+pub fn units_at_node(
+    demand: &SchemeDemand,
+    node: Node,
+    days: std::ops::Range<usize>,
+) -> Vec<RotationUnit> {
+    let network = demand.network();
+    let ec = match node {
+        Node::Headworks => 1.0,
+        Node::Canal(c) => network.canals()[c].conveyance_efficiency,
+    };
+    let days = days.start.min(demand.days())..days.end.min(demand.days());
+    let mut units: Vec<RotationUnit> = network
+        .child_canals(node)
+        .into_iter()
+        .map(|c| {
+            let canal = &network.canals()[c];
+            RotationUnit {
+                name: canal.id.clone(),
+                demand_m3_day: demand.demand_m3_day(Node::Canal(c))[days.clone()]
+                    .iter()
+                    .map(|v| v / ec)
+                    .collect(),
+                capacity_ls: canal.existing_capacity_m3s.map(|q| q * 1000.0 / ec),
+                raw_mm: None,
+                etc_mm_day: None,
+            }
+        })
+        .collect();
+    if let Node::Canal(c) = node {
+        for b in network.child_blocks(c) {
+            units.push(RotationUnit {
+                name: network.blocks()[b].name.clone(),
+                demand_m3_day: demand.block_gir_m3_day(b)[days.clone()]
+                    .iter()
+                    .map(|v| v / ec)
+                    .collect(),
+                capacity_ls: None,
+                raw_mm: None,
+                etc_mm_day: None,
+            });
+        }
+    }
+    units
 }
 
 /// Relative irrigation supply: delivered irrigation water ÷ irrigation demand

@@ -22,7 +22,8 @@
 
 use chrono::{Datelike, NaiveDate};
 use offtake_core::rotation::{
-    AvailableFlow, CycleMode, RosterWarning, RotationUnit, rotation_roster,
+    AvailableFlow, CycleMode, RosterWarning, RotationUnit, continuous_flow_roster, rotation_roster,
+    units_at_node,
 };
 use offtake_core::scheme::{
     Block, Canal, DesignBasis, DesignOptions, Network, NirSeries, Node, PeriodStep, SchemeDemand,
@@ -415,5 +416,83 @@ fn roster_on_the_distributary() {
             rotation_days: 7,
             raw_days: 5.0
         }]
+    );
+}
+
+#[test]
+fn units_at_nodes_and_delivery_to_blocks() {
+    let (network, demand) = scheme();
+    let mi = network.canal_index("M").unwrap();
+    let d = Node::Canal(network.canal_index("D").unwrap());
+    // At D's head (Ec 0.8), 1 July 2001: B 3200 ÷ 0.8 = 4000, C 6000 ÷ 0.8 = 7500 m³/day.
+    let units = units_at_node(&demand, d, 181..183);
+    let names: Vec<_> = units.iter().map(|u| u.name.as_str()).collect();
+    assert_eq!(names, ["B", "C"]);
+    assert_close(units[0].demand_m3_day[0], 4_000.0, 1e-9, "B at D head");
+    assert_close(units[1].demand_m3_day[1], 7_500.0, 1e-9, "C at D head");
+    // At M's head (Ec 0.9): canal D 11 500 ÷ 0.9 = 12 777.78 with its capacity
+    // 0.5 m³/s = 500 l/s ÷ 0.9 = 555.56 l/s; block A 5000 ÷ 0.9 = 5555.56.
+    let units = units_at_node(&demand, Node::Canal(mi), 181..182);
+    assert_eq!(units[0].name, "D");
+    assert_close(
+        units[0].demand_m3_day[0],
+        12_777.777_778,
+        1e-6,
+        "D at M head",
+    );
+    assert_close(
+        units[0].capacity_ls.unwrap(),
+        555.555_556,
+        1e-6,
+        "D capacity at M head",
+    );
+    assert_eq!(units[1].name, "A");
+    assert_close(
+        units[1].demand_m3_day[0],
+        5_555.555_556,
+        1e-6,
+        "A at M head",
+    );
+    // Headworks: the main canal M, 18 333.33 m³/day.
+    let units = units_at_node(&demand, Node::Headworks, 181..182);
+    assert_eq!(units.len(), 1);
+    assert_close(
+        units[0].demand_m3_day[0],
+        18_333.333_333,
+        1e-6,
+        "M at headworks",
+    );
+
+    // Continuous flow at D with half its demand available every day of July
+    // 2001: each block's outlet gets half its GIR: B 1600, C 3000 m³/day on
+    // 1 July; on 15 July (double demand) B 3200, C 6000.
+    let half: Vec<f64> = demand.demand_m3_day(d).iter().map(|v| v / 2.0).collect();
+    let to_blocks = demand.delivered_to_blocks_m3_day(d, &half).unwrap();
+    assert_eq!(
+        to_blocks.iter().map(|(b, _)| *b).collect::<Vec<_>>(),
+        vec![1, 2]
+    );
+    assert_close(to_blocks[0].1[181], 1_600.0, 1e-9, "B 1 July");
+    assert_close(to_blocks[1].1[181], 3_000.0, 1e-9, "C 1 July");
+    assert_close(to_blocks[1].1[195], 6_000.0, 1e-9, "C 15 July");
+    assert!(demand.delivered_to_blocks_m3_day(d, &half[1..]).is_err());
+
+    // The same through the continuous-flow roster at D's head over 1–10 July:
+    // available 5750 m³/day, demand 11 500 → every unit at half: B 2000, C 3750.
+    let units = units_at_node(&demand, d, 181..191);
+    let roster = continuous_flow_roster(
+        NaiveDate::from_ymd_opt(2001, 7, 1).unwrap(),
+        &units,
+        &AvailableFlow::Constant(5_750.0 / 86.4),
+        10,
+    )
+    .unwrap();
+    assert_close(roster.delivered_m3_day(0)[0], 2_000.0, 1e-9, "B continuous");
+    assert_close(roster.delivered_m3_day(1)[9], 3_750.0, 1e-9, "C continuous");
+    assert_close(
+        roster.relative_irrigation_supply(1).unwrap(),
+        0.5,
+        1e-12,
+        "RIS C",
     );
 }

@@ -392,6 +392,61 @@ impl SchemeDemand {
         )
     }
 
+    /// Shares the water delivered at a node's head among the blocks below
+    /// it, day by day, in proportion to their demand: on a day with demand
+    /// Dₙ and delivery Vₙ at the node, each block's outlet receives
+    /// GIR × min(Vₙ ÷ Dₙ, 1) (conveyance losses are taken in proportion, as
+    /// in the demand). Days without demand deliver nothing.
+    ///
+    /// Returns (block index, delivered at the outlet m³/day) for each block
+    /// below the node; × Ea × Eb gives the water reaching the root zone, for
+    /// re-running a block's water balance on delivered water.
+    ///
+    /// # Errors
+    /// [`SchemeError::Invalid`] when `delivered_m3_day` does not have one
+    /// value per day, or holds a negative or non-finite value.
+    pub fn delivered_to_blocks_m3_day(
+        &self,
+        node: Node,
+        delivered_m3_day: &[f64],
+    ) -> Result<Vec<(usize, Vec<f64>)>, SchemeError> {
+        let name = self.network.node_name(node).to_owned();
+        if delivered_m3_day.len() != self.days {
+            return Err(SchemeError::Invalid(vec![NetworkProblem::SeriesLength {
+                block: name,
+                crop: "delivered".into(),
+                expected: self.days,
+                found: delivered_m3_day.len(),
+            }]));
+        }
+        if let Some((day, &value)) = delivered_m3_day
+            .iter()
+            .enumerate()
+            .find(|(_, v)| !(v.is_finite() && **v >= 0.0))
+        {
+            return Err(SchemeError::Invalid(vec![NetworkProblem::BadRequirement {
+                block: name,
+                crop: "delivered".into(),
+                day,
+                value,
+            }]));
+        }
+        let node_demand = self.demand_m3_day(node);
+        let ratio: Vec<f64> = node_demand
+            .iter()
+            .zip(delivered_m3_day)
+            .map(|(&d, &v)| if d > 0.0 { (v / d).min(1.0) } else { 0.0 })
+            .collect();
+        Ok(self
+            .blocks_below(node)
+            .into_iter()
+            .map(|b| {
+                let gir = self.block_gir_m3_day(b);
+                (b, gir.iter().zip(&ratio).map(|(g, r)| g * r).collect())
+            })
+            .collect())
+    }
+
     /// 10-day or monthly table of a node's demand.
     pub fn periods(&self, node: Node, step: PeriodStep) -> Vec<PeriodDemand> {
         aggregate_periods(
