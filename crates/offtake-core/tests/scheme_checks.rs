@@ -119,7 +119,7 @@ fn project_efficiency_preset() {
 fn capacity_shortfall_constructed_series() {
     let start = NaiveDate::from_ymd_opt(2031, 1, 9).unwrap();
     let demand = [100.0, 200.0, 300.0, 172.8, 50.0];
-    let s = capacity_shortfall(start, &demand, 0.002, 24.0);
+    let s = capacity_shortfall(start, &demand, 0.002, 24.0).unwrap();
     assert_close(s.deliverable_m3_day, 172.8, 1e-9, "deliverable");
     let dates: Vec<_> = s.days.iter().map(|d| d.date.to_string()).collect();
     assert_eq!(dates, ["2031-01-10", "2031-01-11"]);
@@ -137,7 +137,9 @@ fn capacity_shortfall_constructed_series() {
         "period mean",
     );
     assert_close(s.volume_not_delivered_m3, 154.4, 1e-9, "not delivered");
-    let half = capacity_shortfall(start, &demand, 0.002, 12.0);
+    let half = capacity_shortfall(start, &demand, 0.002, 12.0).unwrap();
+    assert!(capacity_shortfall(start, &demand, 0.0, 12.0).is_err());
+    assert!(capacity_shortfall(start, &[f64::NAN], 1.0, 12.0).is_err());
     assert_eq!(half.days.len(), 4);
     assert_close(
         half.volume_not_delivered_m3,

@@ -32,7 +32,7 @@ use serde::{Deserialize, Serialize};
 
 use super::SchemeError;
 use super::demand::SchemeDemand;
-use super::network::Node;
+use super::network::{NetworkProblem, Node};
 use crate::calendar::{IrrigationYear, TenDayPeriod, YearMonth, YearStart, year_coverage};
 use crate::stats::{Probability, design_year};
 use crate::units::{SECONDS_PER_DAY, m3_day_to_l_s};
@@ -198,12 +198,43 @@ pub struct Shortfall {
 ///
 /// A 10-day period is in shortfall when it holds at least one shortfall day;
 /// water is not carried over between days.
+///
+/// # Errors
+/// [`SchemeError::BadOption`] for a capacity that is not a positive finite
+/// number or hours outside (0, 24]; [`SchemeError::Invalid`] for a negative
+/// or non-finite demand.
 pub fn capacity_shortfall(
     start: NaiveDate,
     demand_m3_day: &[f64],
     capacity_m3s: f64,
     hours_per_day: f64,
-) -> Shortfall {
+) -> Result<Shortfall, SchemeError> {
+    if !(capacity_m3s.is_finite() && capacity_m3s > 0.0) {
+        return Err(SchemeError::BadOption {
+            what: "existing capacity (m³/s)",
+            value: capacity_m3s,
+            expected: "a positive number",
+        });
+    }
+    if !(hours_per_day.is_finite() && hours_per_day > 0.0 && hours_per_day <= 24.0) {
+        return Err(SchemeError::BadOption {
+            what: "hours of operation",
+            value: hours_per_day,
+            expected: "a value in (0, 24]",
+        });
+    }
+    if let Some((day, &value)) = demand_m3_day
+        .iter()
+        .enumerate()
+        .find(|(_, v)| !(v.is_finite() && **v >= 0.0))
+    {
+        return Err(SchemeError::Invalid(vec![NetworkProblem::BadRequirement {
+            block: "(node demand)".into(),
+            crop: "all".into(),
+            day,
+            value,
+        }]));
+    }
     let deliverable = capacity_m3s * hours_per_day * 3600.0;
     let mut days = Vec::new();
     let mut periods: Vec<ShortfallPeriod> = Vec::new();
@@ -250,12 +281,12 @@ pub fn capacity_shortfall(
         date = date.succ_opt().unwrap_or(date);
     }
     close(&mut periods, &period_demand);
-    Shortfall {
+    Ok(Shortfall {
         deliverable_m3_day: deliverable,
         days,
         periods,
         volume_not_delivered_m3: total,
-    }
+    })
 }
 
 /// Largest mean flow (l/s) over consecutive groups of days sharing a key, with
@@ -414,7 +445,9 @@ pub fn design_values(
             hours_per_day,
             required_capacity_ls: required_capacity_ls(design_flow_ls, hours_per_day),
             existing_capacity_ls: capacity_m3s.map(|c| c * 1000.0),
-            shortfall: capacity_m3s.map(|c| capacity_shortfall(first, series, c, hours_per_day)),
+            shortfall: capacity_m3s
+                .map(|c| capacity_shortfall(first, series, c, hours_per_day))
+                .transpose()?,
             years,
         });
     }
