@@ -14,11 +14,14 @@
 
 pub mod calendar;
 pub mod climate_stats;
+pub mod crop;
 pub mod et0;
 pub mod openwater;
 pub mod project;
 pub mod rotation;
+pub mod salinity;
 pub mod scheme;
+pub mod soil;
 pub mod stats;
 pub mod units;
 pub mod weather;
