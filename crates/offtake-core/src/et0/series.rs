@@ -462,6 +462,7 @@ fn checked_rh(
 ) -> Result<Option<f64>, Et0Error> {
     match value {
         None => Ok(None),
+        Some(v) if !v.is_finite() => Err(Et0Error::NotFinite { quantity, value: v }),
         Some(v) if v >= -tolerance_pct && v <= 100.0 + tolerance_pct => {
             Ok(Some(v.clamp(0.0, 100.0)))
         }
