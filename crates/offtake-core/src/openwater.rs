@@ -75,7 +75,7 @@ pub enum OpenWaterError {
     },
 }
 
-/// Meyer's coefficient K_M (Subramanya 2008, p. 63).
+/// Meyer's coefficient K_M (Subramanya 2009, p. 63).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum MeyerWater {
     /// Large, deep waters: K_M = 0.36.
@@ -126,7 +126,7 @@ pub fn saturation_vapour_pressure_mmhg(temperature_c: f64) -> f64 {
 ///
 /// * `wind` — speed at `from_height_m`; `to_height_m` — target height (m).
 ///
-/// u_h = C h^(1/7) (Subramanya 2008 §3.5, eq. 3.5 [MEMORY eq. no.]), so
+/// u_h = C h^(1/7) (Subramanya 2009 §3.5, eq. 3.5 [MEMORY eq. no.]), so
 /// u_to = u_from (to/from)^(1/7). Meant for heights of about 0.5–20 m over
 /// open ground or water.
 ///
