@@ -368,7 +368,8 @@ fn is_non_finite_token(token: &str) -> bool {
 /// field per line in declaration order (so diffs of saved files are stable).
 ///
 /// # Errors
-/// [`ProjectFileError::Serialize`] if a value cannot be written.
+/// [`ProjectFileError::Serialize`] if a value cannot be written, or if a
+/// number is NaN or infinite (the file would be refused on loading).
 pub fn project_to_string(project: &Project) -> Result<String, ProjectFileError> {
     let config = ron::ser::PrettyConfig::new()
         .struct_names(false)
@@ -379,11 +380,22 @@ pub fn project_to_string(project: &Project) -> Result<String, ProjectFileError> 
         .map_err(|e| ProjectFileError::Serialize {
             message: e.to_string(),
         })?;
-    Ok(format!(
+    let text = format!(
         "// Offtake project file (schema {}). Planning estimates only: designs\n\
          // must be checked by a qualified engineer under local codes.\n{body}\n",
         project.schema
-    ))
+    );
+    // Never write a file that would be refused on loading.
+    if let Some((line, _, token)) = find_non_finite_number(&text) {
+        let context = text.lines().nth(line - 1).unwrap_or("").trim();
+        return Err(ProjectFileError::Serialize {
+            message: format!(
+                "the project holds a number that is not finite ({token}) at `{context}`; \
+                 correct it (validation lists it) before saving"
+            ),
+        });
+    }
+    Ok(text)
 }
 
 /// Writes the project's RON text to any writer.

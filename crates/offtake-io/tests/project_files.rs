@@ -358,8 +358,9 @@ fn demo_scheme_is_valid_and_as_described() {
     let problems: Vec<ValidationProblem> = p.validate(&ValidationContext {
         crops: &table11_lengths,
         weather_range: Some((
-            chrono::NaiveDate::from_ymd_opt(2000, 1, 1).unwrap(),
-            chrono::NaiveDate::from_ymd_opt(2024, 12, 31).unwrap(),
+            // The demo weather record (../demo-weather/weather.csv).
+            chrono::NaiveDate::from_ymd_opt(2001, 1, 1).unwrap(),
+            chrono::NaiveDate::from_ymd_opt(2025, 12, 31).unwrap(),
         )),
     });
     assert!(problems.is_empty(), "{problems:#?}");
@@ -400,6 +401,22 @@ fn demo_scheme_is_valid_and_as_described() {
     );
 }
 
+#[test]
+fn non_finite_values_are_not_saved() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("p.ron");
+    let mut p = load_project(&corpus("minimal.ron")).unwrap();
+    save_project(&path, &p).unwrap();
+    let before = std::fs::read(&path).unwrap();
+    p.blocks[0].area_ha = f64::NAN;
+    let err = save_project(&path, &p).unwrap_err();
+    assert!(
+        matches!(&err, ProjectFileError::Serialize { message } if message.contains("area_ha")),
+        "{err}"
+    );
+    assert_eq!(std::fs::read(&path).unwrap(), before);
+}
+
 mod fuzz {
     use super::*;
     use proptest::prelude::*;
@@ -416,6 +433,25 @@ mod fuzz {
             chars[i] = c;
             let corrupted: String = chars.into_iter().collect();
             let _ = parse_project(&corrupted, Path::new("fuzz.ron"));
+        }
+
+        /// Any finite number survives a save and a load bit for bit.
+        #[test]
+        fn finite_numbers_round_trip_exactly(
+            area in proptest::num::f64::NORMAL | proptest::num::f64::SUBNORMAL | proptest::num::f64::ZERO,
+            ec in 0.0f64..=1.0,
+            cap in proptest::option::of(proptest::num::f64::POSITIVE),
+            lat in -90.0f64..=90.0,
+        ) {
+            let mut p = load_project(&corpus("minimal.ron")).unwrap();
+            p.blocks[0].area_ha = area;
+            p.canals[0].conveyance_efficiency = ec;
+            p.canals[0].existing_capacity_m3s = cap;
+            p.weather.latitude_deg = lat;
+            let text = project_to_string(&p).unwrap();
+            let back = parse_project(&text, Path::new("rt.ron")).unwrap();
+            prop_assert_eq!(back.blocks[0].area_ha.to_bits(), area.to_bits());
+            prop_assert_eq!(back, p);
         }
     }
 }

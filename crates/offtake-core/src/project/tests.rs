@@ -353,6 +353,20 @@ fn occupancy_wraps_across_year_end() {
 }
 
 #[test]
+fn planting_larger_than_its_block_is_reported_without_crop_data() {
+    let mut p = fixture();
+    p.plantings[1].crop = "not-in-library".into();
+    p.plantings[1].area = PlantingArea::Hectares(75.0); // block b2 is 50 ha
+    let problems = p.validate(&ctx());
+    assert!(
+        problems.iter().any(|q| matches!(q,
+            ValidationProblem::PlantingLargerThanBlock { planting, area_ha, block_area_ha, .. }
+                if planting == "p2" && *area_ha == 75.0 && *block_area_ha == 50.0)),
+        "{problems:#?}"
+    );
+}
+
+#[test]
 fn season_longer_than_a_year_is_reported() {
     let mut p = fixture();
     p.plantings[0].season_length_days = Some(400);
@@ -463,7 +477,8 @@ fn problems_only_under_a_scenario_are_attributed_to_it() {
         },
     ];
     let problems = p.validate(&ctx());
-    assert_eq!(problems.len(), 2, "{problems:#?}");
+    // Eb 1.1; planting larger than block b2 (50 ha); b2 over-planted.
+    assert_eq!(problems.len(), 3, "{problems:#?}");
     assert!(problems.iter().all(
         |q| matches!(q, ValidationProblem::InScenario { scenario, .. } if scenario == "shift")
     ));

@@ -191,6 +191,20 @@ pub enum ValidationProblem {
         /// The crop id.
         crop: String,
     },
+    /// A planting alone is larger than its block.
+    #[error(
+        "planting {planting:?}: {area_ha} ha is more than block {block:?} ({block_area_ha} ha)"
+    )]
+    PlantingLargerThanBlock {
+        /// The planting.
+        planting: String,
+        /// Its area (ha).
+        area_ha: f64,
+        /// The block.
+        block: String,
+        /// The block's area (ha).
+        block_area_ha: f64,
+    },
     /// Spread plus season length exceeds a year, so the yearly plan overlaps
     /// itself.
     #[error(
@@ -433,9 +447,11 @@ impl Project {
         out: &mut Vec<ValidationProblem>,
     ) -> HashMap<usize, u32> {
         let mut lengths = HashMap::new();
+        let blocks: HashMap<&str, &super::Block> =
+            self.blocks.iter().map(|b| (b.id.as_str(), b)).collect();
         for (i, p) in self.plantings.iter().enumerate() {
             let subject = format!("planting {:?}", p.id);
-            let block = self.block(&p.block);
+            let block = blocks.get(p.block.as_str()).copied();
             if block.is_none() {
                 out.push(ValidationProblem::PlantingOnMissingBlock {
                     planting: p.id.clone(),
@@ -443,7 +459,19 @@ impl Project {
                 });
             }
             match p.area {
-                super::PlantingArea::Hectares(ha) => check_positive(&subject, "area (ha)", ha, out),
+                super::PlantingArea::Hectares(ha) => {
+                    check_positive(&subject, "area (ha)", ha, out);
+                    if let Some(b) = block
+                        && ha > b.area_ha * (1.0 + AREA_TOLERANCE)
+                    {
+                        out.push(ValidationProblem::PlantingLargerThanBlock {
+                            planting: p.id.clone(),
+                            area_ha: ha,
+                            block: b.id.clone(),
+                            block_area_ha: b.area_ha,
+                        });
+                    }
+                }
                 super::PlantingArea::PercentOfBlock(pct) => {
                     if !(pct.is_finite() && pct > 0.0 && pct <= 100.0) {
                         out.push(ValidationProblem::BadValue {
@@ -506,19 +534,27 @@ impl Project {
     }
 
     fn check_occupancy(&self, lengths: &HashMap<usize, u32>, out: &mut Vec<ValidationProblem>) {
+        // Plantings by block, in file order, so each block sees only its own.
+        let mut by_block: HashMap<&str, Vec<usize>> = HashMap::new();
+        for (i, p) in self.plantings.iter().enumerate() {
+            if lengths.contains_key(&i) {
+                by_block.entry(p.block.as_str()).or_default().push(i);
+            }
+        }
         for b in &self.blocks {
             if !(b.area_ha.is_finite() && b.area_ha > 0.0) {
                 continue;
             }
+            let Some(indices) = by_block.get(b.id.as_str()) else {
+                continue;
+            };
             let mut area = [0.0_f64; PLAN_YEAR_DAYS];
             let mut present: Vec<(usize, Vec<bool>)> = Vec::new();
-            for (i, p) in self.plantings.iter().enumerate() {
+            for &i in indices {
+                let p = &self.plantings[i];
                 let Some(&season) = lengths.get(&i) else {
                     continue;
                 };
-                if p.block != b.id {
-                    continue;
-                }
                 let ha = p.area.hectares(b.area_ha);
                 if !ha.is_finite() {
                     continue;
@@ -661,11 +697,20 @@ impl Project {
 /// `cohorts` cohorts one day apart, each staying `season` days. Wraps
 /// around 31 December. Requires `cohorts − 1 + season ≤ 365`.
 fn cohort_occupancy(start: usize, cohorts: usize, season: usize) -> [u32; PLAN_YEAR_DAYS] {
-    let mut occ = [0_u32; PLAN_YEAR_DAYS];
+    // Difference array over two plan years: cohort c adds one on days
+    // start + c .. start + c + season; the second year folds onto the first.
+    let mut diff = vec![0_i64; 2 * PLAN_YEAR_DAYS + 1];
     for c in 0..cohorts {
-        for t in 0..season {
-            occ[(start + c + t) % PLAN_YEAR_DAYS] += 1;
-        }
+        let from = start + c;
+        let to = (from + season).min(2 * PLAN_YEAR_DAYS);
+        diff[from] += 1;
+        diff[to] -= 1;
+    }
+    let mut occ = [0_u32; PLAN_YEAR_DAYS];
+    let mut running = 0_i64;
+    for (d, delta) in diff.iter().take(2 * PLAN_YEAR_DAYS).enumerate() {
+        running += delta;
+        occ[d % PLAN_YEAR_DAYS] += u32::try_from(running).unwrap_or(0);
     }
     occ
 }
@@ -840,5 +885,26 @@ fn check_strategy(subject: &str, s: &Strategy, out: &mut Vec<ValidationProblem>)
             }
         }
         Strategy::Rainfed => {}
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use proptest::prelude::*;
+
+    proptest! {
+        /// The difference-array occupancy equals counting every cohort-day.
+        #[test]
+        fn occupancy_matches_direct_count(start in 0usize..365, cohorts in 1usize..40, season in 1usize..300) {
+            prop_assume!(cohorts - 1 + season <= PLAN_YEAR_DAYS);
+            let mut direct = [0_u32; PLAN_YEAR_DAYS];
+            for c in 0..cohorts {
+                for t in 0..season {
+                    direct[(start + c + t) % PLAN_YEAR_DAYS] += 1;
+                }
+            }
+            prop_assert_eq!(cohort_occupancy(start, cohorts, season), direct);
+        }
     }
 }
