@@ -230,6 +230,11 @@ pub struct GeneratedWeather {
     pub defects: Vec<PlantedDefect>,
 }
 
+/// Size of the planted Tmax spike (°C): well beyond any day-to-day change of
+/// the generated temperatures, so a spike rule with a threshold of 15 °C or
+/// less finds it.
+pub const SPIKE_C: f64 = 18.0;
+
 /// Where (year offset from the first year, month, day, length in days) and
 /// what each planted defect is.
 const DEFECT_PLAN: [(i32, u32, u32, u32, &str, DefectKind); 8] = [
@@ -483,7 +488,7 @@ fn plant_defects(first_year: i32, days: &mut Vec<WeatherDay>, defects: &mut Vec<
             }
             DefectKind::Spike => {
                 let d = &mut days[i0];
-                d.tmax_c = d.tmax_c.map(|t| round1(t + 14.0));
+                d.tmax_c = d.tmax_c.map(|t| round1(t + SPIKE_C));
             }
             DefectKind::Stuck => {
                 let stuck = days[i0].wind_ms;
