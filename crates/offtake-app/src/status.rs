@@ -1,0 +1,77 @@
+//! The bottom status bar: recompute time, data warnings, save state, caution.
+
+use egui::{RichText, Ui};
+
+use crate::command::{Command, HelpWindow};
+use crate::help::CAUTION_LINE;
+use crate::state::{RecomputeStatus, RuntimeState};
+
+/// Save state of the document, as the status bar shows it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum SaveState {
+    /// No project open.
+    NoProject,
+    /// Never saved to a file.
+    NotSaved,
+    /// Edited since the last save.
+    Unsaved,
+    /// Same as the file.
+    Saved,
+}
+
+impl SaveState {
+    /// Text for the status bar.
+    pub fn text(self) -> &'static str {
+        match self {
+            SaveState::NoProject => "No project",
+            SaveState::NotSaved => "Not saved yet",
+            SaveState::Unsaved => "Unsaved changes",
+            SaveState::Saved => "Saved",
+        }
+    }
+}
+
+/// Draws the status bar.
+pub fn ui(ui: &mut Ui, state: &RuntimeState, save: SaveState, commands: &mut Vec<Command>) {
+    ui.horizontal(|ui| {
+        match &state.recompute {
+            RecomputeStatus::NothingToCompute => {
+                ui.label("Nothing to compute");
+            }
+            RecomputeStatus::Running => {
+                ui.spinner();
+                ui.label("recomputing…");
+            }
+            RecomputeStatus::Done { elapsed_ms } => {
+                ui.label(format!("recomputed in {elapsed_ms:.0} ms"));
+            }
+            RecomputeStatus::Stopped => {
+                ui.label(
+                    RichText::new("computation stopped — results are from the last good run")
+                        .color(ui.visuals().warn_fg_color),
+                );
+            }
+        }
+        ui.separator();
+        let warnings = match state.warning_count {
+            0 => "No data warnings".to_owned(),
+            1 => "1 data warning".to_owned(),
+            n => format!("{n} data warnings"),
+        };
+        ui.label(warnings);
+        ui.separator();
+        ui.label(save.text());
+        if let Some(msg) = &state.message {
+            ui.separator();
+            ui.label(msg);
+        }
+        ui.separator();
+        if ui
+            .link(CAUTION_LINE)
+            .on_hover_text("Open Help › Cautions")
+            .clicked()
+        {
+            commands.push(Command::ShowHelp(HelpWindow::Cautions));
+        }
+    });
+}
