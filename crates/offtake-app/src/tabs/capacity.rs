@@ -12,6 +12,7 @@ pub struct CanalCapacityTab {}
 impl CanalCapacityTab {
     /// Draws the tab from the cached results.
     pub fn ui(&mut self, ui: &mut Ui, view: &View<'_>, _commands: &mut Vec<Command>) {
+        ui.label(egui::RichText::new(crate::help::CAUTION_LINE).color(ui.visuals().warn_fg_color));
         if !view.project_open {
             no_project(
                 ui,
