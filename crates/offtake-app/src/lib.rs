@@ -18,6 +18,7 @@
 pub mod app;
 pub mod command;
 pub mod compute;
+pub mod fields;
 pub mod help;
 pub mod history;
 pub mod inspector;
