@@ -7,16 +7,25 @@
 
 use std::sync::Arc;
 use std::sync::mpsc::{self, Receiver, Sender};
+use std::time::{Duration, Instant};
 
 use egui::{Key, KeyboardShortcut, Modifiers, Ui};
+use offtake_core::project::Project;
 
-use crate::command::{Command, HelpWindow, PanelKind};
-use crate::compute::Computed;
+use crate::command::{Command, HelpWindow, ItemRef, PanelKind, Selection};
+use crate::compute::{ComputeFn, Computed};
+use crate::document::OpenDocument;
+use crate::edit::DocEdit;
+use crate::history::History;
 use crate::menu::MenuInfo;
-use crate::state::RuntimeState;
+use crate::state::{Discard, RecomputeStatus, RuntimeState};
 use crate::status::SaveState;
 use crate::tabs::{Tabs, View};
+use crate::worker::{Worker, WorkerState};
 use crate::{help, inspector, menu, status, tree};
+
+/// Quiet time after the last edit before recomputing.
+pub const DEFAULT_DEBOUNCE: Duration = Duration::from_millis(150);
 
 /// Ctrl+S: save.
 pub const SAVE: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::S);
@@ -49,8 +58,14 @@ struct PendingImage {
 /// The desktop application: the document (once open), runtime state, cached
 /// results and the handles of background work.
 pub struct OfftakeApp {
-    /// Session state: tab, windows, panels, messages.
+    /// The open project, if any.
+    pub document: Option<OpenDocument>,
+    /// Undo/redo of document edits.
+    pub history: History<DocEdit>,
+    /// Session state: tab, selection, windows, panels, messages.
     pub state: RuntimeState,
+    /// Background recomputation.
+    worker: Worker<Project, Computed>,
     /// View state of the workspace tabs.
     pub tabs: Tabs,
     /// Results of the last finished computation.
@@ -62,6 +77,8 @@ pub struct OfftakeApp {
     images_rx: Receiver<PendingImage>,
     /// Whether file dialogs may open (off in headless tests).
     dialogs: bool,
+    /// The user confirmed closing with unsaved changes.
+    closing: bool,
 }
 
 impl std::fmt::Debug for OfftakeApp {
@@ -81,8 +98,21 @@ impl Default for OfftakeApp {
 impl OfftakeApp {
     /// A new window with no project open.
     pub fn new() -> Self {
+        Self::with_compute(
+            DEFAULT_DEBOUNCE,
+            Box::new(|p: Project| crate::compute::tree_summary(&p)),
+        )
+    }
+
+    /// A new window whose worker runs `compute` on a snapshot of the project
+    /// after each burst of edits (`debounce` of quiet time). This is where the
+    /// computation chain plugs in.
+    pub fn with_compute(debounce: Duration, compute: ComputeFn) -> Self {
         let (images_tx, images_rx) = mpsc::channel();
         Self {
+            document: None,
+            history: History::default(),
+            worker: Worker::spawn(debounce, compute),
             state: RuntimeState::default(),
             tabs: Tabs::default(),
             computed: None,
@@ -90,6 +120,7 @@ impl OfftakeApp {
             images_tx,
             images_rx,
             dialogs: true,
+            closing: false,
         }
     }
 
@@ -106,34 +137,101 @@ impl OfftakeApp {
         self.commands.push(command);
     }
 
-    #[expect(
-        clippy::unused_self,
-        reason = "reads the document once the project type is wired in"
-    )]
     fn project_open(&self) -> bool {
-        false
+        self.document.is_some()
     }
 
-    #[expect(
-        clippy::unused_self,
-        reason = "reads the document once the project type is wired in"
-    )]
+    /// The open project, if any.
+    pub fn project(&self) -> Option<&Project> {
+        self.document.as_ref().map(|d| &d.project)
+    }
+
+    /// Opens `project` as a new, unsaved document (clears the history and
+    /// schedules a recompute).
+    pub fn open_project(&mut self, project: Project) {
+        self.set_document(OpenDocument::new(project));
+    }
+
+    fn set_document(&mut self, doc: OpenDocument) {
+        self.document = Some(doc);
+        self.history.clear();
+        self.state.selection = Selection::Scheme;
+        self.request_recompute();
+    }
+
+    fn request_recompute(&mut self) {
+        if let Some(doc) = &self.document {
+            self.worker.request(doc.project.clone(), Instant::now());
+            self.state.recompute = RecomputeStatus::Running;
+        }
+    }
+
+    /// Blocks until the background computation settles (at most `timeout`)
+    /// and takes its results. For tests and scripted screenshots; the UI
+    /// itself never waits.
+    pub fn wait_for_recompute(&mut self, timeout: Duration) {
+        if let Some(done) = self.worker.wait(timeout) {
+            self.take_results(done);
+        }
+        self.sync_worker_state();
+    }
+
+    fn take_results(&mut self, done: crate::worker::Finished<Computed>) {
+        self.state.warning_count = done.output.warnings.len();
+        self.computed = Some(done.output);
+        self.state.recompute = RecomputeStatus::Done {
+            elapsed_ms: done.elapsed_ms,
+        };
+    }
+
+    fn sync_worker_state(&mut self) {
+        match self.worker.state() {
+            WorkerState::Running | WorkerState::Waiting => {
+                self.state.recompute = RecomputeStatus::Running;
+            }
+            WorkerState::Stopped => self.state.recompute = RecomputeStatus::Stopped,
+            WorkerState::Idle => {
+                if self.document.is_none() {
+                    self.state.recompute = RecomputeStatus::NothingToCompute;
+                }
+            }
+        }
+    }
+
+    fn poll_worker(&mut self, ctx: &egui::Context) {
+        let now = Instant::now();
+        if let Some(done) = self.worker.poll(now) {
+            self.take_results(done);
+        }
+        self.sync_worker_state();
+        if let Some(wait) = self.worker.next_poll_in(now) {
+            ctx.request_repaint_after(wait.max(Duration::from_millis(5)));
+        }
+    }
+
     fn save_state(&self) -> SaveState {
-        SaveState::NoProject
+        match &self.document {
+            None => SaveState::NoProject,
+            Some(d) if !d.has_file() => SaveState::NotSaved,
+            Some(d) if d.is_dirty() => SaveState::Unsaved,
+            Some(_) => SaveState::Saved,
+        }
     }
 
     /// Draws one frame of the whole window, then applies the frame's commands.
     pub fn ui(&mut self, ui: &mut Ui) {
         self.shortcuts(ui);
         self.receive_images();
+        self.poll_worker(ui.ctx());
         let mut commands = std::mem::take(&mut self.commands);
         let project_open = self.project_open();
+        let project = self.document.as_ref().map(|d| &d.project);
 
         egui::Panel::top("menu").show(ui, |ui| {
             let info = MenuInfo {
                 project_open,
-                undo: None,
-                redo: None,
+                undo: self.history.undo_label(),
+                redo: self.history.redo_label(),
             };
             menu::ui(ui, &self.state, info, &mut commands);
         });
@@ -148,7 +246,7 @@ impl OfftakeApp {
                 .default_size(260.0)
                 .show(ui, |ui| {
                     egui::ScrollArea::vertical().show(ui, |ui| {
-                        tree::ui(ui, project_open, &mut commands);
+                        tree::ui(ui, project, &self.state.selection, &mut commands);
                     });
                 });
         }
@@ -158,11 +256,17 @@ impl OfftakeApp {
                 .default_size(300.0)
                 .show(ui, |ui| {
                     egui::ScrollArea::vertical().show(ui, |ui| {
-                        inspector::ui(ui, project_open, &mut commands);
+                        inspector::ui(ui, project, &self.state.selection, &mut commands);
                     });
                 });
         }
         egui::CentralPanel::default().show(ui, |ui| {
+            if let Some(p) = project {
+                ui.label(format!(
+                    "Selection: {}",
+                    tree::breadcrumb(p, &self.state.selection).join(" › ")
+                ));
+            }
             let view = View {
                 project_open,
                 computed: self.computed.as_ref(),
@@ -170,6 +274,7 @@ impl OfftakeApp {
             self.tabs.ui(ui, self.state.tab, &view, &mut commands);
         });
         self.help_windows(ui.ctx());
+        self.discard_guard(ui.ctx());
 
         commands.append(&mut self.commands);
         if !commands.is_empty() {
@@ -229,26 +334,221 @@ impl OfftakeApp {
     pub fn apply(&mut self, command: Command, ctx: &egui::Context) {
         match command {
             Command::SelectTab(tab) => self.state.tab = tab,
+            Command::Select(sel) => self.state.selection = sel,
             Command::ShowHelp(which) => self.state.help.open(which),
             Command::TogglePanel(kind) => self.state.panels.toggle(kind),
-            Command::Undo => self.state.message = Some("Nothing to undo".to_owned()),
-            Command::Redo => self.state.message = Some("Nothing to redo".to_owned()),
-            Command::DeleteSelected => {
-                self.state.message = Some("Nothing selected to delete".to_owned());
+            Command::Edit(edit) => self.edit(edit),
+            Command::Undo => self.undo(),
+            Command::Redo => self.redo(),
+            Command::DeleteSelected => match &self.state.selection {
+                Selection::Item(item) => {
+                    let item = item.clone();
+                    self.edit(DocEdit::Remove(item));
+                }
+                _ => {
+                    self.state.message =
+                        Some("Select a canal, block or planting to delete".to_owned())
+                }
+            },
+            Command::NewProject | Command::OpenProject | Command::OpenRecent(_)
+                if self.document.as_ref().is_some_and(OpenDocument::is_dirty) =>
+            {
+                self.state.confirm_discard = Some(Discard::Command(Box::new(command)));
             }
-            Command::NewProject
-            | Command::OpenProject
-            | Command::OpenRecent(_)
-            | Command::Save
-            | Command::SaveAs
-            | Command::ImportWeather
-            | Command::ExportWorkbook => {
-                self.state.message = Some("No project document in this build yet".to_owned());
+            Command::NewProject | Command::OpenProject | Command::OpenRecent(_) => {
+                self.replace_document(command);
             }
+            Command::Save => match self.document.as_ref().and_then(|d| d.path.clone()) {
+                Some(path) => self.save_to(&path),
+                None => self.apply(Command::SaveAs, ctx),
+            },
+            Command::SaveAs => {
+                if self.document.is_some()
+                    && let Some(path) = self.pick_file(true, "project.ron")
+                {
+                    self.save_to(&path);
+                }
+            }
+            Command::ImportWeather | Command::ExportWorkbook => {
+                self.state.message = Some(
+                    "Weather import and workbook export are not available in this build yet"
+                        .to_owned(),
+                );
+            }
+            Command::DiscardAndRun(inner) => self.replace_document(*inner),
             Command::ExportPlotCsv { file_name, csv } => self.export_csv(&file_name, &csv),
             Command::ExportPlotImage { file_name, rect } => {
                 self.request_plot_image(ctx, file_name, rect);
             }
+        }
+    }
+
+    /// New, Open or Open recent, without asking about unsaved changes.
+    fn replace_document(&mut self, command: Command) {
+        match command {
+            Command::NewProject => self.new_project(),
+            Command::OpenProject => {
+                if let Some(path) = self.pick_file(false, "project.ron") {
+                    self.open_file(&path);
+                }
+            }
+            Command::OpenRecent(path) => self.open_file(&path),
+            other => self.state.message = Some(format!("Unexpected command {other:?}")),
+        }
+    }
+
+    fn new_project(&mut self) {
+        self.set_document(OpenDocument::new(Project::default()));
+        self.state.message = Some("New project".to_owned());
+    }
+
+    /// Opens a project file; a bad file leaves the open project as it was
+    /// and reports the file, line and column of the problem.
+    pub fn open_file(&mut self, path: &std::path::Path) {
+        match offtake_io::project_file::load_project(path) {
+            Ok(project) => {
+                self.set_document(OpenDocument::opened(project, path.to_path_buf()));
+                self.remember_recent(path);
+                self.state.message = Some(format!("Opened {}", path.display()));
+            }
+            Err(e) => self.state.message = Some(format!("Could not open: {e}")),
+        }
+    }
+
+    /// Saves the project to `path` (atomic; an invalid project is saved too,
+    /// so nothing is lost, and its problems stay listed).
+    pub fn save_to(&mut self, path: &std::path::Path) {
+        let Some(doc) = self.document.as_mut() else {
+            return;
+        };
+        match offtake_io::project_file::save_project(path, &doc.project) {
+            Ok(()) => {
+                doc.mark_saved(path.to_path_buf());
+                self.remember_recent(path);
+                self.state.message = Some(format!("Saved {}", path.display()));
+            }
+            Err(e) => self.state.message = Some(format!("Could not save: {e}")),
+        }
+    }
+
+    fn remember_recent(&mut self, path: &std::path::Path) {
+        self.state.recent.retain(|p| p != path);
+        self.state.recent.insert(0, path.to_path_buf());
+        self.state.recent.truncate(10);
+    }
+
+    fn pick_file(&mut self, save: bool, suggested: &str) -> Option<std::path::PathBuf> {
+        if !self.dialogs {
+            self.state.message = Some("File dialogs are off".to_owned());
+            return None;
+        }
+        let dialog = rfd::FileDialog::new().add_filter("Offtake project", &["ron"]);
+        if save {
+            dialog.set_file_name(suggested).save_file()
+        } else {
+            dialog.pick_file()
+        }
+    }
+
+    /// The "discard unsaved changes?" window and the close guard.
+    fn discard_guard(&mut self, ctx: &egui::Context) {
+        let dirty = self.document.as_ref().is_some_and(OpenDocument::is_dirty);
+        if ctx.input(|i| i.viewport().close_requested()) && dirty && !self.closing {
+            ctx.send_viewport_cmd(egui::ViewportCommand::CancelClose);
+            self.state.confirm_discard = Some(Discard::Close);
+        }
+        let Some(pending) = self.state.confirm_discard.clone() else {
+            return;
+        };
+        let mut answer = None;
+        egui::Window::new("Unsaved changes")
+            .collapsible(false)
+            .resizable(false)
+            .show(ctx, |ui| {
+                ui.label("The project has changes that are not saved. Discard them?");
+                ui.horizontal(|ui| {
+                    if ui.button("Discard changes").clicked() {
+                        answer = Some(true);
+                    }
+                    if ui.button("Cancel").clicked() {
+                        answer = Some(false);
+                    }
+                });
+            });
+        match answer {
+            Some(true) => {
+                self.state.confirm_discard = None;
+                match pending {
+                    Discard::Close => {
+                        self.closing = true;
+                        ctx.send_viewport_cmd(egui::ViewportCommand::Close);
+                    }
+                    Discard::Command(cmd) => self.commands.push(Command::DiscardAndRun(cmd)),
+                }
+            }
+            Some(false) => self.state.confirm_discard = None,
+            None => {}
+        }
+    }
+
+    fn edit(&mut self, edit: DocEdit) {
+        let Some(doc) = self.document.as_mut() else {
+            self.state.message = Some("No project open".to_owned());
+            return;
+        };
+        let removed = match &edit {
+            DocEdit::Remove(item) => Some(item.clone()),
+            _ => None,
+        };
+        match self.history.apply(edit, &mut doc.project) {
+            Ok(()) => {
+                if removed.is_some_and(|r| self.state.selection == Selection::Item(r)) {
+                    self.state.selection = Selection::Scheme;
+                }
+                self.state.message = None;
+                self.request_recompute();
+            }
+            Err(e) => self.state.message = Some(format!("Could not apply the edit: {e}")),
+        }
+    }
+
+    fn undo(&mut self) {
+        let Some(doc) = self.document.as_mut() else {
+            return;
+        };
+        self.state.message = Some(match self.history.undo(&mut doc.project) {
+            None => "Nothing to undo".to_owned(),
+            Some(Ok(label)) => format!("Undid {label}"),
+            Some(Err(e)) => format!("Could not undo: {e}"),
+        });
+        self.fix_selection();
+        self.request_recompute();
+    }
+
+    fn redo(&mut self) {
+        let Some(doc) = self.document.as_mut() else {
+            return;
+        };
+        self.state.message = Some(match self.history.redo(&mut doc.project) {
+            None => "Nothing to redo".to_owned(),
+            Some(Ok(label)) => format!("Redid {label}"),
+            Some(Err(e)) => format!("Could not redo: {e}"),
+        });
+        self.fix_selection();
+        self.request_recompute();
+    }
+
+    /// Falls back to the scheme when the selected item is gone.
+    fn fix_selection(&mut self) {
+        let Some(p) = self.project() else { return };
+        let exists = match &self.state.selection {
+            Selection::Item(ItemRef::Canal(id)) => p.canal(id).is_some(),
+            Selection::Item(ItemRef::Block(id)) => p.block(id).is_some(),
+            Selection::Item(ItemRef::Planting(id)) => p.planting(id).is_some(),
+            _ => true,
+        };
+        if !exists {
+            self.state.selection = Selection::Scheme;
         }
     }
 

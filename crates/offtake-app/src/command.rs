@@ -53,6 +53,33 @@ impl Tab {
     }
 }
 
+/// A reference to a scheme-tree item by its stable id.
+#[derive(Debug, Clone, PartialEq, Eq, Hash)]
+pub enum ItemRef {
+    /// A canal.
+    Canal(String),
+    /// A block.
+    Block(String),
+    /// A planting.
+    Planting(String),
+}
+
+/// What is selected in the scheme tree (the inspector shows it).
+#[derive(Debug, Clone, PartialEq, Eq, Hash, Default)]
+pub enum Selection {
+    /// Nothing.
+    #[default]
+    None,
+    /// The scheme itself (name, notes).
+    Scheme,
+    /// A canal, block or planting.
+    Item(ItemRef),
+    /// The weather source.
+    Weather,
+    /// The computation options.
+    Options,
+}
+
 /// The help windows.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum HelpWindow {
@@ -80,6 +107,10 @@ pub enum PanelKind {
 pub enum Command {
     /// Show a workspace tab.
     SelectTab(Tab),
+    /// Select a tree item (the inspector shows it).
+    Select(Selection),
+    /// Change the document (undoable).
+    Edit(crate::edit::DocEdit),
     /// Open a help window.
     ShowHelp(HelpWindow),
     /// Show or hide a panel.
@@ -118,4 +149,6 @@ pub enum Command {
     Redo,
     /// Delete the selected tree item (undoable).
     DeleteSelected,
+    /// Run a command after the user agreed to discard unsaved changes.
+    DiscardAndRun(Box<Command>),
 }

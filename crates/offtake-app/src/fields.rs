@@ -236,3 +236,55 @@ mod tests {
         assert_eq!(format_number(-0.0001, 2), "0");
     }
 }
+
+/// Parses a day of the year written `MM-DD` (04-15); 29 February is refused
+/// because a cropping plan must exist in every year.
+///
+/// # Errors
+/// A message naming the expected form.
+pub fn parse_month_day(text: &str) -> Result<(u32, u32), String> {
+    let bad = || {
+        format!(
+            "“{}” is not a day of the year; write it as MM-DD, e.g. 04-15 (29 February is not allowed)",
+            text.trim()
+        )
+    };
+    let (m, d) = text.trim().split_once('-').ok_or_else(bad)?;
+    let month: u32 = m.trim().parse().map_err(|_| bad())?;
+    let day: u32 = d.trim().parse().map_err(|_| bad())?;
+    // 2001 is not a leap year.
+    NaiveDate::from_ymd_opt(2001, month, day).ok_or_else(bad)?;
+    Ok((month, day))
+}
+
+/// A day-of-year field (`MM-DD`) for dates that repeat every year.
+pub fn date_free_month_day(
+    ui: &mut Ui,
+    id: Id,
+    label: &str,
+    stored: (u32, u32),
+) -> FieldOutcome<(u32, u32)> {
+    let shown = format!("{:02}-{:02}", stored.0, stored.1);
+    let (response, text) = text_box(ui, id, label, "(MM-DD, every year)", &shown);
+    let parsed = parse_month_day(&text);
+    let error = parsed.as_ref().err().cloned();
+    error_line(ui, error.as_ref());
+    let committed = match parsed {
+        Ok(md) if response.lost_focus() && md != stored => Some(md),
+        _ => None,
+    };
+    FieldOutcome { committed, error }
+}
+
+#[cfg(test)]
+mod month_day_tests {
+    use super::parse_month_day;
+
+    #[test]
+    fn month_day_parses_and_refuses_leap_day() {
+        assert_eq!(parse_month_day("04-15"), Ok((4, 15)));
+        assert!(parse_month_day("02-29").is_err());
+        assert!(parse_month_day("13-01").is_err());
+        assert!(parse_month_day("April").is_err());
+    }
+}

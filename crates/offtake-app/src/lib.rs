@@ -18,6 +18,8 @@
 pub mod app;
 pub mod command;
 pub mod compute;
+pub mod document;
+pub mod edit;
 pub mod fields;
 pub mod help;
 pub mod history;

@@ -4,7 +4,7 @@
 
 use std::path::PathBuf;
 
-use crate::command::{HelpWindow, PanelKind, Tab};
+use crate::command::{HelpWindow, PanelKind, Selection, Tab};
 
 /// Which help windows are open.
 #[derive(Debug, Clone, Copy, Default, PartialEq, Eq)]
@@ -77,11 +77,22 @@ pub enum RecomputeStatus {
     Stopped,
 }
 
+/// What waits for the user to agree to discard unsaved changes.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Discard {
+    /// Closing the window.
+    Close,
+    /// New, Open or Open recent.
+    Command(Box<crate::command::Command>),
+}
+
 /// The session state beside the document.
 #[derive(Debug, Clone, PartialEq)]
 pub struct RuntimeState {
     /// The workspace tab shown in the centre.
     pub tab: Tab,
+    /// The selected tree item.
+    pub selection: Selection,
     /// Open help windows.
     pub help: HelpWindows,
     /// Shown panels.
@@ -94,18 +105,22 @@ pub struct RuntimeState {
     pub recompute: RecomputeStatus,
     /// Number of data warnings in the last results.
     pub warning_count: usize,
+    /// A pending "discard unsaved changes?" question.
+    pub confirm_discard: Option<Discard>,
 }
 
 impl Default for RuntimeState {
     fn default() -> Self {
         Self {
             tab: Tab::default(),
+            selection: Selection::default(),
             help: HelpWindows::default(),
             panels: Panels::default(),
             message: None,
             recent: Vec::new(),
             recompute: RecomputeStatus::NothingToCompute,
             warning_count: 0,
+            confirm_discard: None,
         }
     }
 }

@@ -39,7 +39,7 @@ pub fn ui(ui: &mut Ui, state: &RuntimeState, save: SaveState, commands: &mut Vec
                 ui.label("Nothing to compute");
             }
             RecomputeStatus::Running => {
-                ui.spinner();
+                spinner(ui);
                 ui.label("recomputing…");
             }
             RecomputeStatus::Done { elapsed_ms } => {
@@ -74,4 +74,22 @@ pub fn ui(ui: &mut Ui, state: &RuntimeState, save: SaveState, commands: &mut Vec
             commands.push(Command::ShowHelp(HelpWindow::Cautions));
         }
     });
+}
+
+/// A small rotating spinner that repaints at 20 Hz rather than every frame,
+/// so it costs little and headless tests settle.
+fn spinner(ui: &mut Ui) {
+    let size = ui.spacing().interact_size.y * 0.7;
+    let (rect, _) = ui.allocate_exact_size(egui::vec2(size, size), egui::Sense::hover());
+    let t = ui.input(|i| i.time);
+    let angle = (t * std::f64::consts::TAU) as f32;
+    let c = rect.center();
+    let r = size * 0.45;
+    let stroke = egui::Stroke::new(2.0, ui.visuals().strong_text_color());
+    ui.painter()
+        .circle_stroke(c, r, ui.visuals().widgets.noninteractive.bg_stroke);
+    ui.painter()
+        .line_segment([c, c + r * egui::vec2(angle.cos(), angle.sin())], stroke);
+    ui.ctx()
+        .request_repaint_after(std::time::Duration::from_millis(50));
 }

@@ -1,0 +1,266 @@
+//! Headless tests of editing the scheme: tree, inspector, undo/redo, files.
+//!
+//! The scheme below is invented for the tests (no real place or scheme).
+
+use std::time::Duration;
+
+use egui::{Key, Modifiers};
+use egui_kittest::Harness;
+use egui_kittest::kittest::Queryable;
+use offtake_app::OfftakeApp;
+use offtake_app::command::{Command, ItemRef, Selection};
+use offtake_app::edit;
+use offtake_core::project::{Block, Canal, CanalKind, IrrigationMethod, Project, SchemeInfo};
+
+/// An invented two-canal scheme: a main canal with one branch, one block on each.
+fn invented_scheme() -> Project {
+    let canal = |id: &str, name: &str, parent: Option<&str>, kind| Canal {
+        id: id.into(),
+        name: name.into(),
+        parent: parent.map(Into::into),
+        kind,
+        conveyance_efficiency: 0.9,
+        existing_capacity_m3s: None,
+        operating_hours_per_day: 24.0,
+    };
+    let block = |id: &str, name: &str, canal: &str, area_ha| Block {
+        id: id.into(),
+        name: name.into(),
+        canal: canal.into(),
+        area_ha,
+        soil: "loam".into(),
+        method: IrrigationMethod {
+            name: "furrow".into(),
+            application_efficiency: 0.6,
+        },
+        field_canal_efficiency: 0.85,
+    };
+    Project {
+        scheme: SchemeInfo {
+            name: "Test Flats (invented)".into(),
+            notes: String::new(),
+        },
+        canals: vec![
+            canal("main", "Main canal", None, CanalKind::Main),
+            canal("east", "East branch", Some("main"), CanalKind::Branch),
+        ],
+        blocks: vec![
+            block("b1", "Block M1", "main", 120.0),
+            block("b2", "Block E1", "east", 80.0),
+        ],
+        ..Project::default()
+    }
+}
+
+fn harness_with(project: Option<Project>) -> Harness<'static, OfftakeApp> {
+    let mut app = OfftakeApp::new().without_dialogs();
+    if let Some(p) = project {
+        app.open_project(p);
+        app.wait_for_recompute(Duration::from_secs(10));
+    }
+    Harness::builder()
+        .with_size(egui::vec2(1400.0, 900.0))
+        .build_ui_state(|ui, app: &mut OfftakeApp| app.ui(ui), app)
+}
+
+/// Runs frames, lets the worker finish, runs again to show its results.
+fn settle(h: &mut Harness<'static, OfftakeApp>) {
+    h.run();
+    h.state_mut().wait_for_recompute(Duration::from_secs(10));
+    h.run();
+}
+
+fn scheme_area(h: &Harness<'static, OfftakeApp>) -> f64 {
+    h.state().computed.as_ref().expect("results").scheme_area_ha
+}
+
+#[test]
+fn file_new_gives_an_empty_scheme_with_next_step() {
+    let mut h = harness_with(None);
+    h.run();
+    h.get_by_label("File").click();
+    h.run();
+    h.get_by_label("New").click();
+    settle(&mut h);
+    assert!(h.state().document.is_some());
+    h.get_by_label("(unnamed scheme)");
+    h.get_by_label("Not saved yet");
+    h.get_by_label_contains("No canals yet");
+    h.get_by_label_contains("No weather yet — File › Import weather…");
+}
+
+#[test]
+fn tree_shows_canals_and_blocks_and_selection_fills_inspector_and_breadcrumb() {
+    let mut h = harness_with(Some(invented_scheme()));
+    settle(&mut h);
+    h.get_by_label("Main canal (main)");
+    h.get_by_label("East branch (branch)");
+    h.get_by_label("Block E1 — 80 ha").click();
+    h.run();
+    assert_eq!(
+        h.state().state.selection,
+        Selection::Item(ItemRef::Block("b2".into()))
+    );
+    h.get_by_label("Selection: Test Flats (invented) › Main canal › East branch › Block E1");
+    h.get_by_label("Application efficiency Ea");
+    h.get_by_label("Field-canal efficiency Eb");
+    // The worker summed the blocks: 120 + 80 ha.
+    assert!((scheme_area(&h) - 200.0).abs() < 1e-9);
+    h.get_by_label_contains("recomputed in");
+}
+
+#[test]
+fn add_block_then_undo_restores_totals_and_redo_reapplies() {
+    let mut h = harness_with(Some(invented_scheme()));
+    settle(&mut h);
+    let before = scheme_area(&h);
+    let mut b = edit::new_block(h.state().project().expect("project"), "east");
+    b.area_ha = 45.0;
+    h.state_mut().push(Command::Edit(edit::add_block(b)));
+    settle(&mut h);
+    assert!((scheme_area(&h) - (before + 45.0)).abs() < 1e-9);
+    h.get_by_label("Not saved yet");
+
+    h.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+    settle(&mut h);
+    assert!((scheme_area(&h) - before).abs() < 1e-9);
+    assert_eq!(h.state().project().expect("project").blocks.len(), 2);
+
+    h.key_press_modifiers(Modifiers::COMMAND | Modifiers::SHIFT, Key::Z);
+    settle(&mut h);
+    assert!((scheme_area(&h) - (before + 45.0)).abs() < 1e-9);
+}
+
+#[test]
+fn delete_key_removes_a_canal_with_its_blocks_and_undo_puts_them_back() {
+    let original = invented_scheme();
+    let mut h = harness_with(Some(original.clone()));
+    settle(&mut h);
+    h.get_by_label("East branch (branch)").click();
+    h.run();
+    h.key_press(Key::Delete);
+    settle(&mut h);
+    let p = h.state().project().expect("project");
+    assert!(p.canal("east").is_none());
+    assert!(
+        p.block("b2").is_none(),
+        "the block on the branch goes with it"
+    );
+    assert!((scheme_area(&h) - 120.0).abs() < 1e-9);
+    h.get_by_label("Edit").click();
+    h.run();
+    h.get_by_label("Undo delete canal east Ctrl+Z").click();
+    settle(&mut h);
+    assert_eq!(
+        h.state().project(),
+        Some(&original),
+        "undo restores the exact document"
+    );
+}
+
+#[test]
+fn invalid_efficiency_shows_reason_and_range_and_is_kept() {
+    let mut h = harness_with(Some(invented_scheme()));
+    settle(&mut h);
+    h.get_by_label("Block M1 — 120 ha").click();
+    h.run();
+    let field = h.get_by_label("Application efficiency Ea");
+    field.focus();
+    h.run();
+    h.key_press_modifiers(Modifiers::COMMAND, Key::A);
+    h.get_by_label("Application efficiency Ea").type_text("150");
+    h.run();
+    h.get_by_label("Application efficiency must be between 1 % and 100 %");
+    h.key_press(Key::Enter);
+    settle(&mut h);
+    // Kept in the document, not silently replaced, and still shown with its error.
+    let b = h
+        .state()
+        .project()
+        .expect("project")
+        .block("b1")
+        .expect("block");
+    assert!((b.method.application_efficiency - 1.5).abs() < 1e-12);
+    h.get_by_label("Application efficiency must be between 1 % and 100 %");
+    // The project is still open and the edit can be undone.
+    h.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+    settle(&mut h);
+    let b = h
+        .state()
+        .project()
+        .expect("project")
+        .block("b1")
+        .expect("block");
+    assert!((b.method.application_efficiency - 0.6).abs() < 1e-12);
+}
+
+#[test]
+fn rename_scheme_in_inspector_is_one_undo_step() {
+    let mut h = harness_with(Some(invented_scheme()));
+    settle(&mut h);
+    h.get_by_label("Test Flats (invented)").click();
+    h.run();
+    h.get_by_label("Scheme name").focus();
+    h.run();
+    h.key_press_modifiers(Modifiers::COMMAND, Key::A);
+    h.get_by_label("Scheme name").type_text("Renamed Flats");
+    h.key_press(Key::Enter);
+    settle(&mut h);
+    assert_eq!(h.state().project().expect("p").scheme.name, "Renamed Flats");
+    assert_eq!(h.state().history.undo_len(), 1);
+    h.state_mut().push(Command::Undo);
+    settle(&mut h);
+    assert_eq!(
+        h.state().project().expect("p").scheme.name,
+        "Test Flats (invented)"
+    );
+}
+
+#[test]
+fn save_then_open_round_trips() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let path = dir.path().join("flats.ron");
+    let mut h = harness_with(Some(invented_scheme()));
+    settle(&mut h);
+    h.state_mut().save_to(&path);
+    h.run();
+    h.get_by_label("Saved");
+    let saved = h.state().project().cloned();
+
+    let mut h2 = harness_with(None);
+    h2.state_mut().open_file(&path);
+    settle(&mut h2);
+    assert_eq!(h2.state().project().cloned(), saved);
+    assert_eq!(h2.state().state.recent.first(), Some(&path));
+    h2.get_by_label("Saved");
+}
+
+#[test]
+fn opening_a_bad_file_reports_it_and_keeps_the_open_project() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let path = dir.path().join("broken.ron");
+    std::fs::write(&path, "(schema: 1, scheme: (name: \"x\"").expect("write");
+    let mut h = harness_with(Some(invented_scheme()));
+    settle(&mut h);
+    h.state_mut().open_file(&path);
+    h.run();
+    assert_eq!(h.state().project(), Some(&invented_scheme()));
+    h.get_by_label_contains("Could not open");
+}
+
+#[test]
+fn new_with_unsaved_changes_asks_first() {
+    let mut h = harness_with(Some(invented_scheme()));
+    settle(&mut h);
+    h.state_mut().push(Command::NewProject);
+    h.run();
+    h.get_by_label_contains("not saved. Discard them?");
+    h.get_by_label("Cancel").click();
+    h.run();
+    assert_eq!(h.state().project(), Some(&invented_scheme()));
+    h.state_mut().push(Command::NewProject);
+    h.run();
+    h.get_by_label("Discard changes").click();
+    settle(&mut h);
+    assert_eq!(h.state().project(), Some(&Project::default()));
+}
