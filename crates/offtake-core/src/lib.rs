@@ -12,5 +12,15 @@
 //! Results are planning estimates: canal and structure designs must be checked
 //! by a qualified engineer against local codes and measured data.
 
+pub mod calendar;
+pub mod climate_stats;
+pub mod crop;
+pub mod et0;
+pub mod openwater;
+pub mod project;
+pub mod salinity;
+pub mod soil;
+pub mod stats;
 pub mod units;
 pub mod weather;
+pub mod weather_gen;

@@ -1,0 +1,526 @@
+//! The project document: one irrigation scheme, its canal tree, blocks,
+//! cropping plan, weather source, options and scenarios.
+//!
+//! This is the saved state of the desktop app and the input of `offtake run`.
+//! It is plain serde data (no runtime handles), cheap enough to clone for an
+//! undo stack (a scheme of a few hundred blocks is a few tens of kilobytes),
+//! and compared with `PartialEq` to know whether there are unsaved changes.
+//!
+//! Cross references use stable string ids (`Canal::id`, `Block::id`,
+//! `Planting::id`), never indices, so that editing one list never silently
+//! re-points another.
+//!
+//! A cropping plan applies to **every year** of the weather record: a
+//! planting's first planting date is a month and a day ([`MonthDay`]), and the
+//! same planting is simulated in each irrigation year of the series.
+//!
+//! Reading and writing files (RON, schema migration, atomic save) lives in
+//! `offtake-io`; this module only holds the types, the tree helpers
+//! ([`tree`]), whole-project validation ([`validate`]) and scenario
+//! application ([`scenario`]).
+
+pub mod scenario;
+pub mod tree;
+pub mod validate;
+
+use chrono::{Datelike, NaiveDate};
+use serde::{Deserialize, Serialize};
+
+pub use scenario::{Override, Scenario, ScenarioError, WeatherPerturbation};
+pub use validate::{CropSeasonLengths, ItemKind, ValidationContext, ValidationProblem};
+
+/// The schema version this build writes. Files with a lower version are
+/// migrated on load; files with a higher version are refused.
+pub const CURRENT_SCHEMA: u32 = 1;
+
+/// A whole project: what `offtake run` computes and what the app saves.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Project {
+    /// File schema version ([`CURRENT_SCHEMA`] for documents built in memory).
+    pub schema: u32,
+    /// Name and notes of the scheme.
+    pub scheme: SchemeInfo,
+    /// The canal tree, as a flat list with parent links (roots take water
+    /// directly from the headworks).
+    pub canals: Vec<Canal>,
+    /// Blocks: the area served by one outlet on a canal.
+    pub blocks: Vec<Block>,
+    /// The cropping plan of the base case.
+    pub plantings: Vec<Planting>,
+    /// Where the daily weather comes from and where it was measured.
+    pub weather: WeatherSource,
+    /// Storage reservoir feeding the scheme, if any (its open-water
+    /// evaporation is reported beside the headworks demand).
+    #[serde(default)]
+    pub reservoir: Option<Reservoir>,
+    /// Computation and reporting options.
+    pub options: Options,
+    /// Named alternatives to the base case.
+    #[serde(default)]
+    pub scenarios: Vec<Scenario>,
+}
+
+impl Default for Project {
+    /// An empty project of the current schema, for "File → New".
+    fn default() -> Self {
+        Self {
+            schema: CURRENT_SCHEMA,
+            scheme: SchemeInfo::default(),
+            canals: Vec::new(),
+            blocks: Vec::new(),
+            plantings: Vec::new(),
+            weather: WeatherSource::default(),
+            reservoir: None,
+            options: Options::default(),
+            scenarios: Vec::new(),
+        }
+    }
+}
+
+/// Name and free notes of a scheme.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct SchemeInfo {
+    /// Scheme name shown in titles and reports.
+    pub name: String,
+    /// Free text (source of data, assumptions, caveats).
+    #[serde(default)]
+    pub notes: String,
+}
+
+/// The role of a canal in the tree (for display and defaults; the
+/// computation treats every canal the same way).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
+pub enum CanalKind {
+    /// Main canal, taking water at the headworks.
+    Main,
+    /// Branch canal off a main canal.
+    Branch,
+    /// Distributary feeding minors or block outlets.
+    Distributary,
+    /// Minor (tertiary) canal feeding block outlets.
+    Minor,
+}
+
+impl CanalKind {
+    /// Lower-case label used in reports.
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::Main => "main",
+            Self::Branch => "branch",
+            Self::Distributary => "distributary",
+            Self::Minor => "minor",
+        }
+    }
+}
+
+/// One canal reach: a node of the canal tree.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Canal {
+    /// Stable id used by blocks, children and scenarios.
+    pub id: String,
+    /// Display name.
+    pub name: String,
+    /// Id of the canal this one takes water from; `None` for a canal taking
+    /// water at the headworks.
+    #[serde(default)]
+    pub parent: Option<String>,
+    /// Role in the tree.
+    pub kind: CanalKind,
+    /// Conveyance efficiency Ec of this reach (fraction, in (0, 1]): water
+    /// delivered to the children ÷ water entering the reach.
+    pub conveyance_efficiency: f64,
+    /// Existing capacity of the reach in m³/s, if known.
+    #[serde(default)]
+    pub existing_capacity_m3s: Option<f64>,
+    /// Hours per day the canal runs, in (0, 24]. Required capacity =
+    /// design flow × 24 ÷ hours.
+    pub operating_hours_per_day: f64,
+}
+
+/// The irrigation method of a block and its field application efficiency.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct IrrigationMethod {
+    /// Method name (free text, e.g. "furrow", "basin", "sprinkler").
+    pub name: String,
+    /// Field application efficiency Ea (fraction, in (0, 1]): water stored
+    /// in the root zone ÷ water delivered to the field.
+    pub application_efficiency: f64,
+}
+
+/// The area served by one outlet.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Block {
+    /// Stable id used by plantings and scenarios.
+    pub id: String,
+    /// Display name.
+    pub name: String,
+    /// Id of the canal the block's outlet takes from.
+    pub canal: String,
+    /// Irrigable area of the block in hectares.
+    pub area_ha: f64,
+    /// Soil id in the soil library (e.g. "loam").
+    pub soil: String,
+    /// Irrigation method and its application efficiency Ea.
+    pub method: IrrigationMethod,
+    /// Field-canal efficiency Eb (fraction, in (0, 1]): water at the field
+    /// inlets ÷ water at the block outlet.
+    pub field_canal_efficiency: f64,
+}
+
+/// How much of a block a planting covers.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub enum PlantingArea {
+    /// An absolute area in hectares.
+    Hectares(f64),
+    /// A share of the block's area, in percent (0–100).
+    PercentOfBlock(f64),
+}
+
+impl PlantingArea {
+    /// The area in hectares on a block of `block_area_ha`.
+    pub fn hectares(self, block_area_ha: f64) -> f64 {
+        match self {
+            Self::Hectares(ha) => ha,
+            Self::PercentOfBlock(pct) => block_area_ha * pct / 100.0,
+        }
+    }
+}
+
+/// A day of the year without a year: the cropping plan repeats every year of
+/// the weather record.
+///
+/// 29 February is not allowed (the plan must exist in every year).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct MonthDay {
+    /// Month, 1–12.
+    pub month: u32,
+    /// Day of the month, 1–31 (28 for February).
+    pub day: u32,
+}
+
+impl MonthDay {
+    /// A month-day, or `None` if it does not exist in every year
+    /// (e.g. 31 April or 29 February).
+    pub fn new(month: u32, day: u32) -> Option<Self> {
+        let md = Self { month, day };
+        md.is_valid().then_some(md)
+    }
+
+    /// Whether this month-day exists in every year.
+    pub fn is_valid(self) -> bool {
+        // 2001 is not a leap year, so 29 February is rejected.
+        NaiveDate::from_ymd_opt(2001, self.month, self.day).is_some()
+    }
+
+    /// The date of this month-day in `year`, if valid.
+    pub fn in_year(self, year: i32) -> Option<NaiveDate> {
+        NaiveDate::from_ymd_opt(year, self.month, self.day)
+    }
+
+    /// Zero-based day of a 365-day (non-leap) year, if valid.
+    pub fn day_of_year0(self) -> Option<u32> {
+        NaiveDate::from_ymd_opt(2001, self.month, self.day).map(|d| d.ordinal0())
+    }
+}
+
+/// How irrigation is scheduled for a planting.
+///
+/// The balance module turns these into irrigation events; the document only
+/// stores the user's choice and its parameters.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub enum Strategy {
+    /// Irrigate back to field capacity when root-zone depletion reaches the
+    /// given share of readily available water (100 % = at RAW, no stress).
+    Refill {
+        /// Trigger as percent of RAW (0 < x ≤ 100 for no stress).
+        trigger_pct_of_raw: f64,
+    },
+    /// Refill to field capacity every `days` days.
+    Interval {
+        /// Days between irrigations (≥ 1).
+        days: u32,
+    },
+    /// Apply a fixed net depth whenever depletion reaches RAW.
+    Depth {
+        /// Net depth applied per irrigation in mm (> 0).
+        net_mm: f64,
+    },
+    /// Deficit irrigation: let depletion reach a share of TAW beyond RAW,
+    /// then refill part of the depletion.
+    Deficit {
+        /// Depletion that triggers irrigation, as percent of TAW (0–100).
+        trigger_pct_of_taw: f64,
+        /// Share of the depletion replaced at each irrigation, percent (0–100].
+        refill_pct_of_depletion: f64,
+    },
+    /// No irrigation: the requirement is reported as zero and the balance
+    /// shows the stress.
+    Rainfed,
+}
+
+/// One crop on part of a block, planted every year over a window.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Planting {
+    /// Stable id used by scenarios.
+    pub id: String,
+    /// Id of the block the planting is on.
+    pub block: String,
+    /// Crop id in the crop library (e.g. "maize-grain").
+    pub crop: String,
+    /// Area planted.
+    pub area: PlantingArea,
+    /// First planting day of each year (the window opens here).
+    pub first_planting: MonthDay,
+    /// Days over which planting is spread uniformly (0 = all on the first
+    /// day). The last part is planted `spread_days − 1` days after the first.
+    pub spread_days: u32,
+    /// Season label (free text, e.g. "wet", "dry"); used to group results.
+    pub season: String,
+    /// Irrigation scheduling.
+    pub strategy: Strategy,
+    /// Override of the crop library's season length in days, if any.
+    #[serde(default)]
+    pub season_length_days: Option<u32>,
+}
+
+impl Planting {
+    /// Number of equal cohorts the spread divides the planting into
+    /// (one cohort per planting day; at least one).
+    pub fn cohort_count(&self) -> u32 {
+        self.spread_days.max(1)
+    }
+}
+
+/// A minimal serde form of the weather CSV column mapping (which source
+/// header holds which quantity, in which unit).
+///
+/// The weather importer owns the full mapping type; this document form keeps
+/// the user's choice in the project file until the two are reconciled.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct WeatherMapping {
+    /// One entry per mapped column.
+    pub columns: Vec<ColumnMap>,
+}
+
+/// One mapped weather column.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct ColumnMap {
+    /// Header in the source file.
+    pub source: String,
+    /// Our column name (`tmax_c`, `rain_mm`, …, see DESIGN.md).
+    pub target: String,
+    /// Unit of the source column (e.g. "degF", "in"), if not our unit.
+    #[serde(default)]
+    pub unit: Option<String>,
+}
+
+/// Where the weather series comes from and where it was measured.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct WeatherSource {
+    /// Path to the weather CSV, relative to the project file's folder
+    /// (absolute paths are kept as they are).
+    pub path: String,
+    /// Station latitude, decimal degrees, north positive.
+    pub latitude_deg: f64,
+    /// Station elevation above sea level in metres.
+    pub elevation_m: f64,
+    /// Height of the wind measurement above ground in metres.
+    pub wind_height_m: f64,
+    /// Column mapping for files that do not use our column names.
+    #[serde(default)]
+    pub mapping: Option<WeatherMapping>,
+}
+
+impl Default for WeatherSource {
+    fn default() -> Self {
+        Self {
+            path: String::new(),
+            latitude_deg: 0.0,
+            elevation_m: 0.0,
+            wind_height_m: 2.0,
+            mapping: None,
+        }
+    }
+}
+
+/// Open-water evaporation method for a storage reservoir.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+pub enum OpenWaterMethod {
+    /// Meyer (1915) mass-transfer formula.
+    Meyer,
+    /// Rohwer (1931) mass-transfer formula.
+    Rohwer,
+    /// Penman (1948) open-water combination equation.
+    Penman,
+}
+
+/// A storage reservoir feeding the scheme.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Reservoir {
+    /// Display name.
+    pub name: String,
+    /// Mean water surface area per month (January first), hectares.
+    pub surface_area_ha: [f64; 12],
+    /// Mean water surface temperature per month (°C); when absent the
+    /// air temperature stands in.
+    #[serde(default)]
+    pub water_temperature_c: Option<[f64; 12]>,
+    /// Evaporation method.
+    pub method: OpenWaterMethod,
+}
+
+/// How effective rainfall is obtained.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub enum EffectiveRain {
+    /// From the root-zone water balance (runoff and deep percolation).
+    WaterBalance,
+    /// USDA-SCS monthly method.
+    UsdaScs,
+    /// A fixed percentage of rainfall (0–100).
+    FixedPercent(f64),
+    /// Dependable rain at the design probability.
+    Dependable,
+}
+
+/// Time step of reported tables.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+pub enum ReportingStep {
+    /// Daily.
+    Daily,
+    /// 10-day periods (1–10, 11–20, 21–end).
+    TenDay,
+    /// Calendar months.
+    Monthly,
+}
+
+/// Period over which the yearly peak flow used for design is averaged.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+pub enum DesignBasis {
+    /// Peak 10-day mean flow (default).
+    TenDay,
+    /// Peak monthly mean flow (large schemes).
+    Monthly,
+    /// Peak daily flow (small continuous-flow schemes).
+    Daily,
+}
+
+/// Reference evapotranspiration method.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+pub enum Et0Method {
+    /// FAO-56 Penman–Monteith (default).
+    PenmanMonteith,
+    /// Hargreaves–Samani (1985).
+    Hargreaves,
+    /// ASCE-EWRI (2005) standardized short reference.
+    AsceShort,
+    /// ASCE-EWRI (2005) standardized tall reference.
+    AsceTall,
+}
+
+/// Flow available at a node, for the rotation roster.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub enum SupplyFlow {
+    /// The same flow every day, m³/s.
+    Constant(f64),
+    /// A flow per calendar month (January first), m³/s.
+    Monthly([f64; 12]),
+}
+
+/// Water available at a node when supply is short.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct AvailableSupply {
+    /// Node the supply is given at: a canal id, or `"headworks"`.
+    pub node: String,
+    /// The available flow.
+    pub flow: SupplyFlow,
+}
+
+/// Name of the virtual node above all root canals.
+pub const HEADWORKS: &str = "headworks";
+
+/// Computation and reporting options.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Options {
+    /// Reference ET method.
+    #[serde(default = "default_et0_method")]
+    pub et0_method: Et0Method,
+    /// Effective-rainfall method.
+    pub effective_rain: EffectiveRain,
+    /// Step of the reported tables.
+    pub reporting_step: ReportingStep,
+    /// First month of the irrigation year (1–12).
+    pub irrigation_year_start_month: u32,
+    /// Non-exceedance probability of the design flow, percent (default 80).
+    pub design_probability_pct: f64,
+    /// Averaging period of the yearly peaks used for design.
+    pub design_basis: DesignBasis,
+    /// Length of a full rotation cycle in days.
+    pub rotation_period_days: u32,
+    /// Available supply for the rotation roster; `None` = supply suffices.
+    #[serde(default)]
+    pub available_supply: Option<AvailableSupply>,
+}
+
+fn default_et0_method() -> Et0Method {
+    Et0Method::PenmanMonteith
+}
+
+impl Default for Options {
+    fn default() -> Self {
+        Self {
+            et0_method: Et0Method::PenmanMonteith,
+            effective_rain: EffectiveRain::WaterBalance,
+            reporting_step: ReportingStep::TenDay,
+            irrigation_year_start_month: 1,
+            design_probability_pct: 80.0,
+            design_basis: DesignBasis::TenDay,
+            rotation_period_days: 7,
+            available_supply: None,
+        }
+    }
+}
+
+impl Project {
+    /// The canal with this id.
+    pub fn canal(&self, id: &str) -> Option<&Canal> {
+        self.canals.iter().find(|c| c.id == id)
+    }
+
+    /// The block with this id.
+    pub fn block(&self, id: &str) -> Option<&Block> {
+        self.blocks.iter().find(|b| b.id == id)
+    }
+
+    /// The planting with this id.
+    pub fn planting(&self, id: &str) -> Option<&Planting> {
+        self.plantings.iter().find(|p| p.id == id)
+    }
+
+    /// The scenario with this name.
+    pub fn scenario(&self, name: &str) -> Option<&Scenario> {
+        self.scenarios.iter().find(|s| s.name == name)
+    }
+
+    /// A planting's area in hectares, or `None` if its block is missing.
+    pub fn planting_area_ha(&self, planting: &Planting) -> Option<f64> {
+        self.block(&planting.block)
+            .map(|b| planting.area.hectares(b.area_ha))
+    }
+}
+
+#[cfg(test)]
+mod tests;

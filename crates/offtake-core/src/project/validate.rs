@@ -1,0 +1,910 @@
+//! Whole-project validation: every problem listed, never a panic.
+//!
+//! [`Project::validate`] checks ids and cross references, the canal tree,
+//! ranges of efficiencies, areas and hours, planting windows, the occupancy
+//! of each block through the year, options, and every scenario. It needs two
+//! things the document does not hold: the season length of each crop (from
+//! the crop library, passed as a closure so this module does not depend on
+//! it) and the date range of the weather record.
+//!
+//! # Block occupancy
+//! A planting is planted in `max(spread_days, 1)` equal cohorts, one per day
+//! from its first planting day; each cohort occupies the land for the season
+//! length. Summing the cohorts of every planting on a block over a 365-day
+//! year (seasons may cross 31 December) gives the area in the field on each
+//! day; it must not exceed the block's area. Two seasons may therefore each
+//! use the whole block, as long as one is harvested before the next is
+//! planted.
+
+use std::collections::{HashMap, HashSet};
+use std::fmt;
+
+use chrono::{Datelike, NaiveDate};
+use thiserror::Error;
+
+use super::tree::TreeError;
+use super::{AvailableSupply, EffectiveRain, HEADWORKS, Planting, Project, Strategy, SupplyFlow};
+
+/// Days in the cropping-plan year used for the occupancy check.
+const PLAN_YEAR_DAYS: usize = 365;
+
+/// Relative tolerance for area sums (floating-point rounding of percents).
+const AREA_TOLERANCE: f64 = 1e-9;
+
+/// Kind of an item that carries an id.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+pub enum ItemKind {
+    /// A canal.
+    Canal,
+    /// A block.
+    Block,
+    /// A planting.
+    Planting,
+    /// A scenario (its name is its id).
+    Scenario,
+}
+
+impl fmt::Display for ItemKind {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(match self {
+            Self::Canal => "canal",
+            Self::Block => "block",
+            Self::Planting => "planting",
+            Self::Scenario => "scenario",
+        })
+    }
+}
+
+/// Season length of a crop in days, as the crop library gives it.
+///
+/// Implemented for any `Fn(&str) -> Option<u32>`; `None` means the crop id is
+/// not in the library.
+pub trait CropSeasonLengths {
+    /// Total season length (initial + development + mid + late) in days.
+    fn season_length_days(&self, crop_id: &str) -> Option<u32>;
+}
+
+impl<F: Fn(&str) -> Option<u32>> CropSeasonLengths for F {
+    fn season_length_days(&self, crop_id: &str) -> Option<u32> {
+        self(crop_id)
+    }
+}
+
+/// What validation needs to know beyond the document.
+pub struct ValidationContext<'a> {
+    /// Season lengths from the crop library.
+    pub crops: &'a dyn CropSeasonLengths,
+    /// First and last date of the weather record, if it has been read.
+    pub weather_range: Option<(NaiveDate, NaiveDate)>,
+}
+
+/// One problem found in a project.
+#[derive(Debug, Clone, PartialEq, Error)]
+#[non_exhaustive]
+pub enum ValidationProblem {
+    /// An id is empty.
+    #[error("{kind} #{index} has an empty id")]
+    EmptyId {
+        /// Kind of item.
+        kind: ItemKind,
+        /// Zero-based position in its list.
+        index: usize,
+    },
+    /// Two items of one kind share an id.
+    #[error("{kind} id {id:?} is used {count} times")]
+    DuplicateId {
+        /// Kind of item.
+        kind: ItemKind,
+        /// The id.
+        id: String,
+        /// How many items use it.
+        count: usize,
+    },
+    /// A canal uses the name reserved for the node above all root canals.
+    #[error("canal id {id:?} is reserved for the node above the root canals; rename the canal")]
+    ReservedId {
+        /// The id.
+        id: String,
+    },
+    /// The project has no canal.
+    #[error("the scheme has no canal")]
+    NoCanals,
+    /// A canal's parent is not a canal of the project (or is the canal itself).
+    #[error("canal {canal:?} takes from {parent:?}, which is not a canal of the project")]
+    MissingParent {
+        /// The canal.
+        canal: String,
+        /// The missing parent id.
+        parent: String,
+    },
+    /// Canals whose parents form a loop.
+    #[error("the canal tree has a cycle: {}", canals.join(" → "))]
+    CanalCycle {
+        /// The canals on the loop, first repeated last.
+        canals: Vec<String>,
+    },
+    /// A block's canal does not exist.
+    #[error("block {block:?} takes from canal {canal:?}, which does not exist")]
+    BlockOnMissingCanal {
+        /// The block.
+        block: String,
+        /// The missing canal id.
+        canal: String,
+    },
+    /// A planting's block does not exist.
+    #[error("planting {planting:?} is on block {block:?}, which does not exist")]
+    PlantingOnMissingBlock {
+        /// The planting.
+        planting: String,
+        /// The missing block id.
+        block: String,
+    },
+    /// An efficiency outside (0, 1].
+    #[error("{kind} {id:?}: {field} = {value} is outside (0, 1]")]
+    EfficiencyOutOfRange {
+        /// Kind of item.
+        kind: ItemKind,
+        /// Item id.
+        id: String,
+        /// Which efficiency.
+        field: &'static str,
+        /// The bad value.
+        value: f64,
+    },
+    /// Hours of operation outside (0, 24].
+    #[error("canal {canal:?}: operating_hours_per_day = {value} is outside (0, 24]")]
+    HoursOutOfRange {
+        /// The canal.
+        canal: String,
+        /// The bad value.
+        value: f64,
+    },
+    /// A value that must be a finite number ≥ 0 (or > 0) is not.
+    #[error("{subject}: {field} = {value} must be {expected}")]
+    BadValue {
+        /// What holds the value (e.g. `block "B1"`).
+        subject: String,
+        /// Field name.
+        field: &'static str,
+        /// The bad value.
+        value: f64,
+        /// What was expected (e.g. "a finite number > 0").
+        expected: &'static str,
+    },
+    /// A month-day that does not exist in every year.
+    #[error(
+        "planting {planting:?}: first planting day {month}-{day} does not exist in every year (use 1–12 and a valid day; not 29 February)"
+    )]
+    InvalidPlantingDay {
+        /// The planting.
+        planting: String,
+        /// Month given.
+        month: u32,
+        /// Day given.
+        day: u32,
+    },
+    /// The crop library does not know the crop and no season length is given.
+    #[error("planting {planting:?}: crop {crop:?} is not in the crop library")]
+    UnknownCrop {
+        /// The planting.
+        planting: String,
+        /// The crop id.
+        crop: String,
+    },
+    /// A planting alone is larger than its block.
+    #[error(
+        "planting {planting:?}: {area_ha} ha is more than block {block:?} ({block_area_ha} ha)"
+    )]
+    PlantingLargerThanBlock {
+        /// The planting.
+        planting: String,
+        /// Its area (ha).
+        area_ha: f64,
+        /// The block.
+        block: String,
+        /// The block's area (ha).
+        block_area_ha: f64,
+    },
+    /// Spread plus season length exceeds a year, so the yearly plan overlaps
+    /// itself.
+    #[error(
+        "planting {planting:?}: spread ({spread_days} d) + season ({season_days} d) exceeds a year; a cropping plan repeats every year"
+    )]
+    SeasonLongerThanYear {
+        /// The planting.
+        planting: String,
+        /// Spread in days.
+        spread_days: u32,
+        /// Season length in days.
+        season_days: u32,
+    },
+    /// Plantings on a block need more land than the block has on some days.
+    #[error("block {block:?} ({block_area_ha} ha): plantings need up to {planted_ha:.2} ha on {first_day} ({days} day(s) over the block area): {}", plantings.join(", "))]
+    BlockOverplanted {
+        /// The block.
+        block: String,
+        /// Block area (ha).
+        block_area_ha: f64,
+        /// Largest area in the field on one day (ha).
+        planted_ha: f64,
+        /// First month-day (MM-DD) on which the area is exceeded.
+        first_day: String,
+        /// Number of days of the year on which it is exceeded.
+        days: usize,
+        /// Plantings in the field on the worst day.
+        plantings: Vec<String>,
+    },
+    /// No complete season of a planting falls inside the weather record.
+    #[error(
+        "planting {planting:?}: no complete season ({first} + spread + season) fits in the weather record {record_start} to {record_end}"
+    )]
+    PlantingOutsideWeather {
+        /// The planting.
+        planting: String,
+        /// First planting date tried (in the record's first year).
+        first: NaiveDate,
+        /// First date of the record.
+        record_start: NaiveDate,
+        /// Last date of the record.
+        record_end: NaiveDate,
+    },
+    /// An option out of range.
+    #[error("options: {field} = {value} {expected}")]
+    BadOption {
+        /// The option.
+        field: &'static str,
+        /// The bad value, as text.
+        value: String,
+        /// What was expected.
+        expected: &'static str,
+    },
+    /// A scenario cannot be applied.
+    #[error("{0}")]
+    Scenario(super::ScenarioError),
+    /// A problem that appears only under a scenario.
+    #[error("under scenario {scenario:?}: {problem}")]
+    InScenario {
+        /// The scenario name.
+        scenario: String,
+        /// The problem.
+        problem: Box<ValidationProblem>,
+    },
+}
+
+impl Project {
+    /// Every problem in the project, base case and scenarios; empty when the
+    /// project can be computed.
+    pub fn validate(&self, ctx: &ValidationContext<'_>) -> Vec<ValidationProblem> {
+        let mut problems = self.validate_base(ctx);
+        let mut names: HashMap<&str, usize> = HashMap::new();
+        for s in &self.scenarios {
+            *names.entry(s.name.as_str()).or_default() += 1;
+        }
+        for (i, s) in self.scenarios.iter().enumerate() {
+            if s.name.trim().is_empty() {
+                problems.push(ValidationProblem::EmptyId {
+                    kind: ItemKind::Scenario,
+                    index: i,
+                });
+            }
+        }
+        let mut dup: Vec<_> = names.into_iter().filter(|&(_, n)| n > 1).collect();
+        dup.sort_unstable();
+        for (name, count) in dup {
+            problems.push(ValidationProblem::DuplicateId {
+                kind: ItemKind::Scenario,
+                id: name.to_owned(),
+                count,
+            });
+        }
+        let base_messages: HashSet<String> = problems.iter().map(ToString::to_string).collect();
+        for s in &self.scenarios {
+            match self.apply_scenario(&s.name) {
+                Err(e) => problems.push(ValidationProblem::Scenario(e)),
+                Ok(p) => {
+                    for problem in p.validate_base(ctx) {
+                        if !base_messages.contains(&problem.to_string()) {
+                            problems.push(ValidationProblem::InScenario {
+                                scenario: s.name.clone(),
+                                problem: Box::new(problem),
+                            });
+                        }
+                    }
+                }
+            }
+            let w = &s.weather;
+            for (field, v) in [
+                ("weather.temperature_shift_c", w.temperature_shift_c),
+                ("weather.rain_change_pct", w.rain_change_pct),
+                ("weather.radiation_change_pct", w.radiation_change_pct),
+                ("weather.wind_change_pct", w.wind_change_pct),
+            ] {
+                let ok = v.is_finite() && (field.ends_with("_c") || v >= -100.0);
+                if !ok {
+                    problems.push(ValidationProblem::BadValue {
+                        subject: format!("scenario {:?}", s.name),
+                        field,
+                        value: v,
+                        expected: "a finite number (percent changes ≥ −100)",
+                    });
+                }
+            }
+        }
+        problems
+    }
+
+    /// Problems of the document without its scenarios.
+    fn validate_base(&self, ctx: &ValidationContext<'_>) -> Vec<ValidationProblem> {
+        let mut out = Vec::new();
+        self.check_ids(&mut out);
+        self.check_canals(&mut out);
+        self.check_blocks(&mut out);
+        let lengths = self.check_plantings(ctx, &mut out);
+        self.check_occupancy(&lengths, &mut out);
+        self.check_weather_and_options(&mut out);
+        out
+    }
+
+    fn check_ids(&self, out: &mut Vec<ValidationProblem>) {
+        check_id_list(
+            ItemKind::Canal,
+            self.canals.iter().map(|c| c.id.as_str()),
+            out,
+        );
+        check_id_list(
+            ItemKind::Block,
+            self.blocks.iter().map(|b| b.id.as_str()),
+            out,
+        );
+        check_id_list(
+            ItemKind::Planting,
+            self.plantings.iter().map(|p| p.id.as_str()),
+            out,
+        );
+    }
+
+    fn check_canals(&self, out: &mut Vec<ValidationProblem>) {
+        if self.canals.is_empty() {
+            out.push(ValidationProblem::NoCanals);
+        }
+        let mut cycles_seen: HashSet<Vec<String>> = HashSet::new();
+        for c in &self.canals {
+            check_efficiency(
+                ItemKind::Canal,
+                &c.id,
+                "conveyance_efficiency",
+                c.conveyance_efficiency,
+                out,
+            );
+            if !(c.operating_hours_per_day > 0.0 && c.operating_hours_per_day <= 24.0) {
+                out.push(ValidationProblem::HoursOutOfRange {
+                    canal: c.id.clone(),
+                    value: c.operating_hours_per_day,
+                });
+            }
+            if let Some(q) = c.existing_capacity_m3s {
+                check_non_negative(
+                    &format!("canal {:?}", c.id),
+                    "existing_capacity_m3s",
+                    q,
+                    out,
+                );
+            }
+            if c.id == HEADWORKS {
+                out.push(ValidationProblem::ReservedId { id: c.id.clone() });
+            }
+            if let Some(parent) = &c.parent
+                && self.canal(parent).is_none()
+            {
+                out.push(ValidationProblem::MissingParent {
+                    canal: c.id.clone(),
+                    parent: parent.clone(),
+                });
+                continue;
+            }
+            if let Err(TreeError::Cycle { canals }) = self.path_to_headworks(&c.id) {
+                // Report each loop once, whichever canal it was reached from.
+                let mut key = canals[..canals.len().saturating_sub(1)].to_vec();
+                key.sort();
+                if cycles_seen.insert(key) {
+                    out.push(ValidationProblem::CanalCycle { canals });
+                }
+            }
+        }
+    }
+
+    fn check_blocks(&self, out: &mut Vec<ValidationProblem>) {
+        for b in &self.blocks {
+            if self.canal(&b.canal).is_none() {
+                out.push(ValidationProblem::BlockOnMissingCanal {
+                    block: b.id.clone(),
+                    canal: b.canal.clone(),
+                });
+            }
+            check_positive(&format!("block {:?}", b.id), "area_ha", b.area_ha, out);
+            check_efficiency(
+                ItemKind::Block,
+                &b.id,
+                "method.application_efficiency",
+                b.method.application_efficiency,
+                out,
+            );
+            check_efficiency(
+                ItemKind::Block,
+                &b.id,
+                "field_canal_efficiency",
+                b.field_canal_efficiency,
+                out,
+            );
+        }
+    }
+
+    /// Checks each planting; returns the season length of those whose
+    /// occupancy can be computed.
+    fn check_plantings(
+        &self,
+        ctx: &ValidationContext<'_>,
+        out: &mut Vec<ValidationProblem>,
+    ) -> HashMap<usize, u32> {
+        let mut lengths = HashMap::new();
+        let blocks: HashMap<&str, &super::Block> =
+            self.blocks.iter().map(|b| (b.id.as_str(), b)).collect();
+        for (i, p) in self.plantings.iter().enumerate() {
+            let subject = format!("planting {:?}", p.id);
+            let block = blocks.get(p.block.as_str()).copied();
+            if block.is_none() {
+                out.push(ValidationProblem::PlantingOnMissingBlock {
+                    planting: p.id.clone(),
+                    block: p.block.clone(),
+                });
+            }
+            match p.area {
+                super::PlantingArea::Hectares(ha) => {
+                    check_positive(&subject, "area (ha)", ha, out);
+                    if let Some(b) = block
+                        && ha > b.area_ha * (1.0 + AREA_TOLERANCE)
+                    {
+                        out.push(ValidationProblem::PlantingLargerThanBlock {
+                            planting: p.id.clone(),
+                            area_ha: ha,
+                            block: b.id.clone(),
+                            block_area_ha: b.area_ha,
+                        });
+                    }
+                }
+                super::PlantingArea::PercentOfBlock(pct) => {
+                    if !(pct.is_finite() && pct > 0.0 && pct <= 100.0) {
+                        out.push(ValidationProblem::BadValue {
+                            subject: subject.clone(),
+                            field: "area (% of block)",
+                            value: pct,
+                            expected: "in (0, 100]",
+                        });
+                    }
+                }
+            }
+            check_strategy(&subject, &p.strategy, out);
+            let day_ok = p.first_planting.is_valid();
+            if !day_ok {
+                out.push(ValidationProblem::InvalidPlantingDay {
+                    planting: p.id.clone(),
+                    month: p.first_planting.month,
+                    day: p.first_planting.day,
+                });
+            }
+            let season = p
+                .season_length_days
+                .or_else(|| ctx.crops.season_length_days(&p.crop));
+            let Some(season) = season else {
+                out.push(ValidationProblem::UnknownCrop {
+                    planting: p.id.clone(),
+                    crop: p.crop.clone(),
+                });
+                continue;
+            };
+            if season == 0 {
+                out.push(ValidationProblem::BadValue {
+                    subject,
+                    field: "season_length_days",
+                    value: 0.0,
+                    expected: "at least 1 day",
+                });
+                continue;
+            }
+            let span = u64::from(p.cohort_count()) - 1 + u64::from(season);
+            if span > PLAN_YEAR_DAYS as u64 {
+                out.push(ValidationProblem::SeasonLongerThanYear {
+                    planting: p.id.clone(),
+                    spread_days: p.spread_days,
+                    season_days: season,
+                });
+                continue;
+            }
+            if !day_ok {
+                continue;
+            }
+            if let Some((start, end)) = ctx.weather_range {
+                check_in_record(p, season, start, end, out);
+            }
+            if block.is_some() {
+                lengths.insert(i, season);
+            }
+        }
+        lengths
+    }
+
+    fn check_occupancy(&self, lengths: &HashMap<usize, u32>, out: &mut Vec<ValidationProblem>) {
+        // Plantings by block, in file order, so each block sees only its own.
+        let mut by_block: HashMap<&str, Vec<usize>> = HashMap::new();
+        for (i, p) in self.plantings.iter().enumerate() {
+            if lengths.contains_key(&i) {
+                by_block.entry(p.block.as_str()).or_default().push(i);
+            }
+        }
+        for b in &self.blocks {
+            if !(b.area_ha.is_finite() && b.area_ha > 0.0) {
+                continue;
+            }
+            let Some(indices) = by_block.get(b.id.as_str()) else {
+                continue;
+            };
+            let mut area = [0.0_f64; PLAN_YEAR_DAYS];
+            let mut present: Vec<(usize, Vec<bool>)> = Vec::new();
+            for &i in indices {
+                let p = &self.plantings[i];
+                let Some(&season) = lengths.get(&i) else {
+                    continue;
+                };
+                let ha = p.area.hectares(b.area_ha);
+                if !ha.is_finite() {
+                    continue;
+                }
+                let Some(start) = p.first_planting.day_of_year0() else {
+                    continue;
+                };
+                let occ =
+                    cohort_occupancy(start as usize, p.cohort_count() as usize, season as usize);
+                let n = f64::from(p.cohort_count());
+                let mut on = vec![false; PLAN_YEAR_DAYS];
+                for (d, &k) in occ.iter().enumerate() {
+                    if k > 0 {
+                        area[d] += ha * f64::from(k) / n;
+                        on[d] = true;
+                    }
+                }
+                present.push((i, on));
+            }
+            let limit = b.area_ha * (1.0 + AREA_TOLERANCE);
+            let over: Vec<usize> = (0..PLAN_YEAR_DAYS).filter(|&d| area[d] > limit).collect();
+            if let Some(&first) = over.first() {
+                let worst = over
+                    .iter()
+                    .copied()
+                    .max_by(|&x, &y| area[x].total_cmp(&area[y]))
+                    .unwrap_or(first);
+                out.push(ValidationProblem::BlockOverplanted {
+                    block: b.id.clone(),
+                    block_area_ha: b.area_ha,
+                    planted_ha: area[worst],
+                    first_day: month_day_label(first),
+                    days: over.len(),
+                    plantings: present
+                        .iter()
+                        .filter(|(_, on)| on[worst])
+                        .map(|(i, _)| self.plantings[*i].id.clone())
+                        .collect(),
+                });
+            }
+        }
+    }
+
+    fn check_weather_and_options(&self, out: &mut Vec<ValidationProblem>) {
+        let w = &self.weather;
+        if w.path.trim().is_empty() {
+            out.push(ValidationProblem::BadOption {
+                field: "weather.path",
+                value: "\"\"".into(),
+                expected: "must name the weather CSV file",
+            });
+        }
+        if !(w.latitude_deg.is_finite() && (-90.0..=90.0).contains(&w.latitude_deg)) {
+            out.push(ValidationProblem::BadValue {
+                subject: "weather".into(),
+                field: "latitude_deg",
+                value: w.latitude_deg,
+                expected: "within −90 to 90",
+            });
+        }
+        if !(w.elevation_m.is_finite() && (-500.0..=9000.0).contains(&w.elevation_m)) {
+            out.push(ValidationProblem::BadValue {
+                subject: "weather".into(),
+                field: "elevation_m",
+                value: w.elevation_m,
+                expected: "within −500 to 9000 m",
+            });
+        }
+        check_positive("weather", "wind_height_m", w.wind_height_m, out);
+        if let Some(r) = &self.reservoir {
+            let subject = format!("reservoir {:?}", r.name);
+            for &a in &r.surface_area_ha {
+                check_non_negative(&subject, "surface_area_ha", a, out);
+            }
+            if let Some(t) = &r.water_temperature_c {
+                for &v in t {
+                    if !(v.is_finite() && (-5.0..=50.0).contains(&v)) {
+                        out.push(ValidationProblem::BadValue {
+                            subject: subject.clone(),
+                            field: "water_temperature_c",
+                            value: v,
+                            expected: "within −5 to 50 °C",
+                        });
+                    }
+                }
+            }
+        }
+        let o = &self.options;
+        if !(1..=12).contains(&o.irrigation_year_start_month) {
+            out.push(ValidationProblem::BadOption {
+                field: "irrigation_year_start_month",
+                value: o.irrigation_year_start_month.to_string(),
+                expected: "must be a month, 1–12",
+            });
+        }
+        if !(o.design_probability_pct > 0.0 && o.design_probability_pct < 100.0) {
+            out.push(ValidationProblem::BadOption {
+                field: "design_probability_pct",
+                value: o.design_probability_pct.to_string(),
+                expected: "must be within (0, 100)",
+            });
+        }
+        if o.rotation_period_days == 0 {
+            out.push(ValidationProblem::BadOption {
+                field: "rotation_period_days",
+                value: "0".into(),
+                expected: "must be at least 1 day",
+            });
+        }
+        if let EffectiveRain::FixedPercent(pct) = o.effective_rain
+            && !(pct.is_finite() && (0.0..=100.0).contains(&pct))
+        {
+            out.push(ValidationProblem::BadOption {
+                field: "effective_rain",
+                value: pct.to_string(),
+                expected: "FixedPercent must be within 0–100",
+            });
+        }
+        if let Some(AvailableSupply { node, flow }) = &o.available_supply {
+            if node != HEADWORKS && self.canal(node).is_none() {
+                out.push(ValidationProblem::BadOption {
+                    field: "available_supply.node",
+                    value: format!("{node:?}"),
+                    expected: "must be a canal id or \"headworks\"",
+                });
+            }
+            let flows: &[f64] = match flow {
+                SupplyFlow::Constant(q) => std::slice::from_ref(q),
+                SupplyFlow::Monthly(m) => m,
+            };
+            for &q in flows {
+                check_non_negative("options.available_supply", "flow (m³/s)", q, out);
+            }
+        }
+    }
+}
+
+/// Number of cohorts in the field on each day of a 365-day plan year, for a
+/// planting whose first cohort goes in on day `start` (zero-based), with
+/// `cohorts` cohorts one day apart, each staying `season` days. Wraps
+/// around 31 December. Requires `cohorts − 1 + season ≤ 365`.
+fn cohort_occupancy(start: usize, cohorts: usize, season: usize) -> [u32; PLAN_YEAR_DAYS] {
+    // Difference array over two plan years: cohort c adds one on days
+    // start + c .. start + c + season; the second year folds onto the first.
+    let mut diff = vec![0_i64; 2 * PLAN_YEAR_DAYS + 1];
+    for c in 0..cohorts {
+        let from = start + c;
+        let to = (from + season).min(2 * PLAN_YEAR_DAYS);
+        diff[from] += 1;
+        diff[to] -= 1;
+    }
+    let mut occ = [0_u32; PLAN_YEAR_DAYS];
+    let mut running = 0_i64;
+    for (d, delta) in diff.iter().take(2 * PLAN_YEAR_DAYS).enumerate() {
+        running += delta;
+        occ[d % PLAN_YEAR_DAYS] += u32::try_from(running).unwrap_or(0);
+    }
+    occ
+}
+
+fn month_day_label(day0: usize) -> String {
+    NaiveDate::from_yo_opt(2001, day0 as u32 + 1).map_or_else(
+        || format!("day {}", day0 + 1),
+        |d| format!("{:02}-{:02}", d.month(), d.day()),
+    )
+}
+
+/// Reports a planting none of whose yearly seasons fits in the record.
+fn check_in_record(
+    p: &Planting,
+    season: u32,
+    start: NaiveDate,
+    end: NaiveDate,
+    out: &mut Vec<ValidationProblem>,
+) {
+    let span_days = i64::from(p.cohort_count()) - 1 + i64::from(season) - 1;
+    let mut year = start.year();
+    let mut first_tried = None;
+    while year <= end.year() {
+        if let Some(first) = p.first_planting.in_year(year) {
+            first_tried.get_or_insert(first);
+            let last = first + chrono::Duration::days(span_days);
+            if first >= start && last <= end {
+                return;
+            }
+        }
+        year += 1;
+    }
+    out.push(ValidationProblem::PlantingOutsideWeather {
+        planting: p.id.clone(),
+        first: first_tried.unwrap_or(start),
+        record_start: start,
+        record_end: end,
+    });
+}
+
+fn check_id_list<'a>(
+    kind: ItemKind,
+    ids: impl Iterator<Item = &'a str>,
+    out: &mut Vec<ValidationProblem>,
+) {
+    let mut counts: Vec<(&str, usize)> = Vec::new();
+    for (index, id) in ids.enumerate() {
+        if id.trim().is_empty() {
+            out.push(ValidationProblem::EmptyId { kind, index });
+            continue;
+        }
+        match counts.iter_mut().find(|(x, _)| *x == id) {
+            Some((_, n)) => *n += 1,
+            None => counts.push((id, 1)),
+        }
+    }
+    for (id, count) in counts {
+        if count > 1 {
+            out.push(ValidationProblem::DuplicateId {
+                kind,
+                id: id.to_owned(),
+                count,
+            });
+        }
+    }
+}
+
+fn check_efficiency(
+    kind: ItemKind,
+    id: &str,
+    field: &'static str,
+    value: f64,
+    out: &mut Vec<ValidationProblem>,
+) {
+    if !(value > 0.0 && value <= 1.0) {
+        out.push(ValidationProblem::EfficiencyOutOfRange {
+            kind,
+            id: id.to_owned(),
+            field,
+            value,
+        });
+    }
+}
+
+fn check_positive(
+    subject: &str,
+    field: &'static str,
+    value: f64,
+    out: &mut Vec<ValidationProblem>,
+) {
+    if !(value.is_finite() && value > 0.0) {
+        out.push(ValidationProblem::BadValue {
+            subject: subject.to_owned(),
+            field,
+            value,
+            expected: "a finite number > 0",
+        });
+    }
+}
+
+fn check_non_negative(
+    subject: &str,
+    field: &'static str,
+    value: f64,
+    out: &mut Vec<ValidationProblem>,
+) {
+    if !(value.is_finite() && value >= 0.0) {
+        out.push(ValidationProblem::BadValue {
+            subject: subject.to_owned(),
+            field,
+            value,
+            expected: "a finite number ≥ 0",
+        });
+    }
+}
+
+fn check_strategy(subject: &str, s: &Strategy, out: &mut Vec<ValidationProblem>) {
+    let mut bad = |field: &'static str, value: f64, expected: &'static str| {
+        out.push(ValidationProblem::BadValue {
+            subject: subject.to_owned(),
+            field,
+            value,
+            expected,
+        });
+    };
+    match *s {
+        Strategy::Refill { trigger_pct_of_raw } => {
+            if !(trigger_pct_of_raw.is_finite()
+                && trigger_pct_of_raw > 0.0
+                && trigger_pct_of_raw <= 100.0)
+            {
+                bad(
+                    "strategy.trigger_pct_of_raw",
+                    trigger_pct_of_raw,
+                    "in (0, 100]",
+                );
+            }
+        }
+        Strategy::Interval { days } => {
+            if days == 0 {
+                bad("strategy.days", 0.0, "at least 1");
+            }
+        }
+        Strategy::Depth { net_mm } => {
+            if !(net_mm.is_finite() && net_mm > 0.0 && net_mm <= 1000.0) {
+                bad("strategy.net_mm", net_mm, "in (0, 1000] mm");
+            }
+        }
+        Strategy::Deficit {
+            trigger_pct_of_taw,
+            refill_pct_of_depletion,
+        } => {
+            if !(trigger_pct_of_taw.is_finite()
+                && trigger_pct_of_taw > 0.0
+                && trigger_pct_of_taw <= 100.0)
+            {
+                bad(
+                    "strategy.trigger_pct_of_taw",
+                    trigger_pct_of_taw,
+                    "in (0, 100]",
+                );
+            }
+            if !(refill_pct_of_depletion.is_finite()
+                && refill_pct_of_depletion > 0.0
+                && refill_pct_of_depletion <= 100.0)
+            {
+                bad(
+                    "strategy.refill_pct_of_depletion",
+                    refill_pct_of_depletion,
+                    "in (0, 100]",
+                );
+            }
+        }
+        Strategy::Rainfed => {}
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use proptest::prelude::*;
+
+    proptest! {
+        /// The difference-array occupancy equals counting every cohort-day.
+        #[test]
+        fn occupancy_matches_direct_count(start in 0usize..365, cohorts in 1usize..40, season in 1usize..300) {
+            prop_assume!(cohorts - 1 + season <= PLAN_YEAR_DAYS);
+            let mut direct = [0_u32; PLAN_YEAR_DAYS];
+            for c in 0..cohorts {
+                for t in 0..season {
+                    direct[(start + c + t) % PLAN_YEAR_DAYS] += 1;
+                }
+            }
+            prop_assert_eq!(cohort_occupancy(start, cohorts, season), direct);
+        }
+    }
+}
