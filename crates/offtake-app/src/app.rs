@@ -347,7 +347,7 @@ impl OfftakeApp {
                 }
                 _ => {
                     self.state.message =
-                        Some("Select a canal, block or planting to delete".to_owned())
+                        Some("Select a canal, block or planting to delete".to_owned());
                 }
             },
             Command::NewProject | Command::OpenProject | Command::OpenRecent(_)

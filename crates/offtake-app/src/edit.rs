@@ -302,7 +302,9 @@ impl Edit<Project> for DocEdit {
 pub fn fresh_id(doc: &Project, prefix: &str) -> String {
     let used =
         |id: &str| doc.canal(id).is_some() || doc.block(id).is_some() || doc.planting(id).is_some();
-    (1..)
+    // Among count + 1 candidates at least one is free.
+    let count = doc.canals.len() + doc.blocks.len() + doc.plantings.len();
+    (1..=count + 1)
         .map(|n| format!("{prefix}-{n}"))
         .find(|id| !used(id))
         .unwrap_or_else(|| prefix.to_owned())

@@ -165,7 +165,7 @@ fn canal_node(
                     for target in doc.canals.iter().filter(|t| t.id != block.canal) {
                         if ui.button(&target.name).clicked() {
                             let mut moved = block.clone();
-                            moved.canal = target.id.clone();
+                            moved.canal.clone_from(&target.id);
                             commands.push(Command::Edit(DocEdit::SetBlock {
                                 id: moved.id.clone(),
                                 block: Box::new(moved),
@@ -219,7 +219,7 @@ fn planting_node(
             for target in doc.blocks.iter().filter(|b| b.id != p.block) {
                 if ui.button(&target.name).clicked() {
                     let mut moved = p.clone();
-                    moved.block = target.id.clone();
+                    moved.block.clone_from(&target.id);
                     commands.push(Command::Edit(DocEdit::SetPlanting {
                         id: moved.id.clone(),
                         planting: Box::new(moved),
