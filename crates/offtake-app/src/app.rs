@@ -11,6 +11,7 @@ use std::time::{Duration, Instant};
 
 use egui::{Key, KeyboardShortcut, Modifiers, Ui};
 use offtake_core::project::Project;
+use offtake_io::library::Libraries;
 
 use crate::command::{Command, HelpWindow, ItemRef, PanelKind, Selection};
 use crate::compute::{ComputeFn, Computed};
@@ -23,6 +24,12 @@ use crate::status::SaveState;
 use crate::tabs::{Tabs, View};
 use crate::worker::{Worker, WorkerState};
 use crate::{help, inspector, menu, status, tree};
+
+/// The invented demo scheme of the repository.
+pub const DEMO_PROJECT: &str = concat!(
+    env!("CARGO_MANIFEST_DIR"),
+    "/../../demo-projects/demo-scheme/scheme.ron"
+);
 
 /// Quiet time after the last edit before recomputing.
 pub const DEFAULT_DEBOUNCE: Duration = Duration::from_millis(150);
@@ -58,6 +65,8 @@ struct PendingImage {
 /// The desktop application: the document (once open), runtime state, cached
 /// results and the handles of background work.
 pub struct OfftakeApp {
+    /// Crop and soil libraries (built-in FAO-56 tables).
+    pub libraries: Arc<Libraries>,
     /// The open project, if any.
     pub document: Option<OpenDocument>,
     /// Undo/redo of document edits.
@@ -98,10 +107,27 @@ impl Default for OfftakeApp {
 impl OfftakeApp {
     /// A new window with no project open.
     pub fn new() -> Self {
-        Self::with_compute(
+        let (libraries, problem) = match Libraries::builtin() {
+            Ok(l) => (l, None),
+            Err(e) => (
+                Libraries {
+                    crops: Vec::new(),
+                    soils: Vec::new(),
+                },
+                Some(format!(
+                    "The built-in crop and soil libraries could not be read: {e}"
+                )),
+            ),
+        };
+        let libs = Arc::new(libraries);
+        let for_worker = Arc::clone(&libs);
+        let mut app = Self::with_compute(
             DEFAULT_DEBOUNCE,
-            Box::new(|p: Project| crate::compute::tree_summary(&p)),
-        )
+            Box::new(move |p: Project| crate::compute::summarize(&p, &for_worker)),
+        );
+        app.libraries = libs;
+        app.state.message = problem;
+        app
     }
 
     /// A new window whose worker runs `compute` on a snapshot of the project
@@ -110,6 +136,10 @@ impl OfftakeApp {
     pub fn with_compute(debounce: Duration, compute: ComputeFn) -> Self {
         let (images_tx, images_rx) = mpsc::channel();
         Self {
+            libraries: Arc::new(Libraries {
+                crops: Vec::new(),
+                soils: Vec::new(),
+            }),
             document: None,
             history: History::default(),
             worker: Worker::spawn(debounce, compute),
@@ -256,7 +286,11 @@ impl OfftakeApp {
                 .default_size(300.0)
                 .show(ui, |ui| {
                     egui::ScrollArea::vertical().show(ui, |ui| {
-                        inspector::ui(ui, project, &self.state.selection, &mut commands);
+                        let ctx = inspector::Context {
+                            libraries: &self.libraries,
+                            problems: self.computed.as_ref().map_or(&[][..], |c| &c.warnings[..]),
+                        };
+                        inspector::ui(ui, project, &self.state.selection, &ctx, &mut commands);
                     });
                 });
         }
@@ -381,6 +415,11 @@ impl OfftakeApp {
                 self.request_plot_image(ctx, file_name, rect);
             }
         }
+    }
+
+    /// Opens the invented demo scheme shipped in `demo-projects/` (first start).
+    pub fn open_demo(&mut self) {
+        self.open_file(std::path::Path::new(DEMO_PROJECT));
     }
 
     /// New, Open or Open recent, without asking about unsaved changes.

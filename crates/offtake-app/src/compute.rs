@@ -4,7 +4,8 @@
 //! compute function turns it into [`Computed`]. Views read only the cached
 //! [`Computed`] of the last finished run; nothing is computed in a frame.
 
-use offtake_core::project::Project;
+use offtake_core::project::{Project, ValidationContext};
+use offtake_io::library::Libraries;
 
 /// Results of one run of the computation chain, cached by the app.
 ///
@@ -24,12 +25,22 @@ pub struct Computed {
 /// The compute function the worker runs: a project snapshot in, results out.
 pub type ComputeFn = Box<dyn FnMut(Project) -> Computed + Send>;
 
-/// What can be computed from the project document alone: the canal tree's
-/// consistency (as warnings) and commanded areas. The computation chain
+/// What can be computed from the project and the crop library so far:
+/// whole-project validation (offtake-core `Project::validate`, as warnings),
+/// the canal tree's consistency and commanded areas. The computation chain
 /// (ET₀ → balance → demand → design flows) is added here as it lands in
 /// offtake-core.
-pub fn tree_summary(project: &Project) -> Computed {
-    let mut warnings = Vec::new();
+pub fn summarize(project: &Project, libraries: &Libraries) -> Computed {
+    let season_days = |crop: &str| libraries.crop(crop).map(|c| c.stages.total_days());
+    let ctx = ValidationContext {
+        crops: &season_days,
+        weather_range: None,
+    };
+    let mut warnings: Vec<String> = project
+        .validate(&ctx)
+        .iter()
+        .map(ToString::to_string)
+        .collect();
     if let Err(e) = project.canals_leaves_first() {
         warnings.push(e.to_string());
     }

@@ -10,6 +10,8 @@ use offtake_core::project::{
     PlantingArea, Project, ReportingStep, Strategy,
 };
 
+use offtake_io::library::Libraries;
+
 use crate::command::{Command, ItemRef, Selection};
 use crate::edit::DocEdit;
 use crate::fields::{Bounds, date_free_month_day, name_field, number_field};
@@ -61,12 +63,45 @@ pub mod bounds {
     pub const FIXED_RAIN: Bounds = Bounds::new("Effective share of rain", "%", 0.0, 100.0);
 }
 
+/// What the inspector reads beside the document.
+#[derive(Debug, Clone, Copy)]
+pub struct Context<'a> {
+    /// Crop and soil libraries for the pickers.
+    pub libraries: &'a Libraries,
+    /// Problems found by the last validation run.
+    pub problems: &'a [String],
+}
+
+/// Shows the problems that name this item's id.
+fn problems_of(ui: &mut Ui, ctx: &Context<'_>, id: &str) {
+    let quoted = format!("{id:?}");
+    let mine: Vec<&String> = ctx
+        .problems
+        .iter()
+        .filter(|p| p.contains(&quoted))
+        .collect();
+    if mine.is_empty() {
+        return;
+    }
+    ui.separator();
+    ui.label(RichText::new("Problems").strong());
+    for p in mine {
+        ui.label(RichText::new(p).color(ui.visuals().error_fg_color));
+    }
+}
+
 fn fid(item: &str, field: &str) -> Id {
     Id::unique(("inspector", item, field))
 }
 
 /// Draws the inspector for the selection.
-pub fn ui(ui: &mut Ui, doc: Option<&Project>, selection: &Selection, commands: &mut Vec<Command>) {
+pub fn ui(
+    ui: &mut Ui,
+    doc: Option<&Project>,
+    selection: &Selection,
+    ctx: &Context<'_>,
+    commands: &mut Vec<Command>,
+) {
     ui.label(RichText::new("Inspector").strong());
     ui.separator();
     let Some(doc) = doc else {
@@ -77,19 +112,37 @@ pub fn ui(ui: &mut Ui, doc: Option<&Project>, selection: &Selection, commands: &
         Selection::None => {
             ui.label("Select the scheme, a canal, block or planting in the scheme tree to see and edit its fields.");
         }
-        Selection::Scheme => scheme_ui(ui, doc, commands),
+        Selection::Scheme => {
+            scheme_ui(ui, doc, commands);
+            if !ctx.problems.is_empty() {
+                ui.separator();
+                ui.label(RichText::new(format!("Problems ({})", ctx.problems.len())).strong());
+                for p in ctx.problems {
+                    ui.label(RichText::new(p).color(ui.visuals().error_fg_color));
+                }
+            }
+        }
         Selection::Weather => weather_ui(ui, doc, commands),
         Selection::Options => options_ui(ui, &doc.options, commands),
         Selection::Item(ItemRef::Canal(id)) => match doc.canal(id) {
-            Some(c) => canal_ui(ui, doc, c, commands),
+            Some(c) => {
+                canal_ui(ui, doc, c, commands);
+                problems_of(ui, ctx, &c.id);
+            }
             None => gone(ui),
         },
         Selection::Item(ItemRef::Block(id)) => match doc.block(id) {
-            Some(b) => block_ui(ui, doc, b, commands),
+            Some(b) => {
+                block_ui(ui, doc, b, ctx, commands);
+                problems_of(ui, ctx, &b.id);
+            }
             None => gone(ui),
         },
         Selection::Item(ItemRef::Planting(id)) => match doc.planting(id) {
-            Some(p) => planting_ui(ui, doc, p, commands),
+            Some(p) => {
+                planting_ui(ui, doc, p, ctx, commands);
+                problems_of(ui, ctx, &p.id);
+            }
             None => gone(ui),
         },
     }
@@ -222,7 +275,7 @@ fn set_block(b: Block) -> Command {
     })
 }
 
-fn block_ui(ui: &mut Ui, doc: &Project, b: &Block, commands: &mut Vec<Command>) {
+fn block_ui(ui: &mut Ui, doc: &Project, b: &Block, ctx: &Context<'_>, commands: &mut Vec<Command>) {
     ui.label(RichText::new("Block").heading());
     ui.label(format!("Id: {}", b.id));
     if let Some(name) = name_field(ui, fid(&b.id, "name"), "Name", &b.name).committed {
@@ -240,7 +293,19 @@ fn block_ui(ui: &mut Ui, doc: &Project, b: &Block, commands: &mut Vec<Command>) 
         n.area_ha = v;
         commands.push(set_block(n));
     }
-    if let Some(soil) = name_field(ui, fid(&b.id, "soil"), "Soil id", &b.soil).committed {
+    let soil_name = ctx.libraries.soil(&b.soil).map_or_else(
+        || format!("(not in library: {:?})", b.soil),
+        |s| s.name.clone(),
+    );
+    let mut soil = b.soil.clone();
+    egui::ComboBox::from_label("Soil")
+        .selected_text(soil_name)
+        .show_ui(ui, |ui| {
+            for s in &ctx.libraries.soils {
+                ui.selectable_value(&mut soil, s.id.clone(), &s.name);
+            }
+        });
+    if soil != b.soil {
         let mut n = b.clone();
         n.soil = soil;
         commands.push(set_block(n));
@@ -293,14 +358,32 @@ fn set_planting(p: Planting) -> Command {
     })
 }
 
-fn planting_ui(ui: &mut Ui, doc: &Project, p: &Planting, commands: &mut Vec<Command>) {
+fn planting_ui(
+    ui: &mut Ui,
+    doc: &Project,
+    p: &Planting,
+    ctx: &Context<'_>,
+    commands: &mut Vec<Command>,
+) {
     ui.label(RichText::new("Planting").heading());
     ui.label(format!("Id: {}", p.id));
     let block = doc
         .block(&p.block)
         .map_or("(missing block)", |b| b.name.as_str());
     ui.label(format!("On block: {block}"));
-    if let Some(crop) = name_field(ui, fid(&p.id, "crop"), "Crop id", &p.crop).committed {
+    let crop_name = ctx.libraries.crop(&p.crop).map_or_else(
+        || format!("(not in library: {:?})", p.crop),
+        |c| c.name.clone(),
+    );
+    let mut crop = p.crop.clone();
+    egui::ComboBox::from_label("Crop")
+        .selected_text(crop_name)
+        .show_ui(ui, |ui| {
+            for c in &ctx.libraries.crops {
+                ui.selectable_value(&mut crop, c.id.clone(), &c.name);
+            }
+        });
+    if crop != p.crop {
         let mut n = p.clone();
         n.crop = crop;
         commands.push(set_planting(n));

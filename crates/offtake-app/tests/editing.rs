@@ -264,3 +264,52 @@ fn new_with_unsaved_changes_asks_first() {
     settle(&mut h);
     assert_eq!(h.state().project(), Some(&Project::default()));
 }
+
+#[test]
+fn demo_scheme_opens_with_its_tree_and_validation() {
+    let mut h = harness_with(None);
+    h.state_mut().open_demo();
+    settle(&mut h);
+    let p = h.state().project().expect("demo project");
+    assert!(!p.canals.is_empty());
+    let root = p.root_canals()[0].clone();
+    h.get_by_label(&format!("{} ({})", root.name, root.kind.label()));
+    h.get_by_label("Saved");
+    h.get_by_label_contains("recomputed in");
+    // Every crop of the demo is in the built-in library; any other problem
+    // validation finds is counted in the status bar.
+    let problems = h
+        .state()
+        .computed
+        .as_ref()
+        .expect("results")
+        .warnings
+        .clone();
+    assert!(
+        problems.iter().all(|p| !p.contains("crop library")),
+        "demo crops missing: {problems:?}"
+    );
+    let count = match problems.len() {
+        0 => "No data warnings".to_owned(),
+        1 => "1 data warning".to_owned(),
+        n => format!("{n} data warnings"),
+    };
+    h.get_by_label(&count);
+}
+
+#[test]
+fn unknown_crop_is_reported_on_the_planting() {
+    let mut p = invented_scheme();
+    let mut planting = edit::new_planting(&p, "b1");
+    planting.crop = "no-such-crop".into();
+    p.plantings.push(planting.clone());
+    let mut h = harness_with(Some(p));
+    settle(&mut h);
+    h.state_mut()
+        .push(Command::Select(Selection::Item(ItemRef::Planting(
+            planting.id.clone(),
+        ))));
+    settle(&mut h);
+    h.get_by_label("Problems");
+    h.get_by_label_contains("not in the crop library");
+}
