@@ -12,15 +12,21 @@
 //! Results are planning estimates: canal and structure designs must be checked
 //! by a qualified engineer against local codes and measured data.
 
+pub mod balance;
 pub mod calendar;
 pub mod climate_stats;
 pub mod crop;
 pub mod et0;
 pub mod openwater;
+pub mod paddy;
 pub mod project;
+pub mod rain;
+pub mod rotation;
 pub mod salinity;
+pub mod scheme;
 pub mod soil;
 pub mod stats;
 pub mod units;
 pub mod weather;
 pub mod weather_gen;
+pub mod yield_response;

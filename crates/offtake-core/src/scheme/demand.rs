@@ -1,0 +1,514 @@
+//! Demand up the canal tree: block NIR → block GIR at the outlet → demand at
+//! the head of every canal → headworks demand, per day, with per-crop and
+//! per-block breakdowns, and aggregation to 10-day periods and months.
+//!
+//! # Method (DESIGN.md, "Definitions we hold to")
+//!
+//! - block GIR at the outlet = block NIR ÷ (Ea × Eb);
+//! - demand at a canal's head = Σ (demand of child canals + GIR of blocks on
+//!   it) ÷ Ec of the canal's reach;
+//! - headworks demand = Σ demand of the main canals.
+//!
+//! Eb and the reach Ec together make up the distribution efficiency (Ed =
+//! Ec × Eb, published-check-values §10.1, after Bos & Nugteren 1974), so no
+//! lumped distribution efficiency is applied on top.
+//!
+//! # Units
+//! Volumes in m³/day; flows in l/s (continuous over 24 h); depths in mm over
+//! the area commanded below the node (1 mm on 1 ha = 10 m³, FAO-56 Annex 1).
+
+use chrono::{Datelike, NaiveDate};
+
+use crate::calendar::{TenDayPeriod, YearMonth};
+use serde::{Deserialize, Serialize};
+
+use super::SchemeError;
+use super::network::{Network, NetworkProblem, Node};
+use crate::units::{depth_mm_over_area_ha_to_m3, m3_day_to_l_s};
+
+/// One daily NIR series for (part of) a block, labelled with its crop.
+///
+/// A block may have several series (plantings); series with the same crop
+/// label are summed in the per-crop breakdown.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct NirSeries {
+    /// Name of the block the planting is on.
+    pub block: String,
+    /// Crop label for the breakdowns.
+    pub crop: String,
+    /// Net irrigation requirement of the planting, m³/day, one value per day
+    /// from the scheme's start date.
+    pub nir_m3_day: Vec<f64>,
+}
+
+impl NirSeries {
+    /// Builds a series from a planting's NIR depth (mm/day) over its area (ha):
+    /// volume (m³/day) = depth (mm) × area (ha) × 10 (FAO-56 Annex 1).
+    pub fn from_depth_mm(
+        block: impl Into<String>,
+        crop: impl Into<String>,
+        nir_mm_day: &[f64],
+        area_ha: f64,
+    ) -> Self {
+        Self {
+            block: block.into(),
+            crop: crop.into(),
+            nir_m3_day: nir_mm_day
+                .iter()
+                .map(|&d| depth_mm_over_area_ha_to_m3(d, area_ha))
+                .collect(),
+        }
+    }
+}
+
+/// Aggregation step for period tables.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
+pub enum PeriodStep {
+    /// Calendar 10-day periods: days 1–10, 11–20 and 21–end of each month.
+    TenDay,
+    /// Calendar months.
+    Month,
+}
+
+/// Demand of one node over one period.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct PeriodDemand {
+    /// First calendar day of the period (even if the record starts later).
+    pub start: NaiveDate,
+    /// Calendar length of the period (days).
+    pub period_days: u32,
+    /// Days of the period covered by the record (less than `period_days` only
+    /// at the ends of the record).
+    pub covered_days: u32,
+    /// Volume over the covered days (m³).
+    pub volume_m3: f64,
+    /// Mean continuous flow over the covered days (l/s).
+    pub mean_flow_ls: f64,
+    /// Depth over the commanded area (mm).
+    pub depth_mm: f64,
+}
+
+impl PeriodDemand {
+    /// Whether the record covers the whole period.
+    pub fn is_complete(&self) -> bool {
+        self.covered_days == self.period_days
+    }
+}
+
+/// First day and calendar length (days) of the period containing `date`.
+fn period_of(date: NaiveDate, step: PeriodStep) -> (NaiveDate, u32) {
+    match step {
+        PeriodStep::TenDay => {
+            let p = TenDayPeriod::containing(date);
+            (p.start(), p.length_days())
+        }
+        PeriodStep::Month => {
+            let m = YearMonth::containing(date);
+            (m.start(), m.length_days())
+        }
+    }
+}
+
+/// Aggregates a daily volume series (m³/day, from `start`) into calendar
+/// periods: volume, mean continuous flow and depth over `area_ha`.
+///
+/// Periods cut by the ends of the record are kept with `covered_days` less
+/// than `period_days`; their mean flow is over the covered days.
+pub fn aggregate_periods(
+    start: NaiveDate,
+    series_m3_day: &[f64],
+    step: PeriodStep,
+    area_ha: f64,
+) -> Vec<PeriodDemand> {
+    let mut out: Vec<PeriodDemand> = Vec::new();
+    let mut date = start;
+    for &v in series_m3_day {
+        let (ps, period_days) = period_of(date, step);
+        match out.last_mut() {
+            Some(last) if last.start == ps => {
+                last.covered_days += 1;
+                last.volume_m3 += v;
+            }
+            _ => out.push(PeriodDemand {
+                start: ps,
+                period_days,
+                covered_days: 1,
+                volume_m3: v,
+                mean_flow_ls: 0.0,
+                depth_mm: 0.0,
+            }),
+        }
+        date = date.succ_opt().unwrap_or(date);
+    }
+    for p in &mut out {
+        p.mean_flow_ls = m3_day_to_l_s(p.volume_m3 / f64::from(p.covered_days));
+        p.depth_mm = depth_over_area_mm(p.volume_m3, area_ha);
+    }
+    out
+}
+
+/// Depth (mm) of a volume (m³) spread over an area (ha): V ÷ (10 A).
+/// Zero when the area is zero.
+fn depth_over_area_mm(volume_m3: f64, area_ha: f64) -> f64 {
+    if area_ha > 0.0 {
+        volume_m3 / (10.0 * area_ha)
+    } else {
+        0.0
+    }
+}
+
+/// Daily demand at every node of a scheme, with breakdowns.
+///
+/// Arrays are flat, row-major: node × day, (node × crop) × day and
+/// block × day; rows are canals in the network's order, then the headworks.
+#[derive(Debug, Clone)]
+pub struct SchemeDemand {
+    network: Network,
+    start: NaiveDate,
+    days: usize,
+    crops: Vec<String>,
+    block_nir_m3_day: Vec<f64>,
+    node_m3_day: Vec<f64>,
+    node_crop_m3_day: Vec<f64>,
+}
+
+impl SchemeDemand {
+    /// Computes the demand at every node from the NIR series of the plantings.
+    ///
+    /// `days` is the length of every series, counted from `start`.
+    ///
+    /// # Errors
+    /// [`SchemeError::Invalid`] listing every series on a missing block,
+    /// every series of the wrong length and every negative or non-finite value
+    /// (the first bad day of each series).
+    pub fn compute(
+        network: &Network,
+        start: NaiveDate,
+        days: usize,
+        nir: &[NirSeries],
+    ) -> Result<Self, SchemeError> {
+        let mut problems = Vec::new();
+        let mut series_block = Vec::with_capacity(nir.len());
+        let mut crops: Vec<String> = Vec::new();
+        let mut series_crop = Vec::with_capacity(nir.len());
+        for s in nir {
+            if let Some(b) = network.block_index(&s.block) {
+                series_block.push(b);
+            } else {
+                series_block.push(usize::MAX);
+                problems.push(NetworkProblem::SeriesOnMissingBlock {
+                    block: s.block.clone(),
+                });
+            }
+            if s.nir_m3_day.len() != days {
+                problems.push(NetworkProblem::SeriesLength {
+                    block: s.block.clone(),
+                    crop: s.crop.clone(),
+                    expected: days,
+                    found: s.nir_m3_day.len(),
+                });
+            }
+            if let Some((day, &value)) = s
+                .nir_m3_day
+                .iter()
+                .enumerate()
+                .find(|(_, v)| !(v.is_finite() && **v >= 0.0))
+            {
+                problems.push(NetworkProblem::BadRequirement {
+                    block: s.block.clone(),
+                    crop: s.crop.clone(),
+                    day,
+                    value,
+                });
+            }
+            let ci = if let Some(i) = crops.iter().position(|c| *c == s.crop) {
+                i
+            } else {
+                crops.push(s.crop.clone());
+                crops.len() - 1
+            };
+            series_crop.push(ci);
+        }
+        if !problems.is_empty() {
+            return Err(SchemeError::Invalid(problems));
+        }
+
+        let n_blocks = network.blocks().len();
+        let n_canals = network.canals().len();
+        let n_nodes = n_canals + 1;
+        let n_crops = crops.len();
+        let mut block_nir_m3_day = vec![0.0; n_blocks * days];
+        let mut node_crop_m3_day = vec![0.0; n_nodes * n_crops * days];
+
+        // Blocks: NIR into the block rows; GIR = NIR ÷ (Ea × Eb) into the
+        // (canal, crop) row of the canal the block takes from.
+        for ((s, &b), &c) in nir.iter().zip(&series_block).zip(&series_crop) {
+            let block = &network.blocks()[b];
+            let to_gir = 1.0 / (block.application_efficiency * block.field_canal_efficiency);
+            let canal = network.block_canal(b);
+            let at = (canal * n_crops + c) * days;
+            let block_row = &mut block_nir_m3_day[b * days..(b + 1) * days];
+            let node_row = &mut node_crop_m3_day[at..at + days];
+            for ((nir_acc, gir_acc), &v) in block_row
+                .iter_mut()
+                .zip(node_row.iter_mut())
+                .zip(&s.nir_m3_day)
+            {
+                *nir_acc += v;
+                *gir_acc += v * to_gir;
+            }
+        }
+        // Canals, children first: divide the sum at the canal by its Ec, then
+        // add it into the parent (or the headworks).
+        for &canal in network.upward_order() {
+            let ec = network.canals()[canal].conveyance_efficiency;
+            let to = network.parent(canal).unwrap_or(n_canals);
+            let (lo, hi) = node_crop_m3_day.split_at_mut(canal.max(to) * n_crops * days);
+            let (src, dst) = if canal < to {
+                (
+                    &mut lo[canal * n_crops * days..(canal + 1) * n_crops * days],
+                    &mut hi[..n_crops * days],
+                )
+            } else {
+                (
+                    &mut hi[..n_crops * days],
+                    &mut lo[to * n_crops * days..(to + 1) * n_crops * days],
+                )
+            };
+            for (s, d) in src.iter_mut().zip(dst.iter_mut()) {
+                *s /= ec;
+                *d += *s;
+            }
+        }
+        let mut node_m3_day = vec![0.0; n_nodes * days];
+        for node in 0..n_nodes {
+            let out = &mut node_m3_day[node * days..(node + 1) * days];
+            for c in 0..n_crops {
+                let at = (node * n_crops + c) * days;
+                for (o, &v) in out.iter_mut().zip(&node_crop_m3_day[at..at + days]) {
+                    *o += v;
+                }
+            }
+        }
+        Ok(Self {
+            network: network.clone(),
+            start,
+            days,
+            crops,
+            block_nir_m3_day,
+            node_m3_day,
+            node_crop_m3_day,
+        })
+    }
+
+    /// The network the demand was computed on.
+    pub fn network(&self) -> &Network {
+        &self.network
+    }
+
+    /// First day of the series.
+    pub fn start(&self) -> NaiveDate {
+        self.start
+    }
+
+    /// Number of days.
+    pub fn days(&self) -> usize {
+        self.days
+    }
+
+    /// Date of day index `day`.
+    pub fn date(&self, day: usize) -> NaiveDate {
+        self.start + chrono::Days::new(day as u64)
+    }
+
+    /// Crop labels, in order of first appearance; indices for
+    /// [`Self::crop_demand_m3_day`].
+    pub fn crops(&self) -> &[String] {
+        &self.crops
+    }
+
+    /// Daily demand at a node (m³/day).
+    pub fn demand_m3_day(&self, node: Node) -> &[f64] {
+        let r = self.network.node_row(node);
+        &self.node_m3_day[r * self.days..(r + 1) * self.days]
+    }
+
+    /// Daily demand at a node as a continuous flow (l/s).
+    pub fn demand_ls(&self, node: Node) -> Vec<f64> {
+        self.demand_m3_day(node)
+            .iter()
+            .map(|&v| m3_day_to_l_s(v))
+            .collect()
+    }
+
+    /// Daily demand at a node as a depth over the area commanded below it (mm/day).
+    pub fn demand_mm_day(&self, node: Node) -> Vec<f64> {
+        let area = self.network.commanded_area_ha(node);
+        self.demand_m3_day(node)
+            .iter()
+            .map(|&v| depth_over_area_mm(v, area))
+            .collect()
+    }
+
+    /// Daily demand at a node due to one crop (m³/day); `crop` indexes [`Self::crops`].
+    pub fn crop_demand_m3_day(&self, node: Node, crop: usize) -> &[f64] {
+        let n_crops = self.crops.len();
+        let at = (self.network.node_row(node) * n_crops + crop) * self.days;
+        &self.node_crop_m3_day[at..at + self.days]
+    }
+
+    /// Daily NIR of a block (m³/day), all its plantings summed.
+    pub fn block_nir_m3_day(&self, block: usize) -> &[f64] {
+        &self.block_nir_m3_day[block * self.days..(block + 1) * self.days]
+    }
+
+    /// Daily GIR of a block at its outlet (m³/day): NIR ÷ (Ea × Eb).
+    pub fn block_gir_m3_day(&self, block: usize) -> Vec<f64> {
+        let b = &self.network.blocks()[block];
+        let k = 1.0 / (b.application_efficiency * b.field_canal_efficiency);
+        self.block_nir_m3_day(block)
+            .iter()
+            .map(|&v| v * k)
+            .collect()
+    }
+
+    /// Blocks served through `node`.
+    pub fn blocks_below(&self, node: Node) -> Vec<usize> {
+        (0..self.network.blocks().len())
+            .filter(|&b| self.network.block_is_below(b, node))
+            .collect()
+    }
+
+    /// Share of block `block` in the demand at `node` (m³/day): its NIR ÷
+    /// (Ea × Eb × Π Ec up to the node). `None` when the block is not below it.
+    /// Over all blocks below a node these add up to the node's demand.
+    pub fn block_share_m3_day(&self, node: Node, block: usize) -> Option<Vec<f64>> {
+        let k = self.network.block_factor(block, node)?;
+        Some(
+            self.block_nir_m3_day(block)
+                .iter()
+                .map(|&v| v * k)
+                .collect(),
+        )
+    }
+
+    /// Shares the water delivered at a node's head among the blocks below
+    /// it, day by day, in proportion to their demand: on a day with demand
+    /// Dₙ and delivery Vₙ at the node, each block's outlet receives
+    /// GIR × min(Vₙ ÷ Dₙ, 1) (conveyance losses are taken in proportion, as
+    /// in the demand). Days without demand deliver nothing.
+    ///
+    /// Returns (block index, delivered at the outlet m³/day) for each block
+    /// below the node; × Ea × Eb gives the water reaching the root zone, for
+    /// re-running a block's water balance on delivered water.
+    ///
+    /// # Errors
+    /// [`SchemeError::Invalid`] when `delivered_m3_day` does not have one
+    /// value per day, or holds a negative or non-finite value.
+    pub fn delivered_to_blocks_m3_day(
+        &self,
+        node: Node,
+        delivered_m3_day: &[f64],
+    ) -> Result<Vec<(usize, Vec<f64>)>, SchemeError> {
+        let name = self.network.node_name(node).to_owned();
+        if delivered_m3_day.len() != self.days {
+            return Err(SchemeError::Invalid(vec![NetworkProblem::SeriesLength {
+                block: name,
+                crop: "delivered".into(),
+                expected: self.days,
+                found: delivered_m3_day.len(),
+            }]));
+        }
+        if let Some((day, &value)) = delivered_m3_day
+            .iter()
+            .enumerate()
+            .find(|(_, v)| !(v.is_finite() && **v >= 0.0))
+        {
+            return Err(SchemeError::Invalid(vec![NetworkProblem::BadRequirement {
+                block: name,
+                crop: "delivered".into(),
+                day,
+                value,
+            }]));
+        }
+        let node_demand = self.demand_m3_day(node);
+        let ratio: Vec<f64> = node_demand
+            .iter()
+            .zip(delivered_m3_day)
+            .map(|(&d, &v)| if d > 0.0 { (v / d).min(1.0) } else { 0.0 })
+            .collect();
+        Ok(self
+            .blocks_below(node)
+            .into_iter()
+            .map(|b| {
+                let gir = self.block_gir_m3_day(b);
+                (b, gir.iter().zip(&ratio).map(|(g, r)| g * r).collect())
+            })
+            .collect())
+    }
+
+    /// 10-day or monthly table of a node's demand.
+    pub fn periods(&self, node: Node, step: PeriodStep) -> Vec<PeriodDemand> {
+        aggregate_periods(
+            self.start,
+            self.demand_m3_day(node),
+            step,
+            self.network.commanded_area_ha(node),
+        )
+    }
+
+    /// 10-day or monthly table of one crop's share of a node's demand.
+    pub fn crop_periods(&self, node: Node, crop: usize, step: PeriodStep) -> Vec<PeriodDemand> {
+        aggregate_periods(
+            self.start,
+            self.crop_demand_m3_day(node, crop),
+            step,
+            self.network.commanded_area_ha(node),
+        )
+    }
+}
+
+/// Daily evaporation loss from a storage reservoir (m³/day).
+///
+/// loss = E × A × 10, with E the open-water evaporation depth of the day
+/// (mm/day, from the open-water module: Meyer, Rohwer or Penman) and A the
+/// reservoir's surface area in the day's month (ha); 1 mm on 1 ha = 10 m³
+/// (FAO-56 Annex 1). The loss is reported beside the headworks demand: the
+/// reservoir supplies both, the canals carry only the demand. Rain on the
+/// reservoir is not deducted.
+///
+/// `surface_area_ha_by_month[0]` is January.
+///
+/// # Errors
+/// [`SchemeError::BadStorageInput`] for a negative or non-finite area or
+/// evaporation depth, naming the month or day.
+pub fn storage_losses_m3_day(
+    start: NaiveDate,
+    surface_area_ha_by_month: &[f64; 12],
+    evaporation_mm_day: &[f64],
+) -> Result<Vec<f64>, SchemeError> {
+    if let Some((m, &a)) = surface_area_ha_by_month
+        .iter()
+        .enumerate()
+        .find(|(_, a)| !(a.is_finite() && **a >= 0.0))
+    {
+        return Err(SchemeError::BadStorageInput {
+            what: format!("surface area in month {}", m + 1),
+            value: a,
+        });
+    }
+    let mut out = Vec::with_capacity(evaporation_mm_day.len());
+    let mut date = start;
+    for (day, &e) in evaporation_mm_day.iter().enumerate() {
+        if !(e.is_finite() && e >= 0.0) {
+            return Err(SchemeError::BadStorageInput {
+                what: format!("evaporation on day {day} ({date})"),
+                value: e,
+            });
+        }
+        let area = surface_area_ha_by_month[date.month0() as usize];
+        out.push(depth_mm_over_area_ha_to_m3(e, area));
+        date = date.succ_opt().unwrap_or(date);
+    }
+    Ok(out)
+}
