@@ -303,6 +303,8 @@ impl OfftakeApp {
             }
             let view = View {
                 project_open,
+                project,
+                selection: &self.state.selection,
                 computed: self.computed.as_ref(),
             };
             self.tabs.ui(ui, self.state.tab, &view, &mut commands);

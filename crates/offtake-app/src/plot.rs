@@ -14,7 +14,9 @@ use std::fmt::Write as _;
 
 use chrono::{Days, NaiveDate};
 use egui::{Color32, Ui};
-use egui_plot::{Bar, BarChart, HLine, HoverPosition, Legend, Line, LineStyle, Plot, PlotPoints};
+use egui_plot::{
+    Bar, BarChart, HLine, HoverPosition, Legend, Line, LineStyle, Plot, PlotPoints, VLine,
+};
 
 use crate::command::Command;
 
@@ -34,6 +36,8 @@ pub enum SeriesKind {
     },
     /// A horizontal level at the first point's y (design flow, capacity, TAW).
     Level,
+    /// A vertical marker at the first point's x (stage ends, design year).
+    Marker,
 }
 
 /// One named series of a plot.
@@ -283,6 +287,15 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
                         .map(|p| Bar::new(p[0], p[1]).width(width))
                         .collect();
                     plot_ui.bar_chart(BarChart::new(s.name.clone(), bars).color(s.colour));
+                }
+                SeriesKind::Marker => {
+                    if let Some(p) = s.points.first() {
+                        plot_ui.vline(
+                            VLine::new(s.name.clone(), p[0])
+                                .color(s.colour)
+                                .style(s.style),
+                        );
+                    }
                 }
                 SeriesKind::Level => {
                     if let Some(p) = s.points.first() {

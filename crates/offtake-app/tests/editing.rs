@@ -313,3 +313,35 @@ fn unknown_crop_is_reported_on_the_planting() {
     h.get_by_label("Problems");
     h.get_by_label_contains("not in the crop library");
 }
+
+#[test]
+fn crop_curves_tab_plots_library_kc_of_the_selected_planting() {
+    let mut p = invented_scheme();
+    let mut planting = edit::new_planting(&p, "b1");
+    planting.crop = "maize-grain".into();
+    p.plantings.push(planting.clone());
+    let mut h = harness_with(Some(p));
+    settle(&mut h);
+    h.get_by_label("Crop curves").click();
+    h.state_mut()
+        .push(Command::Select(Selection::Item(ItemRef::Planting(
+            planting.id.clone(),
+        ))));
+    settle(&mut h);
+    h.get_by_label("Reset zoom");
+    h.get_by_label("Export data (CSV)…");
+    h.get_by_label("Export image (PNG)…");
+    let computed = h.state().computed.clone().expect("results");
+    let curve = &computed.kc_curves[0];
+    let crop = h
+        .state()
+        .libraries
+        .crop("maize-grain")
+        .expect("library crop")
+        .clone();
+    assert_eq!(curve.season_days, crop.stages.total_days());
+    // Mid-season days carry the library's Kc mid; the first day its Kc ini.
+    let mid_day = (curve.stage_ends[1] + 1) as usize;
+    assert!((curve.kc[mid_day - 1] - crop.kc.mid).abs() < 1e-12);
+    assert!((curve.kc[0] - crop.kc.ini).abs() < 1e-12);
+}

@@ -21,6 +21,10 @@ use crate::compute::Computed;
 pub struct View<'a> {
     /// Whether a project is open.
     pub project_open: bool,
+    /// The open project.
+    pub project: Option<&'a offtake_core::project::Project>,
+    /// The tree selection.
+    pub selection: &'a crate::command::Selection,
     /// Results of the last finished computation, if any.
     pub computed: Option<&'a Computed>,
 }
