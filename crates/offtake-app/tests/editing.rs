@@ -86,7 +86,12 @@ fn file_new_gives_an_empty_scheme_with_next_step() {
     h.get_by_label("(unnamed scheme)");
     h.get_by_label("Not saved yet");
     h.get_by_label_contains("No canals yet");
-    h.get_by_label_contains("No weather yet — File › Import weather…");
+    // The next step is shown in the tree and in the Weather & ET₀ tab.
+    assert_eq!(
+        h.query_all_by_label_contains("No weather yet — File › Import weather…")
+            .count(),
+        2
+    );
 }
 
 #[test]
