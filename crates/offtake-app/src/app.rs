@@ -421,7 +421,9 @@ impl OfftakeApp {
 
     /// Opens the invented demo scheme shipped in `demo-projects/` (first start).
     pub fn open_demo(&mut self) {
-        self.open_file(std::path::Path::new(DEMO_PROJECT));
+        let path = std::path::Path::new(DEMO_PROJECT);
+        let path = std::fs::canonicalize(path).unwrap_or_else(|_| path.to_path_buf());
+        self.open_file(&path);
     }
 
     /// New, Open or Open recent, without asking about unsaved changes.

@@ -122,7 +122,11 @@ fn text_box(ui: &mut Ui, id: Id, label: &str, unit: &str, shown: &str) -> (egui:
         .horizontal(|ui| {
             let label_resp = ui.label(label);
             let r = ui
-                .add(TextEdit::singleline(&mut text).id(id).desired_width(110.0))
+                .add(
+                    TextEdit::singleline(&mut text)
+                        .id(id)
+                        .desired_width(if unit.is_empty() { 170.0 } else { 90.0 }),
+                )
                 .labelled_by(label_resp.id);
             if !unit.is_empty() {
                 ui.label(unit);
