@@ -14,7 +14,7 @@ use offtake_core::project::Project;
 use offtake_io::library::Libraries;
 
 use crate::command::{Command, HelpWindow, ItemRef, PanelKind, Selection};
-use crate::compute::{ComputeFn, Computed};
+use crate::compute::{ComputeFn, Computed, Snapshot};
 use crate::document::OpenDocument;
 use crate::edit::DocEdit;
 use crate::history::History;
@@ -74,7 +74,7 @@ pub struct OfftakeApp {
     /// Session state: tab, selection, windows, panels, messages.
     pub state: RuntimeState,
     /// Background recomputation.
-    worker: Worker<Project, Computed>,
+    worker: Worker<Snapshot, Computed>,
     /// View state of the workspace tabs.
     pub tabs: Tabs,
     /// Results of the last finished computation.
@@ -123,7 +123,7 @@ impl OfftakeApp {
         let for_worker = Arc::clone(&libs);
         let mut app = Self::with_compute(
             DEFAULT_DEBOUNCE,
-            Box::new(move |p: Project| crate::compute::summarize(&p, &for_worker)),
+            crate::compute::default_compute(for_worker),
         );
         app.libraries = libs;
         app.state.message = problem;
@@ -191,7 +191,11 @@ impl OfftakeApp {
 
     fn request_recompute(&mut self) {
         if let Some(doc) = &self.document {
-            self.worker.request(doc.project.clone(), Instant::now());
+            let snapshot = Snapshot {
+                project: doc.project.clone(),
+                project_path: doc.path.clone(),
+            };
+            self.worker.request(snapshot, Instant::now());
             self.state.recompute = RecomputeStatus::Running;
         }
     }
@@ -405,7 +409,8 @@ impl OfftakeApp {
                     self.save_to(&path);
                 }
             }
-            Command::ImportWeather | Command::ExportWorkbook => {
+            Command::ImportWeather => self.import_weather(),
+            Command::ExportWorkbook => {
                 self.state.message = Some(
                     "Weather import and workbook export are not available in this build yet"
                         .to_owned(),
@@ -438,6 +443,32 @@ impl OfftakeApp {
             Command::OpenRecent(path) => self.open_file(&path),
             other => self.state.message = Some(format!("Unexpected command {other:?}")),
         }
+    }
+
+    /// Attaches a weather CSV (Offtake's column names) to the project as an
+    /// undoable edit; the worker reads it and computes daily ET₀.
+    fn import_weather(&mut self) {
+        let Some(doc) = self.document.as_ref() else {
+            return;
+        };
+        if !self.dialogs {
+            self.state.message = Some("File dialogs are off".to_owned());
+            return;
+        }
+        let Some(file) = rfd::FileDialog::new()
+            .add_filter("Weather CSV", &["csv"])
+            .pick_file()
+        else {
+            return;
+        };
+        let mut weather = doc.project.weather.clone();
+        weather.path = relative_to_project(&file, doc.path.as_deref());
+        self.edit(DocEdit::SetWeather(weather));
+        self.state.selection = Selection::Weather;
+        self.state.message = Some(
+            "Weather attached — check the station latitude, elevation and wind height in the inspector"
+                .to_owned(),
+        );
     }
 
     fn new_project(&mut self) {
@@ -683,4 +714,14 @@ impl eframe::App for OfftakeApp {
     fn ui(&mut self, ui: &mut Ui, _frame: &mut eframe::Frame) {
         OfftakeApp::ui(self, ui);
     }
+}
+
+/// `file` relative to the project file's folder when it is inside it, else as given.
+fn relative_to_project(file: &std::path::Path, project: Option<&std::path::Path>) -> String {
+    project
+        .and_then(std::path::Path::parent)
+        .and_then(|dir| file.strip_prefix(dir).ok())
+        .unwrap_or(file)
+        .display()
+        .to_string()
 }

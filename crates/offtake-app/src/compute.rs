@@ -4,7 +4,11 @@
 //! compute function turns it into [`Computed`]. Views read only the cached
 //! [`Computed`] of the last finished run; nothing is computed in a frame.
 
+use std::path::PathBuf;
+
+use chrono::NaiveDate;
 use offtake_core::project::{Project, ValidationContext};
+use offtake_core::weather::WeatherDay;
 use offtake_io::library::Libraries;
 
 /// Results of one run of the computation chain, cached by the app.
@@ -16,6 +20,8 @@ use offtake_io::library::Libraries;
 pub struct Computed {
     /// Data warnings to show (flagged weather, broken canal tree…).
     pub warnings: Vec<String>,
+    /// Daily ET₀ and rain of the weather series, if one is attached and readable.
+    pub weather: Option<WeatherResult>,
     /// Library Kc curves of the plantings' crops (FAO-56 eq. 66).
     pub kc_curves: Vec<KcCurveResult>,
     /// Area commanded by the whole scheme (ha).
@@ -89,8 +95,158 @@ pub fn kc_curves(project: &Project, libraries: &Libraries) -> (Vec<KcCurveResult
     (out, problems)
 }
 
-/// The compute function the worker runs: a project snapshot in, results out.
-pub type ComputeFn = Box<dyn FnMut(Project) -> Computed + Send>;
+/// What the worker receives: an owned copy of the project and the file it
+/// lives in (weather paths are relative to the project's folder).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Snapshot {
+    /// The project as it is after the last edit.
+    pub project: Project,
+    /// The project file, if the project was opened or saved.
+    pub project_path: Option<PathBuf>,
+}
+
+/// The compute function the worker runs: a snapshot in, results out.
+pub type ComputeFn = Box<dyn FnMut(Snapshot) -> Computed + Send>;
+
+/// Daily ET₀ and rain of the project's weather series.
+#[derive(Debug, Clone, PartialEq)]
+pub struct WeatherResult {
+    /// The weather file read.
+    pub file: PathBuf,
+    /// Dates of the accepted records.
+    pub dates: Vec<NaiveDate>,
+    /// ET₀ per day (mm/day); `None` where it cannot be computed.
+    pub et0_mm: Vec<Option<f64>>,
+    /// Rain per day (mm); `None` where missing.
+    pub rain_mm: Vec<Option<f64>>,
+    /// Days whose ET₀ used a FAO-56 missing-data procedure (estimated Rs,
+    /// ea from Tmin, default wind).
+    pub estimated_days: usize,
+}
+
+/// A weather file read once and kept while its path and modification time
+/// stay the same.
+struct WeatherCache {
+    key: Option<(PathBuf, Option<std::time::SystemTime>)>,
+    days: Result<Vec<WeatherDay>, String>,
+    warnings: Vec<String>,
+}
+
+/// The compute function the app runs by default: [`summarize`] plus the
+/// daily ET₀ of the weather series (read from file, cached between runs).
+pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
+    let mut cache = WeatherCache {
+        key: None,
+        days: Err(String::new()),
+        warnings: Vec::new(),
+    };
+    Box::new(move |snap: Snapshot| {
+        let mut out = summarize(&snap.project, &libraries);
+        if let Some(w) = weather(&snap, &mut cache) {
+            match w {
+                Ok((result, warnings)) => {
+                    out.warnings.extend(warnings);
+                    out.weather = Some(result);
+                }
+                Err(e) => out.warnings.push(e),
+            }
+        }
+        out
+    })
+}
+
+fn weather(
+    snap: &Snapshot,
+    cache: &mut WeatherCache,
+) -> Option<Result<(WeatherResult, Vec<String>), String>> {
+    use offtake_core::et0::series::{
+        Et0Options, HumiditySource, RadiationSource, WindSource, et0_daily_series,
+    };
+    use offtake_core::weather::StationSite;
+    use offtake_io::weather::{ImportOptions, import_weather_file};
+
+    let p = &snap.project;
+    if p.weather.path.trim().is_empty() {
+        return None;
+    }
+    let file = match &snap.project_path {
+        Some(pp) => offtake_io::project_file::weather_path(pp, p),
+        None => PathBuf::from(&p.weather.path),
+    };
+    let modified = std::fs::metadata(&file).and_then(|m| m.modified()).ok();
+    let key = (file.clone(), modified);
+    if cache.key.as_ref() != Some(&key) {
+        cache.key = Some(key);
+        match import_weather_file(&file, &ImportOptions::default()) {
+            Ok(series) => {
+                cache.warnings = series.warnings.iter().map(ToString::to_string).collect();
+                cache.days = Ok(series.days);
+            }
+            Err(e) => {
+                cache.warnings = Vec::new();
+                cache.days = Err(format!("weather file: {e}"));
+            }
+        }
+    }
+    let days = match &cache.days {
+        Ok(d) => d,
+        Err(e) => return Some(Err(e.clone())),
+    };
+    let site = StationSite {
+        latitude_deg: p.weather.latitude_deg,
+        elevation_m: p.weather.elevation_m,
+        wind_height_m: p.weather.wind_height_m,
+    };
+    let method = match p.options.et0_method {
+        offtake_core::project::Et0Method::PenmanMonteith => {
+            offtake_core::et0::method::Et0Method::PenmanMonteith
+        }
+        offtake_core::project::Et0Method::Hargreaves => {
+            offtake_core::et0::method::Et0Method::HargreavesSamani
+        }
+        offtake_core::project::Et0Method::AsceShort => {
+            offtake_core::et0::method::Et0Method::AsceShort
+        }
+        offtake_core::project::Et0Method::AsceTall => {
+            offtake_core::et0::method::Et0Method::AsceTall
+        }
+    };
+    let options = Et0Options {
+        method,
+        ..Et0Options::default()
+    };
+    let results = match et0_daily_series(&site, days, &options) {
+        Ok(r) => r,
+        Err(e) => return Some(Err(format!("ET₀ of the weather series: {e}"))),
+    };
+    let mut warnings = cache.warnings.clone();
+    let not_computed = results.iter().filter(|r| r.et0_mm.is_none()).count();
+    if not_computed > 0 {
+        warnings.push(format!(
+            "ET₀ could not be computed on {not_computed} day(s) of the weather series"
+        ));
+    }
+    let estimated_days = results
+        .iter()
+        .filter(|r| {
+            r.outcome.as_ref().is_ok_and(|d| {
+                d.humidity == HumiditySource::FromTmin
+                    || d.radiation == RadiationSource::TemperatureRange
+                    || d.wind == WindSource::Default
+            })
+        })
+        .count();
+    Some(Ok((
+        WeatherResult {
+            file,
+            dates: results.iter().map(|r| r.date).collect(),
+            et0_mm: results.iter().map(|r| r.et0_mm).collect(),
+            rain_mm: days.iter().map(|d| d.rain_mm).collect(),
+            estimated_days,
+        },
+        warnings,
+    )))
+}
 
 /// What can be computed from the project and the crop library so far:
 /// whole-project validation (offtake-core `Project::validate`, as warnings),
@@ -131,6 +287,7 @@ pub fn summarize(project: &Project, libraries: &Libraries) -> Computed {
     warnings.dedup();
     Computed {
         warnings,
+        weather: None,
         kc_curves,
         scheme_area_ha: project.scheme_area_ha(),
         canal_area_ha,

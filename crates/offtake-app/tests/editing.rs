@@ -350,3 +350,25 @@ fn crop_curves_tab_plots_library_kc_of_the_selected_planting() {
     assert!((curve.kc[mid_day - 1] - crop.kc.mid).abs() < 1e-12);
     assert!((curve.kc[0] - crop.kc.ini).abs() < 1e-12);
 }
+
+#[test]
+fn demo_weather_is_read_in_the_background_and_plotted() {
+    let mut h = harness_with(None);
+    h.state_mut().open_demo();
+    settle(&mut h);
+    let computed = h.state().computed.clone().expect("results");
+    let w = computed.weather.expect("demo weather series read");
+    assert!(w.dates.len() > 365, "several years of days");
+    assert_eq!(w.dates.len(), w.et0_mm.len());
+    // Daily ET₀ is a depth per day: never negative, never absurd.
+    assert!(
+        w.et0_mm
+            .iter()
+            .flatten()
+            .all(|v| v.is_finite() && (0.0..25.0).contains(v))
+    );
+    h.get_by_label("Weather & ET₀").click();
+    h.run();
+    h.get_by_label("Year");
+    h.get_by_label("Export data (CSV)…");
+}
