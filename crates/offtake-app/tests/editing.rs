@@ -372,3 +372,24 @@ fn demo_weather_is_read_in_the_background_and_plotted() {
     h.get_by_label("Year");
     h.get_by_label("Export data (CSV)…");
 }
+
+#[test]
+fn context_menu_adds_a_block_under_a_canal_and_selects_it() {
+    let mut h = harness_with(Some(invented_scheme()));
+    settle(&mut h);
+    h.get_by_label("East branch (branch)").click_secondary();
+    h.run();
+    h.get_by_label("Add block").click();
+    settle(&mut h);
+    let p = h.state().project().expect("project");
+    assert_eq!(p.blocks.len(), 3);
+    let new = p.blocks.last().expect("new block");
+    assert_eq!(new.canal, "east");
+    assert_eq!(
+        h.state().state.selection,
+        Selection::Item(ItemRef::Block(new.id.clone()))
+    );
+    // A new block has no area yet; the inspector shows its fields to fill in.
+    h.get_by_label("Area");
+    assert_eq!(h.state().history.undo_label(), Some("add block"));
+}
