@@ -122,6 +122,33 @@ pub struct WeatherResult {
     /// Days whose ET₀ used a FAO-56 missing-data procedure (estimated Rs,
     /// ea from Tmin, default wind).
     pub estimated_days: usize,
+    /// Day-of-year climatology of daily ET₀ (10/50/90 % non-exceedance,
+    /// Weibull positions), from offtake-core `climate_stats`; empty if the
+    /// record has no complete year.
+    pub et0_band: Vec<offtake_core::climate_stats::DayOfYearBand>,
+}
+
+/// Day-of-year ET₀ bands of a series whose dates may have gaps: the gaps
+/// become missing days of a consecutive series.
+fn et0_band(
+    dates: &[NaiveDate],
+    et0: &[Option<f64>],
+) -> Result<Vec<offtake_core::climate_stats::DayOfYearBand>, String> {
+    use offtake_core::calendar::YearStart;
+    use offtake_core::climate_stats::{DailySeries, series_statistics};
+    let (Some(&first), Some(&last)) = (dates.first(), dates.last()) else {
+        return Ok(Vec::new());
+    };
+    let n = (last - first).num_days() as usize + 1;
+    let mut values = vec![None; n];
+    for (d, v) in dates.iter().zip(et0) {
+        if let Some(slot) = values.get_mut((*d - first).num_days() as usize) {
+            *slot = *v;
+        }
+    }
+    let series = DailySeries::new(first, &values, None).map_err(|e| e.to_string())?;
+    let stats = series_statistics(&series, YearStart::JANUARY, &[]).map_err(|e| e.to_string())?;
+    Ok(stats.day_of_year)
 }
 
 /// A weather file read once and kept while its path and modification time
@@ -236,13 +263,23 @@ fn weather(
             })
         })
         .count();
+    let dates: Vec<NaiveDate> = results.iter().map(|r| r.date).collect();
+    let et0_mm: Vec<Option<f64>> = results.iter().map(|r| r.et0_mm).collect();
+    let band = match et0_band(&dates, &et0_mm) {
+        Ok(b) => b,
+        Err(e) => {
+            warnings.push(format!("ET₀ climatology: {e}"));
+            Vec::new()
+        }
+    };
     Some(Ok((
         WeatherResult {
             file,
-            dates: results.iter().map(|r| r.date).collect(),
-            et0_mm: results.iter().map(|r| r.et0_mm).collect(),
+            dates,
+            et0_mm,
             rain_mm: days.iter().map(|d| d.rain_mm).collect(),
             estimated_days,
+            et0_band: band,
         },
         warnings,
     )))

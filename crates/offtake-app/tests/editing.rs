@@ -367,6 +367,10 @@ fn demo_weather_is_read_in_the_background_and_plotted() {
             .flatten()
             .all(|v| v.is_finite() && (0.0..25.0).contains(v))
     );
+    // The day-of-year climatology from offtake-core: one slot per calendar
+    // day of a leap year, bands ordered.
+    assert_eq!(w.et0_band.len(), 366);
+    assert!(w.et0_band.iter().all(|b| b.p10 <= b.p50 && b.p50 <= b.p90));
     h.get_by_label("Weather & ET₀").click();
     h.run();
     h.get_by_label("Year");

@@ -1,5 +1,6 @@
-//! The Weather & ET₀ tab: daily ET₀ and rain of a chosen year, computed in
-//! the background from the project's weather series.
+//! The Weather & ET₀ tab: daily ET₀ and rain of a chosen year over the
+//! day-of-year ET₀ climatology (10 % and 90 % of years), computed in the
+//! background from the project's weather series.
 
 use chrono::Datelike;
 use egui::{RichText, Ui};
@@ -91,6 +92,16 @@ impl WeatherTab {
                     .map(|v| [date_to_x(w.dates[i]), v])
             })
             .collect();
+        let band = |pick: fn(&offtake_core::climate_stats::DayOfYearBand) -> f64| -> Vec<[f64; 2]> {
+            w.et0_band
+                .iter()
+                .filter_map(|b| {
+                    chrono::NaiveDate::from_ymd_opt(year, b.month, b.day)
+                        .map(|d| [date_to_x(d), pick(b)])
+                })
+                .collect()
+        };
+        let grey = egui::Color32::from_gray(150);
         let spec = PlotSpec {
             id: format!("weather-{year}"),
             x: XAxis::Date,
@@ -104,7 +115,21 @@ impl WeatherTab {
                     style: egui_plot::LineStyle::Solid,
                     kind: SeriesKind::Bars { width: 1.0 },
                 },
-                Series::line("ET₀", et0, OKABE_ITO[0]),
+                Series {
+                    name: "ET₀ 10 % of years (day of year)".to_owned(),
+                    points: band(|b| b.p10),
+                    colour: grey,
+                    style: egui_plot::LineStyle::Dotted { spacing: 4.0 },
+                    kind: SeriesKind::Line,
+                },
+                Series {
+                    name: "ET₀ 90 % of years (day of year)".to_owned(),
+                    points: band(|b| b.p90),
+                    colour: grey,
+                    style: egui_plot::LineStyle::Dashed { length: 6.0 },
+                    kind: SeriesKind::Line,
+                },
+                Series::line(format!("ET₀ {year}"), et0, OKABE_ITO[0]),
             ],
         };
         plot::show(ui, &spec, commands);
