@@ -157,6 +157,9 @@ struct WeatherCache {
     key: Option<(PathBuf, Option<std::time::SystemTime>)>,
     days: Result<Vec<WeatherDay>, String>,
     warnings: Vec<String>,
+    /// ET₀ results of the last run and the station and method they used:
+    /// edits of the scheme do not change them, so they are reused.
+    et0: Option<(String, WeatherResult, Vec<String>)>,
 }
 
 /// The compute function the app runs by default: [`summarize`] plus the
@@ -166,6 +169,7 @@ pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
         key: None,
         days: Err(String::new()),
         warnings: Vec::new(),
+        et0: None,
     };
     Box::new(move |snap: Snapshot| {
         let mut out = summarize(&snap.project, &libraries);
@@ -208,10 +212,12 @@ fn weather(
             Ok(series) => {
                 cache.warnings = series.warnings.iter().map(ToString::to_string).collect();
                 cache.days = Ok(series.days);
+                cache.et0 = None;
             }
             Err(e) => {
                 cache.warnings = Vec::new();
                 cache.days = Err(format!("weather file: {e}"));
+                cache.et0 = None;
             }
         }
     }
@@ -242,6 +248,12 @@ fn weather(
         method,
         ..Et0Options::default()
     };
+    let et0_key = format!("{site:?} {options:?}");
+    if let Some((k, result, warnings)) = &cache.et0
+        && *k == et0_key
+    {
+        return Some(Ok((result.clone(), warnings.clone())));
+    }
     let results = match et0_daily_series(&site, days, &options) {
         Ok(r) => r,
         Err(e) => return Some(Err(format!("ET₀ of the weather series: {e}"))),
@@ -272,17 +284,16 @@ fn weather(
             Vec::new()
         }
     };
-    Some(Ok((
-        WeatherResult {
-            file,
-            dates,
-            et0_mm,
-            rain_mm: days.iter().map(|d| d.rain_mm).collect(),
-            estimated_days,
-            et0_band: band,
-        },
-        warnings,
-    )))
+    let result = WeatherResult {
+        file,
+        dates,
+        et0_mm,
+        rain_mm: days.iter().map(|d| d.rain_mm).collect(),
+        estimated_days,
+        et0_band: band,
+    };
+    cache.et0 = Some((et0_key, result.clone(), warnings.clone()));
+    Some(Ok((result, warnings)))
 }
 
 /// What can be computed from the project and the crop library so far:

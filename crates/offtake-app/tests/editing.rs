@@ -397,3 +397,46 @@ fn context_menu_adds_a_block_under_a_canal_and_selects_it() {
     h.get_by_label("Area");
     assert_eq!(h.state().history.undo_label(), Some("add block"));
 }
+
+#[test]
+fn scheme_edit_keeps_the_weather_results_and_station_edit_recomputes_them() {
+    let mut h = harness_with(None);
+    h.state_mut().open_demo();
+    settle(&mut h);
+    let before = h
+        .state()
+        .computed
+        .clone()
+        .expect("results")
+        .weather
+        .expect("weather");
+    // An edit of the scheme reuses the cached ET₀.
+    let p = h.state().project().expect("demo").clone();
+    let mut scheme = p.scheme.clone();
+    scheme.name.push_str(" (renamed)");
+    h.state_mut()
+        .push(Command::Edit(offtake_app::edit::DocEdit::SetScheme(scheme)));
+    settle(&mut h);
+    let same = h
+        .state()
+        .computed
+        .clone()
+        .expect("results")
+        .weather
+        .expect("weather");
+    assert_eq!(same, before);
+    // A higher station changes the ET₀ (lower air pressure, FAO-56 eq. 7).
+    let mut w = p.weather.clone();
+    w.elevation_m += 1500.0;
+    h.state_mut()
+        .push(Command::Edit(offtake_app::edit::DocEdit::SetWeather(w)));
+    settle(&mut h);
+    let after = h
+        .state()
+        .computed
+        .clone()
+        .expect("results")
+        .weather
+        .expect("weather");
+    assert_ne!(after.et0_mm, before.et0_mm);
+}
