@@ -280,7 +280,13 @@ impl OfftakeApp {
                 .default_size(260.0)
                 .show(ui, |ui| {
                     egui::ScrollArea::vertical().show(ui, |ui| {
-                        tree::ui(ui, project, &self.state.selection, &mut commands);
+                        tree::ui(
+                            ui,
+                            project,
+                            &self.libraries,
+                            &self.state.selection,
+                            &mut commands,
+                        );
                     });
                 });
         }

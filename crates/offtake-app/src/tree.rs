@@ -6,13 +6,20 @@
 
 use egui::{RichText, Ui};
 use offtake_core::project::{Canal, Project};
+use offtake_io::library::Libraries;
 
 use crate::command::{Command, ItemRef, Selection};
 use crate::edit::{self, DocEdit};
 use crate::fields::format_number;
 
 /// Draws the left panel.
-pub fn ui(ui: &mut Ui, doc: Option<&Project>, selection: &Selection, commands: &mut Vec<Command>) {
+pub fn ui(
+    ui: &mut Ui,
+    doc: Option<&Project>,
+    libraries: &Libraries,
+    selection: &Selection,
+    commands: &mut Vec<Command>,
+) {
     ui.label(RichText::new("Scheme").strong());
     let Some(doc) = doc else {
         ui.label("No project open.");
@@ -43,7 +50,7 @@ pub fn ui(ui: &mut Ui, doc: Option<&Project>, selection: &Selection, commands: &
             ui.label("No canals yet — right-click the scheme or use Add main canal.");
         }
         for canal in roots {
-            canal_node(ui, doc, canal, selection, commands, 0);
+            canal_node(ui, doc, libraries, canal, selection, commands, 0);
         }
         if ui.button("Add main canal").clicked() {
             let c = edit::new_canal(doc, None);
@@ -83,6 +90,7 @@ const MAX_DEPTH: usize = 16;
 fn canal_node(
     ui: &mut Ui,
     doc: &Project,
+    libraries: &Libraries,
     canal: &Canal,
     selection: &Selection,
     commands: &mut Vec<Command>,
@@ -142,7 +150,7 @@ fn canal_node(
     }
     ui.indent(("canal", &canal.id), |ui| {
         for child in doc.child_canals(&canal.id) {
-            canal_node(ui, doc, child, selection, commands, depth + 1);
+            canal_node(ui, doc, libraries, child, selection, commands, depth + 1);
         }
         for block in doc.blocks_on(&canal.id) {
             let me = Selection::Item(ItemRef::Block(block.id.clone()));
@@ -181,7 +189,7 @@ fn canal_node(
             });
             ui.indent(("block", &block.id), |ui| {
                 for p in doc.plantings.iter().filter(|p| p.block == block.id) {
-                    planting_node(ui, doc, p, selection, commands);
+                    planting_node(ui, doc, libraries, p, selection, commands);
                 }
             });
         }
@@ -191,15 +199,16 @@ fn canal_node(
 fn planting_node(
     ui: &mut Ui,
     doc: &Project,
+    libraries: &Libraries,
     p: &offtake_core::project::Planting,
     selection: &Selection,
     commands: &mut Vec<Command>,
 ) {
     let me = Selection::Item(ItemRef::Planting(p.id.clone()));
-    let crop = if p.crop.is_empty() {
-        "(no crop)"
-    } else {
-        p.crop.as_str()
+    let crop = match libraries.crop(&p.crop) {
+        Some(c) => c.name.as_str(),
+        None if p.crop.is_empty() => "(no crop)",
+        None => p.crop.as_str(),
     };
     let area = doc
         .planting_area_ha(p)
