@@ -19,6 +19,7 @@ use crate::document::OpenDocument;
 use crate::edit::DocEdit;
 use crate::history::History;
 use crate::menu::MenuInfo;
+use crate::recovery::Recovery;
 use crate::state::{Discard, RecomputeStatus, RuntimeState};
 use crate::status::SaveState;
 use crate::tabs::{Tabs, View};
@@ -88,6 +89,10 @@ pub struct OfftakeApp {
     dialogs: bool,
     /// The user confirmed closing with unsaved changes.
     closing: bool,
+    /// Autosave to a recovery file (off when `None`).
+    recovery: Option<Recovery>,
+    /// A recovery file from an earlier session waits for the user's answer.
+    offer_recovery: bool,
 }
 
 impl std::fmt::Debug for OfftakeApp {
@@ -151,6 +156,8 @@ impl OfftakeApp {
             images_rx,
             dialogs: true,
             closing: false,
+            recovery: None,
+            offer_recovery: false,
         }
     }
 
@@ -160,6 +167,86 @@ impl OfftakeApp {
     pub fn without_dialogs(mut self) -> Self {
         self.dialogs = false;
         self
+    }
+
+    /// Autosaves unsaved work to `path`; if the file is already there (an
+    /// earlier session ended without saving), offers to restore it.
+    #[must_use]
+    pub fn with_recovery_file(mut self, path: std::path::PathBuf) -> Self {
+        let r = Recovery::new(path);
+        self.offer_recovery = r.exists();
+        self.recovery = Some(r);
+        self
+    }
+
+    /// Writes the recovery file now if there are unsaved changes.
+    pub fn autosave_now(&mut self) {
+        self.autosave(true);
+    }
+
+    fn autosave(&mut self, force: bool) {
+        if self.offer_recovery {
+            // Never overwrite an earlier session's work before the user answers.
+            return;
+        }
+        let (Some(r), Some(doc)) = (self.recovery.as_mut(), self.document.as_ref()) else {
+            return;
+        };
+        if !doc.is_dirty() {
+            return;
+        }
+        if let Err(e) = r.write_if_due(&doc.project, Instant::now(), force) {
+            self.state.message = Some(format!("Autosave failed: {e}"));
+        }
+    }
+
+    fn clear_recovery(&mut self) {
+        if !self.offer_recovery
+            && let Some(r) = self.recovery.as_mut()
+        {
+            r.clear();
+        }
+    }
+
+    fn recovery_window(&mut self, ctx: &egui::Context) {
+        if !self.offer_recovery {
+            return;
+        }
+        let mut answer = None;
+        egui::Window::new("Restore unsaved work?")
+            .collapsible(false)
+            .resizable(false)
+            .show(ctx, |ui| {
+                ui.label(
+                    "The last session ended with unsaved changes. Restore them as an unsaved project?",
+                );
+                ui.horizontal(|ui| {
+                    if ui.button("Restore").clicked() {
+                        answer = Some(true);
+                    }
+                    if ui.button("Discard the recovered work").clicked() {
+                        answer = Some(false);
+                    }
+                });
+            });
+        let Some(restore) = answer else { return };
+        self.offer_recovery = false;
+        if restore {
+            let read = self.recovery.as_ref().map(Recovery::read);
+            match read {
+                Some(Ok(project)) => {
+                    self.set_document(OpenDocument::new(project));
+                    self.state.message =
+                        Some("Restored unsaved work — save it with File › Save as…".to_owned());
+                    // Keep the file until the restored work is saved again.
+                    self.autosave(true);
+                }
+                Some(Err(e)) => self.state.message = Some(format!("Could not restore: {e}")),
+                None => {}
+            }
+        } else {
+            self.clear_recovery();
+        }
     }
 
     /// Queues a command as if a view had pushed it; it runs at the end of the next frame.
@@ -321,6 +408,7 @@ impl OfftakeApp {
         });
         self.help_windows(ui.ctx());
         self.discard_guard(ui.ctx());
+        self.recovery_window(ui.ctx());
 
         commands.append(&mut self.commands);
         if !commands.is_empty() {
@@ -330,6 +418,7 @@ impl OfftakeApp {
         for command in commands {
             self.apply(command, ui.ctx());
         }
+        self.autosave(false);
     }
 
     /// Reads the keyboard shortcuts into commands. Undo, redo and Delete are
@@ -422,7 +511,10 @@ impl OfftakeApp {
                         .to_owned(),
                 );
             }
-            Command::DiscardAndRun(inner) => self.replace_document(*inner),
+            Command::DiscardAndRun(inner) => {
+                self.clear_recovery();
+                self.replace_document(*inner);
+            }
             Command::ExportPlotCsv { file_name, csv } => self.export_csv(&file_name, &csv),
             Command::ExportPlotImage { file_name, rect } => {
                 self.request_plot_image(ctx, file_name, rect);
@@ -505,6 +597,7 @@ impl OfftakeApp {
             Ok(()) => {
                 doc.mark_saved(path.to_path_buf());
                 self.remember_recent(path);
+                self.clear_recovery();
                 self.state.message = Some(format!("Saved {}", path.display()));
             }
             Err(e) => self.state.message = Some(format!("Could not save: {e}")),
@@ -561,6 +654,7 @@ impl OfftakeApp {
                 match pending {
                     Discard::Close => {
                         self.closing = true;
+                        self.clear_recovery();
                         ctx.send_viewport_cmd(egui::ViewportCommand::Close);
                     }
                     Discard::Command(cmd) => self.commands.push(Command::DiscardAndRun(cmd)),
@@ -719,6 +813,13 @@ impl OfftakeApp {
 impl eframe::App for OfftakeApp {
     fn ui(&mut self, ui: &mut Ui, _frame: &mut eframe::Frame) {
         OfftakeApp::ui(self, ui);
+    }
+
+    fn on_exit(&mut self) {
+        // A normal exit with everything saved leaves no recovery file.
+        if !self.document.as_ref().is_some_and(OpenDocument::is_dirty) {
+            self.clear_recovery();
+        }
     }
 }
 

@@ -27,6 +27,7 @@ pub mod inspector;
 pub mod menu;
 pub mod palette;
 pub mod plot;
+pub mod recovery;
 pub mod state;
 pub mod status;
 pub mod tabs;

@@ -11,7 +11,8 @@ fn main() -> eframe::Result {
         "Offtake",
         options,
         Box::new(|_cc| {
-            let mut app = offtake_app::OfftakeApp::new();
+            let mut app = offtake_app::OfftakeApp::new()
+                .with_recovery_file(offtake_app::recovery::default_recovery_path());
             app.open_demo();
             Ok(Box::new(app))
         }),

@@ -440,3 +440,62 @@ fn scheme_edit_keeps_the_weather_results_and_station_edit_recomputes_them() {
         .expect("weather");
     assert_ne!(after.et0_mm, before.et0_mm);
 }
+
+#[test]
+fn unsaved_work_is_autosaved_and_offered_back_after_a_crash() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let recovery = dir.path().join("recovery.ron");
+    // Session 1: unsaved edits, then the process "crashes" (no save, no exit).
+    let mut first = OfftakeApp::new()
+        .without_dialogs()
+        .with_recovery_file(recovery.clone());
+    first.open_project(invented_scheme());
+    first.autosave_now();
+    assert!(
+        recovery.is_file(),
+        "unsaved work is written to the recovery file"
+    );
+    drop(first);
+
+    // Session 2 offers to restore it.
+    let app = OfftakeApp::new()
+        .without_dialogs()
+        .with_recovery_file(recovery.clone());
+    let mut h = Harness::builder()
+        .with_size(egui::vec2(1400.0, 900.0))
+        .build_ui_state(|ui, app: &mut OfftakeApp| app.ui(ui), app);
+    h.run();
+    h.get_by_label_contains("ended with unsaved changes");
+    h.get_by_label("Restore").click();
+    settle(&mut h);
+    assert_eq!(h.state().project(), Some(&invented_scheme()));
+
+    // Saving the restored work removes the recovery file.
+    let saved = dir.path().join("flats.ron");
+    h.state_mut().save_to(&saved);
+    h.run();
+    assert!(!recovery.exists());
+}
+
+#[test]
+fn discarding_recovered_work_removes_the_file() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let recovery = dir.path().join("recovery.ron");
+    let mut first = OfftakeApp::new()
+        .without_dialogs()
+        .with_recovery_file(recovery.clone());
+    first.open_project(invented_scheme());
+    first.autosave_now();
+    drop(first);
+    let app = OfftakeApp::new()
+        .without_dialogs()
+        .with_recovery_file(recovery.clone());
+    let mut h = Harness::builder()
+        .with_size(egui::vec2(1400.0, 900.0))
+        .build_ui_state(|ui, app: &mut OfftakeApp| app.ui(ui), app);
+    h.run();
+    h.get_by_label("Discard the recovered work").click();
+    h.run();
+    assert!(!recovery.exists());
+    assert!(h.state().project().is_none());
+}
