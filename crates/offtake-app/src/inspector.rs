@@ -39,6 +39,8 @@ pub mod bounds {
     pub const SHARE: Bounds = Bounds::new("Share of block", "%", 0.0, 100.0);
     /// Planting spread.
     pub const SPREAD: Bounds = Bounds::new("Planting spread", "days", 0.0, 365.0);
+    /// Season length of a planting (FAO-56 stage lengths are scaled to it).
+    pub const SEASON: Bounds = Bounds::new("Season length", "days", 4.0, 365.0);
     /// Latitude.
     pub const LATITUDE: Bounds = Bounds::new("Latitude", "°", -90.0, 90.0);
     /// Elevation.
@@ -159,6 +161,28 @@ fn scheme_ui(ui: &mut Ui, doc: &Project, commands: &mut Vec<Command>) {
     {
         let mut s = doc.scheme.clone();
         s.name = name;
+        commands.push(Command::Edit(DocEdit::SetScheme(s)));
+    }
+    let notes_id = fid("scheme", "notes");
+    let mut notes = ui
+        .data(|d| d.get_temp::<String>(notes_id))
+        .unwrap_or_else(|| doc.scheme.notes.clone());
+    let label = ui.label("Notes (data sources, assumptions)");
+    let r = ui
+        .add(
+            egui::TextEdit::multiline(&mut notes)
+                .id(notes_id)
+                .desired_rows(3),
+        )
+        .labelled_by(label.id);
+    if r.has_focus() {
+        ui.data_mut(|d| d.insert_temp(notes_id, notes.clone()));
+    } else {
+        ui.data_mut(|d| d.remove::<String>(notes_id));
+    }
+    if r.lost_focus() && notes != doc.scheme.notes {
+        let mut s = doc.scheme.clone();
+        s.notes = notes;
         commands.push(Command::Edit(DocEdit::SetScheme(s)));
     }
     ui.label(format!(
@@ -453,6 +477,34 @@ fn planting_ui(
     if let Some(season) = name_field(ui, fid(&p.id, "season"), "Season", &p.season).committed {
         let mut n = p.clone();
         n.season = season;
+        commands.push(set_planting(n));
+    }
+    let library_days = ctx.libraries.crop(&p.crop).map(|c| c.stages.total_days());
+    let mut own = p.season_length_days.is_some();
+    let hint = library_days.map_or_else(String::new, |d| format!(" (library: {d} days)"));
+    if ui
+        .checkbox(&mut own, format!("Own season length{hint}"))
+        .changed()
+    {
+        let mut n = p.clone();
+        n.season_length_days = own.then(|| library_days.unwrap_or(120));
+        commands.push(set_planting(n));
+    }
+    if let Some(days) = p.season_length_days
+        && let Some(v) = number_field(
+            ui,
+            fid(&p.id, "season_len"),
+            "Season length",
+            f64::from(days),
+            &bounds::SEASON,
+            0,
+        )
+        .committed
+        && v >= 4.0
+        && v.fract() == 0.0
+    {
+        let mut n = p.clone();
+        n.season_length_days = Some(v as u32);
         commands.push(set_planting(n));
     }
     strategy_ui(ui, p, commands);
