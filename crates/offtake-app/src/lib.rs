@@ -5,15 +5,27 @@
 //! drive headless with egui_kittest.
 //!
 //! ## Structure
-//! - [`app`]: the window, panels, shortcuts and the end-of-frame command loop.
-//! - [`command`]: the [`command::Command`] enum views emit.
+//! - [`app`]: the window, panels, shortcuts and the end-of-frame command loop;
+//!   file commands (new, open, save, import weather), unsaved-changes guard.
+//! - [`command`]: the [`command::Command`] enum views emit, tabs, selection.
+//! - [`document`]: the open project with its file and saved state.
+//! - [`edit`]: undoable edits of the project ([`edit::DocEdit`]) and their inverses.
 //! - [`history`]: undo/redo by inverse edits.
 //! - [`worker`]: debounced background recomputation on a thread.
-//! - [`compute`]: the cached results the worker produces.
+//! - [`compute`]: what the worker computes ([`compute::Snapshot`] in,
+//!   [`compute::Computed`] out) — the plug for the computation chain.
+//! - [`recovery`]: autosave to a recovery file and restore after a crash.
 //! - [`state`]: runtime state beside the document.
-//! - [`menu`], [`tree`], [`inspector`], [`status`], [`help`]: the panels.
+//! - [`menu`], [`tree`], [`inspector`], [`fields`], [`status`], [`help`]: the panels.
 //! - [`tabs`]: the centre workspace tabs, one file each.
 //! - [`plot`], [`palette`]: the shared plot widget and colours.
+//!
+//! ## Plugging in a computation
+//! [`OfftakeApp::with_compute`] takes any
+//! `Box<dyn FnMut(compute::Snapshot) -> compute::Computed + Send>`; the
+//! default, [`compute::default_compute`], validates the project, reads the
+//! weather and computes ET₀ and the library Kc curves. Add a field to
+//! [`compute::Computed`], fill it there, and read it in a tab.
 
 pub mod app;
 pub mod command;

@@ -2,7 +2,7 @@
 //!
 //! Source: Okabe, M. and Ito, K. (2008), "Color Universal Design (CUD) — How
 //! to make figures and presentations that are friendly to colorblind people",
-//! J*FLY, https://jfly.uni-koeln.de/color/ (eight colours; black is left out
+//! J*FLY, <https://jfly.uni-koeln.de/color/> (eight colours; black is left out
 //! here because it vanishes on the dark theme). Hex values as published there
 //! (from memory; checked against the commonly reproduced table).
 //!
