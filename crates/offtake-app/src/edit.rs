@@ -393,3 +393,86 @@ pub fn add_planting(planting: Planting) -> DocEdit {
         ..Subtree::default()
     }))
 }
+
+#[cfg(test)]
+mod tests {
+    use super::{
+        DocEdit, EditError, ItemRef, add_planting, fresh_id, new_block, new_canal, new_planting,
+    };
+    use crate::history::Edit;
+    use offtake_core::project::Project;
+
+    /// An invented tree: main → branch → minor, a block on each, a planting on each block.
+    fn tree() -> Project {
+        let mut p = Project::default();
+        let main = new_canal(&p, None);
+        p.canals.push(main.clone());
+        let branch = new_canal(&p, Some(&main.id));
+        p.canals.push(branch.clone());
+        let minor = new_canal(&p, Some(&branch.id));
+        p.canals.push(minor.clone());
+        for c in [&main, &branch, &minor] {
+            let b = new_block(&p, &c.id);
+            p.blocks.push(b.clone());
+            let pl = new_planting(&p, &b.id);
+            p.plantings.push(pl);
+        }
+        p
+    }
+
+    #[test]
+    fn removing_a_canal_takes_its_subtree_and_the_inverse_restores_positions() {
+        let original = tree();
+        let mut p = original.clone();
+        let branch = p.canals[1].id.clone();
+        let inverse = DocEdit::Remove(ItemRef::Canal(branch.clone()))
+            .apply(&mut p)
+            .expect("remove");
+        assert_eq!(p.canals.len(), 1);
+        assert_eq!(p.blocks.len(), 1);
+        assert_eq!(p.plantings.len(), 1);
+        let again = inverse.apply(&mut p).expect("insert back");
+        assert_eq!(p, original);
+        assert_eq!(again, DocEdit::Remove(ItemRef::Canal(branch)));
+    }
+
+    #[test]
+    fn kinds_get_deeper_down_the_tree_and_ids_are_fresh() {
+        let p = tree();
+        let kinds: Vec<&str> = p.canals.iter().map(|c| c.kind.label()).collect();
+        assert_eq!(kinds, ["main", "branch", "distributary"]);
+        let id = fresh_id(&p, "canal");
+        assert!(p.canal(&id).is_none());
+    }
+
+    #[test]
+    fn adding_appends_and_duplicate_ids_are_refused() {
+        let mut p = tree();
+        let block = p.blocks[0].id.clone();
+        let pl = new_planting(&p, &block);
+        let edit = add_planting(pl.clone());
+        let inverse = edit.clone().apply(&mut p).expect("add");
+        assert_eq!(p.plantings.last(), Some(&pl));
+        assert_eq!(inverse, DocEdit::Remove(ItemRef::Planting(pl.id.clone())));
+        assert_eq!(
+            edit.apply(&mut p),
+            Err(EditError::DuplicateId(pl.id.clone()))
+        );
+    }
+
+    #[test]
+    fn replacing_a_record_refuses_a_changed_id() {
+        let mut p = tree();
+        let mut c = p.canals[0].clone();
+        let id = c.id.clone();
+        c.id = "other".into();
+        assert!(matches!(
+            DocEdit::SetCanal {
+                id,
+                canal: Box::new(c)
+            }
+            .apply(&mut p),
+            Err(EditError::IdChanged { .. })
+        ));
+    }
+}
