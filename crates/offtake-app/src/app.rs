@@ -93,6 +93,8 @@ pub struct OfftakeApp {
     recovery: Option<Recovery>,
     /// A recovery file from an earlier session waits for the user's answer.
     offer_recovery: bool,
+    /// The weather import window, while open.
+    pub import: Option<crate::import::ImportJob>,
 }
 
 impl std::fmt::Debug for OfftakeApp {
@@ -158,6 +160,7 @@ impl OfftakeApp {
             closing: false,
             recovery: None,
             offer_recovery: false,
+            import: None,
         }
     }
 
@@ -409,6 +412,7 @@ impl OfftakeApp {
         self.help_windows(ui.ctx());
         self.discard_guard(ui.ctx());
         self.recovery_window(ui.ctx());
+        self.import_window(ui.ctx());
 
         commands.append(&mut self.commands);
         if !commands.is_empty() {
@@ -543,24 +547,63 @@ impl OfftakeApp {
         }
     }
 
-    /// Attaches a weather CSV (Offtake's column names) to the project as an
-    /// undoable edit; the worker reads it and computes daily ET₀.
+    /// Picks a weather CSV and opens the import window for it.
     fn import_weather(&mut self) {
-        let Some(doc) = self.document.as_ref() else {
+        if self.document.is_none() {
             return;
-        };
+        }
         if !self.dialogs {
             self.state.message = Some("File dialogs are off".to_owned());
             return;
         }
-        let Some(file) = rfd::FileDialog::new()
+        if let Some(file) = rfd::FileDialog::new()
             .add_filter("Weather CSV", &["csv"])
             .pick_file()
-        else {
+        {
+            self.preview_weather(file);
+        }
+    }
+
+    /// Reads `file` in the background and shows the import window.
+    pub fn preview_weather(&mut self, file: std::path::PathBuf) {
+        self.import = Some(crate::import::ImportJob::start(file));
+    }
+
+    /// Blocks until the weather import window has its result (tests only).
+    pub fn wait_for_import(&mut self, timeout: Duration) {
+        if let Some(job) = self.import.as_mut() {
+            job.wait(timeout);
+        }
+    }
+
+    fn import_window(&mut self, ctx: &egui::Context) {
+        let Some(job) = self.import.as_mut() else {
+            return;
+        };
+        job.poll();
+        let mut answer = None;
+        egui::Window::new("Import weather")
+            .collapsible(false)
+            .default_width(640.0)
+            .show(ctx, |ui| answer = crate::import::ui(ui, job));
+        match answer {
+            Some(crate::import::ImportAnswer::Attach(file)) => {
+                self.import = None;
+                self.attach_weather(&file);
+            }
+            Some(crate::import::ImportAnswer::Cancel) => self.import = None,
+            None => {}
+        }
+    }
+
+    /// Attaches a weather file to the project as an undoable edit; the worker
+    /// reads it and computes daily ET₀.
+    fn attach_weather(&mut self, file: &std::path::Path) {
+        let Some(doc) = self.document.as_ref() else {
             return;
         };
         let mut weather = doc.project.weather.clone();
-        weather.path = relative_to_project(&file, doc.path.as_deref());
+        weather.path = relative_to_project(file, doc.path.as_deref());
         self.edit(DocEdit::SetWeather(weather));
         self.state.selection = Selection::Weather;
         self.state.message = Some(

@@ -14,6 +14,7 @@
 //! - [`worker`]: debounced background recomputation on a thread.
 //! - [`compute`]: what the worker computes ([`compute::Snapshot`] in,
 //!   [`compute::Computed`] out) — the plug for the computation chain.
+//! - [`import`]: the weather import window (background read, preview, warnings).
 //! - [`recovery`]: autosave to a recovery file and restore after a crash.
 //! - [`state`]: runtime state beside the document.
 //! - [`menu`], [`tree`], [`inspector`], [`fields`], [`status`], [`help`]: the panels.
@@ -35,6 +36,7 @@ pub mod edit;
 pub mod fields;
 pub mod help;
 pub mod history;
+pub mod import;
 pub mod inspector;
 pub mod menu;
 pub mod palette;

@@ -499,3 +499,62 @@ fn discarding_recovered_work_removes_the_file() {
     assert!(!recovery.exists());
     assert!(h.state().project().is_none());
 }
+
+#[test]
+fn weather_import_window_previews_then_attaches_the_file() {
+    let weather = std::path::PathBuf::from(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/../../demo-projects/demo-weather/weather.csv"
+    ));
+    let mut h = harness_with(Some(invented_scheme()));
+    settle(&mut h);
+    h.state_mut().preview_weather(weather.clone());
+    h.state_mut().wait_for_import(Duration::from_secs(30));
+    h.run();
+    h.get_by_label_contains("days from 2001-01-01");
+    h.get_by_label("Tmax (°C)");
+    h.get_by_label("Attach to project").click();
+    settle(&mut h);
+    let p = h.state().project().expect("project");
+    assert_eq!(std::path::Path::new(&p.weather.path), weather.as_path());
+    assert!(h.state().import.is_none());
+    // Undoable like every edit.
+    h.state_mut().push(Command::Undo);
+    settle(&mut h);
+    assert!(
+        h.state()
+            .project()
+            .expect("project")
+            .weather
+            .path
+            .is_empty()
+    );
+}
+
+#[test]
+fn weather_import_of_a_foreign_header_shows_the_error_and_the_guess() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let path = dir.path().join("station.csv");
+    std::fs::write(
+        &path,
+        "Day,Max Temp (F),Min Temp (F),Precip (in)\n2031-01-01,80,60,0.1\n",
+    )
+    .expect("write");
+    let mut h = harness_with(Some(invented_scheme()));
+    settle(&mut h);
+    h.state_mut().preview_weather(path);
+    h.state_mut().wait_for_import(Duration::from_secs(30));
+    h.run();
+    h.get_by_label_contains("\"Max Temp (F)\" is ");
+    h.get_by_label("Close").click();
+    h.run();
+    assert!(h.state().import.is_none());
+    assert!(
+        h.state()
+            .project()
+            .expect("project")
+            .weather
+            .path
+            .is_empty()
+    );
+}
