@@ -11,6 +11,7 @@ use clap::{Parser, Subcommand};
 
 mod cmd_et0;
 mod cmd_weather_check;
+mod cmd_weather_stats;
 
 /// Irrigation crop water demand planner (headless).
 #[derive(Debug, Parser)]
@@ -24,7 +25,7 @@ struct Cli {
 enum Command {
     /// Reference evapotranspiration (ET0) of each day of a weather file.
     Et0(cmd_et0::Args),
-    /// Weather series: quality checks.
+    /// Weather series: quality checks and multi-year statistics.
     Weather {
         #[command(subcommand)]
         command: WeatherCommand,
@@ -35,6 +36,8 @@ enum Command {
 enum WeatherCommand {
     /// Read a weather file and print its quality report.
     Check(cmd_weather_check::Args),
+    /// Yearly, monthly and 10-day ET0 and rain statistics with dependable values.
+    Stats(cmd_weather_stats::Args),
 }
 
 fn main() -> ExitCode {
@@ -44,6 +47,9 @@ fn main() -> ExitCode {
         Command::Weather {
             command: WeatherCommand::Check(args),
         } => cmd_weather_check::run(args),
+        Command::Weather {
+            command: WeatherCommand::Stats(args),
+        } => cmd_weather_stats::run(args),
     };
     match result {
         Ok(()) => ExitCode::SUCCESS,
