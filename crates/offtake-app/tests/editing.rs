@@ -294,6 +294,11 @@ fn demo_scheme_opens_with_its_tree_and_validation() {
         problems.iter().all(|p| !p.contains("crop library")),
         "demo crops missing: {problems:?}"
     );
+    // The demo validates: its seasons fit its blocks.
+    assert!(
+        problems.iter().all(|p| !p.contains("over the block area")),
+        "demo over-planted: {problems:?}"
+    );
     let count = match problems.len() {
         0 => "No data warnings".to_owned(),
         1 => "1 data warning".to_owned(),
