@@ -131,7 +131,10 @@ fn cross_check_asce_short_vs_fao56_examples_17_and_18() {
     .unwrap()
     .et0_mm_day(&day)
     .unwrap();
-    assert!((asce - fao).abs() / fao < 0.01, "Ex 18: ASCE {asce} vs FAO {fao}");
+    assert!(
+        (asce - fao).abs() / fao < 0.01,
+        "Ex 18: ASCE {asce} vs FAO {fao}"
+    );
 
     // Example 17 (monthly, G by eq. 44) through daily_steps.
     let c = chain("FAO-56 Example 17, pp. 70-71");
@@ -163,7 +166,10 @@ fn cross_check_asce_short_vs_fao56_examples_17_and_18() {
     let p = atmosphere::atmospheric_pressure_kpa(i["elevation_m"]);
     let fao = daily_steps(p, &inputs, DailyReference::Fao56).et_mm_day;
     let asce = daily_steps(p, &inputs, DailyReference::AsceShort).et_mm_day;
-    assert!((asce - fao).abs() / fao < 0.01, "Ex 17: ASCE {asce} vs FAO {fao}");
+    assert!(
+        (asce - fao).abs() / fao < 0.01,
+        "Ex 17: ASCE {asce} vs FAO {fao}"
+    );
     let (expected, tol) = expected_et0(&c);
     assert!((fao - expected).abs() <= tol);
 }
@@ -194,9 +200,15 @@ fn radiation_and_wind_sources() {
     let (site, mut day, _) = example_18();
     let ctx = Et0Context::new(&site, &Et0Options::default()).unwrap();
     day.solar_mj = Some(20.0);
-    assert_eq!(ctx.day(&day).outcome.unwrap().radiation, RadiationSource::Measured);
+    assert_eq!(
+        ctx.day(&day).outcome.unwrap().radiation,
+        RadiationSource::Measured
+    );
     day.wind_ms = Some(0.1);
-    assert_eq!(ctx.day(&day).outcome.unwrap().wind, WindSource::RaisedToMinimum);
+    assert_eq!(
+        ctx.day(&day).outcome.unwrap().wind,
+        WindSource::RaisedToMinimum
+    );
 }
 
 #[test]
@@ -238,21 +250,47 @@ fn day_errors_are_typed_and_never_nan() {
         let e = r.outcome.unwrap_err();
         assert!(want(&e), "unexpected {e:?}");
     };
-    check(&|d| d.tmin_c = Some(30.0), &|e| matches!(e, Et0Error::TminAboveTmax { .. }));
+    check(&|d| d.tmin_c = Some(30.0), &|e| {
+        matches!(e, Et0Error::TminAboveTmax { .. })
+    });
     check(&|d| d.tmax_c = None, &|e| {
         matches!(e, Et0Error::MissingTemperature { quantity: "tmax_c" })
     });
     check(&|d| d.tmax_c = Some(f64::NAN), &|e| {
-        matches!(e, Et0Error::NotFinite { quantity: "tmax_c", .. })
+        matches!(
+            e,
+            Et0Error::NotFinite {
+                quantity: "tmax_c",
+                ..
+            }
+        )
     });
     check(&|d| d.rhmax_pct = Some(120.0), &|e| {
-        matches!(e, Et0Error::RelativeHumidityOutOfRange { quantity: "rhmax_pct", .. })
+        matches!(
+            e,
+            Et0Error::RelativeHumidityOutOfRange {
+                quantity: "rhmax_pct",
+                ..
+            }
+        )
     });
     check(&|d| d.wind_ms = Some(-1.0), &|e| {
-        matches!(e, Et0Error::Negative { quantity: "wind_ms", .. })
+        matches!(
+            e,
+            Et0Error::Negative {
+                quantity: "wind_ms",
+                ..
+            }
+        )
     });
     check(&|d| d.solar_mj = Some(-3.0), &|e| {
-        matches!(e, Et0Error::Negative { quantity: "solar_mj", .. })
+        matches!(
+            e,
+            Et0Error::Negative {
+                quantity: "solar_mj",
+                ..
+            }
+        )
     });
     check(&|d| d.sunshine_h = Some(20.0), &|e| {
         matches!(e, Et0Error::SunshineExceedsDaylength { .. })
@@ -288,7 +326,9 @@ fn negative_et0_is_clipped_by_default() {
     .day(&day);
     let raw_value = raw.et0_mm.unwrap();
     assert!(raw_value < 0.0 && raw_value.is_finite(), "{raw_value}");
-    let clipped = Et0Context::new(&site, &Et0Options::default()).unwrap().day(&day);
+    let clipped = Et0Context::new(&site, &Et0Options::default())
+        .unwrap()
+        .day(&day);
     assert_eq!(clipped.et0_mm, Some(0.0));
     assert!(clipped.outcome.unwrap().clipped_to_zero);
 }
@@ -298,8 +338,14 @@ fn method_names_parse_exactly() {
     for m in Et0Method::ALL {
         assert_eq!(m.to_string().parse::<Et0Method>().unwrap(), m);
     }
-    assert_eq!("asce-tall".parse::<Et0Method>().unwrap(), Et0Method::AsceTall);
-    assert_eq!("hargreaves".parse::<Et0Method>().unwrap(), Et0Method::HargreavesSamani);
+    assert_eq!(
+        "asce-tall".parse::<Et0Method>().unwrap(),
+        Et0Method::AsceTall
+    );
+    assert_eq!(
+        "hargreaves".parse::<Et0Method>().unwrap(),
+        Et0Method::HargreavesSamani
+    );
     assert!("PM".parse::<Et0Method>().is_err());
     assert!("penman".parse::<Et0Method>().is_err());
 }

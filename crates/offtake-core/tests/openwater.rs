@@ -108,7 +108,10 @@ fn bad_inputs_are_typed_errors() {
     };
     assert!(matches!(
         meyer_evaporation_mm_day(&bad, MeyerWater::LargeDeep),
-        Err(OpenWaterError::Negative { quantity: "wind_ms", .. })
+        Err(OpenWaterError::Negative {
+            quantity: "wind_ms",
+            ..
+        })
     ));
     let nan = OpenWaterInputs {
         air_temperature_c: f64::NAN,

@@ -5,7 +5,9 @@
 #![allow(clippy::unwrap_used, clippy::expect_used)]
 
 use chrono::NaiveDate;
-use offtake_core::et0::{Et0Context, Et0Method, Et0Options, asce, atmosphere as atm, radiation as rad, wind};
+use offtake_core::et0::{
+    Et0Context, Et0Method, Et0Options, asce, atmosphere as atm, radiation as rad, wind,
+};
 use offtake_core::openwater;
 use offtake_core::units;
 use offtake_core::weather::{StationSite, WeatherDay};

@@ -9,4 +9,4 @@
 pub mod export;
 pub mod library;
 pub mod project_file;
-
+pub mod weather;

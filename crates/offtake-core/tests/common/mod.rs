@@ -66,7 +66,9 @@ pub fn printed_value_and_tolerance(printed: &str, extra_units: f64) -> (f64, f64
 }
 
 fn get(inputs: &BTreeMap<String, f64>, key: &str) -> f64 {
-    *inputs.get(key).unwrap_or_else(|| panic!("missing input {key}"))
+    *inputs
+        .get(key)
+        .unwrap_or_else(|| panic!("missing input {key}"))
 }
 
 /// Evaluates a single named quantity from its inputs with the crate's functions.
@@ -297,8 +299,14 @@ pub fn eval_daily_chain(i: &BTreeMap<String, f64>) -> BTreeMap<String, f64> {
         ("g_mj", soil),
         ("rn_minus_g_mj", rn - soil),
         ("rn_minus_g_mm", MM_DAY_PER_MJ_M2_DAY * (rn - soil)),
-        ("radiation_term_mm", radiation_term_mm(&combination, FAO56_DAILY)),
-        ("aerodynamic_term_mm", aerodynamic_term_mm(&combination, FAO56_DAILY)),
+        (
+            "radiation_term_mm",
+            radiation_term_mm(&combination, FAO56_DAILY),
+        ),
+        (
+            "aerodynamic_term_mm",
+            aerodynamic_term_mm(&combination, FAO56_DAILY),
+        ),
         ("et0_mm", steps.et_mm_day),
         (
             "hargreaves_mm",
@@ -369,7 +377,10 @@ pub fn eval_hourly_chain(i: &BTreeMap<String, f64>) -> BTreeMap<String, f64> {
         ("rn_mj", s.rn_mj),
         ("g_mj", s.soil_heat_flux_mj),
         ("rn_minus_g_mj", s.rn_mj - s.soil_heat_flux_mj),
-        ("rn_minus_g_mm", MM_DAY_PER_MJ_M2_DAY * (s.rn_mj - s.soil_heat_flux_mj)),
+        (
+            "rn_minus_g_mm",
+            MM_DAY_PER_MJ_M2_DAY * (s.rn_mj - s.soil_heat_flux_mj),
+        ),
         ("radiation_term_mm", s.radiation_term_mm),
         ("aerodynamic_term_mm", s.aerodynamic_term_mm),
         ("et0_mm", s.et_mm),
