@@ -16,6 +16,7 @@ pub mod balance;
 pub mod calendar;
 pub mod climate_stats;
 pub mod crop;
+pub mod engine;
 pub mod et0;
 pub mod gapfill;
 pub mod openwater;
