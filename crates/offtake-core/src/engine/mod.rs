@@ -79,6 +79,9 @@ pub enum EngineError {
         /// The date found.
         found: NaiveDate,
     },
+    /// Gap filling failed (e.g. dates not increasing).
+    #[error("weather gap filling: {0}")]
+    WeatherFill(String),
     /// The station or ET₀ options are unusable.
     #[error("weather station: {0}")]
     Station(crate::et0::Et0Error),
@@ -357,8 +360,59 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
         warnings.push(format!("validation: {p}"));
     }
 
+    // Gaps: the default gap filling (linear interpolation up to 3 days, the
+    // FAO-56 missing-data procedures beyond; rain is not invented).
+    // Days whose values ET₀ rejects (e.g. Tmin above Tmax) are treated as
+    // missing (rain kept) and filled like gaps, with a warning.
+    let checker =
+        crate::et0::Et0Context::new(&site_of(project), &crate::et0::Et0Options::default())
+            .map_err(EngineError::Station)?;
+    let mut rejected: Vec<String> = Vec::new();
+    let cleaned: Vec<WeatherDay> = input
+        .weather
+        .iter()
+        .map(|d| match checker.et0_mm_day(d) {
+            Err(e) if d.tmax_c.is_some() && d.tmin_c.is_some() => {
+                rejected.push(format!("{}: {e}", d.date));
+                WeatherDay {
+                    rain_mm: d.rain_mm,
+                    ..WeatherDay::empty(d.date)
+                }
+            }
+            _ => *d,
+        })
+        .collect();
+    if !rejected.is_empty() {
+        warnings.push(format!(
+            "weather: {} days rejected by the ET0 checks and filled as gaps (first: {})",
+            rejected.len(),
+            rejected
+                .iter()
+                .take(3)
+                .cloned()
+                .collect::<Vec<_>>()
+                .join("; ")
+        ));
+    }
+    let filled =
+        crate::gapfill::fill_gaps(&cleaned, &crate::gapfill::GapFillOptions::default(), &[])
+            .map_err(|e| EngineError::WeatherFill(e.to_string()))?;
+    let inserted = filled.days.len().saturating_sub(input.weather.len());
+    let filled_days = filled
+        .marks
+        .iter()
+        .filter(|m| {
+            m.iter()
+                .any(|k| k.is_not_measured() && *k != crate::gapfill::FillMark::Missing)
+        })
+        .count();
+    if inserted > 0 || filled_days > 0 {
+        warnings.push(format!(
+            "weather: {inserted} missing dates added and values filled on {filled_days} days (interpolation up to 3 days, FAO-56 missing-data procedures beyond)"
+        ));
+    }
     let weather = weather_prep::prepare_weather(
-        input.weather,
+        &filled.days,
         &site_of(project),
         project.options.et0_method,
         &input.perturbation,

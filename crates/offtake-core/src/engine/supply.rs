@@ -119,6 +119,49 @@ fn available_ls(flow: &SupplyFlow, w: &PreparedWeather) -> Result<Vec<f64>, Engi
     }
 }
 
+/// Lowers the available flow of each rotation cycle to what the units can
+/// take: in a rotating cycle every unit receives the share Qa·Dᵢ/D of the
+/// flow while open (see [`crate::rotation`]), so Qa ≤ capᵢ·D/Dᵢ for each
+/// unit with a capacity. Returns the number of cycles lowered.
+fn limit_to_capacities(
+    units: &[crate::rotation::RotationUnit],
+    avail_ls: &mut [f64],
+    period_days: u32,
+) -> usize {
+    let period = (period_days.max(1)) as usize;
+    let mut lowered = 0;
+    let mut start = 0;
+    while start < avail_ls.len() {
+        let end = (start + period).min(avail_ls.len());
+        let demand: Vec<f64> = units
+            .iter()
+            .map(|u| u.demand_m3_day[start..end].iter().sum())
+            .collect();
+        let total: f64 = demand.iter().sum();
+        let days = (end - start) as f64;
+        let qa = avail_ls[start..end].iter().sum::<f64>() / days;
+        let mut limit = f64::INFINITY;
+        for (u, d) in units.iter().zip(&demand) {
+            if let Some(cap) = u.capacity_ls
+                && *d > 0.0
+            {
+                limit = limit.min(cap * total / d);
+            }
+        }
+        // Only rotating cycles (available volume below demand) are limited.
+        let available_m3 = qa * days * 86.4;
+        if qa > limit && available_m3 < total && qa > 0.0 {
+            let k = limit / qa;
+            for a in &mut avail_ls[start..end] {
+                *a *= k;
+            }
+            lowered += 1;
+        }
+        start = end;
+    }
+    lowered
+}
+
 fn weighted(items: impl Iterator<Item = (f64, Option<f64>)>) -> Option<f64> {
     let (mut s, mut a) = (0.0, 0.0);
     for (area, v) in items {
@@ -206,10 +249,17 @@ pub fn supply_and_rerun(
         return Ok(result);
     }
     let units = units_at_node(demand, node, 0..w.days());
+    let reduced = limit_to_capacities(&units, &mut avail, project.options.rotation_period_days);
+    if reduced > 0 {
+        result.warnings.push(format!(
+            "roster: the flow released to {} was reduced in {reduced} rotation cycles so that no canal exceeds its existing capacity",
+            result.rotation_node
+        ));
+    }
     let roster = rotation_roster(
         w.start,
         &units,
-        &AvailableFlow::Daily(avail),
+        &AvailableFlow::Daily(avail.clone()),
         project.options.rotation_period_days,
     )
     .map_err(|e| EngineError::Rotation(e.to_string()))?;
