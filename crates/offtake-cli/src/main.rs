@@ -1,11 +1,16 @@
 //! `offtake`: the headless Offtake commands for batch work.
 //!
 //! The command names, options and output columns are a stable contract (see
-//! DESIGN.md, "Headless command contract").
+//! DESIGN.md, "Headless command contract"). Each command lives in its own
+//! module; this file only parses arguments and dispatches. Errors print their
+//! whole cause chain and exit non-zero.
 
 use std::process::ExitCode;
 
 use clap::{Parser, Subcommand};
+
+mod cmd_et0;
+mod cmd_weather_check;
 
 /// Irrigation crop water demand planner (headless).
 #[derive(Debug, Parser)]
@@ -16,10 +21,38 @@ struct Cli {
 }
 
 #[derive(Debug, Subcommand)]
-enum Command {}
+enum Command {
+    /// Reference evapotranspiration (ET0) of each day of a weather file.
+    Et0(cmd_et0::Args),
+    /// Weather series: quality checks.
+    Weather {
+        #[command(subcommand)]
+        command: WeatherCommand,
+    },
+}
 
+#[derive(Debug, Subcommand)]
+enum WeatherCommand {
+    /// Read a weather file and print its quality report.
+    Check(cmd_weather_check::Args),
+}
 
 fn main() -> ExitCode {
     let cli = Cli::parse();
-    match cli.command {}
+    let result = match &cli.command {
+        Command::Et0(args) => cmd_et0::run(args),
+        Command::Weather {
+            command: WeatherCommand::Check(args),
+        } => cmd_weather_check::run(args),
+    };
+    match result {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(err) => {
+            eprintln!("{err}");
+            for cause in err.chain().skip(1) {
+                eprintln!("  caused by: {cause}");
+            }
+            ExitCode::FAILURE
+        }
+    }
 }
