@@ -317,10 +317,12 @@ pub struct SeasonDetail {
     pub first_date: NaiveDate,
     /// Whether the season is complete.
     pub complete: bool,
-    /// Area-weighted daily balance over the season's days inside the record
-    /// (one cohort: exactly its balance; eq. 85 closes for the weighted sum
-    /// too, being linear). Paddy and period methods: `irrigation_mm` is the
-    /// NIR before leaching and the soil columns are not a balance.
+    /// Area-weighted daily balance over the season's days inside the record.
+    /// With one cohort it is exactly that cohort's balance (eq. 85 closes);
+    /// with several, the weighted sum closes eq. 85 only while the same
+    /// cohorts are in the field (a cohort entering or leaving adds or drops
+    /// its depletion). Paddy and period methods: `irrigation_mm` is the NIR
+    /// before leaching and the soil columns are not a balance.
     pub days: Vec<BalanceDay>,
 }
 
