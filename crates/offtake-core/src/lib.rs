@@ -21,6 +21,7 @@ pub mod et0;
 pub mod gapfill;
 pub mod openwater;
 pub mod paddy;
+pub mod planting;
 pub mod project;
 pub mod quality;
 pub mod rain;

@@ -1,8 +1,8 @@
 //! Evaporation from open water (storage reservoirs feeding a scheme).
 //!
 //! * Meyer (1915) and Rohwer (1931) mass-transfer formulas in the SI handbook
-//!   form of Subramanya, K. (2008), *Engineering Hydrology*, 3rd ed., Tata
-//!   McGraw-Hill, New Delhi, §3.5, eqs. 3.3 and 3.4, p. 63 — vapour pressures in
+//!   form of Subramanya, K. (2009), *Engineering Hydrology*, 3rd ed., Tata
+//!   McGraw-Hill, New Delhi, §3.5, eq. 3.3 (Meyer) and the Rohwer formula that follows it, p. 63 — vapour pressures in
 //!   mm of mercury, wind in km/h — with the 1/7 power law for wind at another
 //!   height (§3.5, eq. 3.5, [MEMORY] equation number).
 //! * Penman (1948) open-water evaporation in the form of Shuttleworth, W.J.
@@ -75,7 +75,7 @@ pub enum OpenWaterError {
     },
 }
 
-/// Meyer's coefficient K_M (Subramanya 2008, p. 63).
+/// Meyer's coefficient K_M (Subramanya 2009, p. 63).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum MeyerWater {
     /// Large, deep waters: K_M = 0.36.
@@ -126,7 +126,7 @@ pub fn saturation_vapour_pressure_mmhg(temperature_c: f64) -> f64 {
 ///
 /// * `wind` — speed at `from_height_m`; `to_height_m` — target height (m).
 ///
-/// u_h = C h^(1/7) (Subramanya 2008 §3.5, eq. 3.5 [MEMORY eq. no.]), so
+/// u_h = C h^(1/7) (Subramanya 2009 §3.5, eq. 3.5 [MEMORY eq. no.]), so
 /// u_to = u_from (to/from)^(1/7). Meant for heights of about 0.5–20 m over
 /// open ground or water.
 ///
@@ -159,7 +159,7 @@ pub fn wind_power_law(
 /// * `ea_mmhg` — actual vapour pressure of the air (mm Hg);
 /// * `wind_9m_kmh` — monthly mean wind at about 9 m (km/h); `water` — K_M.
 ///
-/// Subramanya (2008) eq. 3.3, p. 63: E_L = K_M (e_w − e_a)(1 + u9/16).
+/// Subramanya (2009) eq. 3.3, p. 63: E_L = K_M (e_w − e_a)(1 + u9/16).
 pub fn meyer_evaporation_handbook_mm_day(
     ew_mmhg: f64,
     ea_mmhg: f64,
@@ -175,7 +175,7 @@ pub fn meyer_evaporation_handbook_mm_day(
 /// * `wind_ground_kmh` — mean wind "at ground level", taken at 0.6 m (km/h);
 /// * `ew_mmhg`, `ea_mmhg` — as in Meyer's formula (mm Hg).
 ///
-/// Subramanya (2008) eq. 3.4, p. 63: E_L = 0.771 (1.465 − 0.000732 p_a)(0.44 + 0.0733 u0)(e_w − e_a).
+/// Subramanya (2009) p. 63 (Rohwer formula): E_L = 0.771 (1.465 − 0.000732 p_a)(0.44 + 0.0733 u0)(e_w − e_a).
 pub fn rohwer_evaporation_handbook_mm_day(
     pressure_mmhg: f64,
     wind_ground_kmh: f64,
@@ -185,7 +185,7 @@ pub fn rohwer_evaporation_handbook_mm_day(
     0.771
         * (1.465 - 0.000_732 * pressure_mmhg)
         * (0.44 + 0.0733 * wind_ground_kmh)
-        * (ew_mmhg - ea_mmhg) // Eq. 3.4
+        * (ew_mmhg - ea_mmhg) // Rohwer (1931)
 }
 
 /// SI inputs for one day (or month) of open-water evaporation.

@@ -274,6 +274,15 @@ fn day_errors_are_typed_and_never_nan() {
             }
         )
     });
+    check(&|d| d.rhmin_pct = Some(f64::NAN), &|e| {
+        matches!(
+            e,
+            Et0Error::NotFinite {
+                quantity: "rhmin_pct",
+                ..
+            }
+        )
+    });
     check(&|d| d.wind_ms = Some(-1.0), &|e| {
         matches!(
             e,

@@ -1,5 +1,5 @@
 //! Open-water evaporation: Meyer (1915) and Rohwer (1931) in the handbook form
-//! of Subramanya (2008) *Engineering Hydrology* §3.5 p. 63, the 1/7 power law,
+//! of Subramanya (2009) *Engineering Hydrology* §3.5 p. 63, the 1/7 power law,
 //! and Penman open water (Shuttleworth 1993). The e_w table is checked in
 //! `fao56_reference.rs` from `tests/reference/fao56_single_checks.ron`.
 //! No published worked example of Meyer, Rohwer or Penman open water was
@@ -15,7 +15,7 @@ use offtake_core::openwater::{
     rohwer_evaporation_mm_day, wind_power_law,
 };
 
-/// Subramanya (2008) eq. 3.3 with e_w − e_a = 10 mm Hg and u9 = 16 km/h:
+/// Subramanya (2009) eq. 3.3 with e_w − e_a = 10 mm Hg and u9 = 16 km/h:
 /// E = K_M · 10 · (1 + 16/16) = 20 K_M → 7.2 (large deep) and 10.0 (small shallow) mm/day.
 #[test]
 fn meyer_handbook_form() {
@@ -25,7 +25,7 @@ fn meyer_handbook_form() {
     assert!((e - 10.0).abs() < 1e-12);
 }
 
-/// Subramanya (2008) eq. 3.4 with p_a = 1000 mm Hg, u0 = 0, e_w − e_a = 10:
+/// Subramanya (2009) eq. 3.4 with p_a = 1000 mm Hg, u0 = 0, e_w − e_a = 10:
 /// E = 0.771 (1.465 − 0.732)(0.44)(10) = 2.48662 mm/day (computed from the published formula).
 #[test]
 fn rohwer_handbook_form() {

@@ -34,6 +34,8 @@ pub struct PlantingSummary {
     pub seasons: Vec<SeasonOutcome>,
     /// Seasons left out because they do not fit inside the weather record.
     pub seasons_excluded: usize,
+    /// Warnings of the planting step.
+    pub warnings: Vec<String>,
 }
 
 /// Plantings computed for the scheme.
@@ -136,13 +138,18 @@ pub fn compute_plantings(
             for job in jobs {
                 let p = &project.plantings[job.index];
                 let block_id = &project.blocks[job.block].id;
-                let outcome =
-                    simulate_planting(job.crop, job.soil, p, w, None).map_err(|cause| {
-                        EngineError::Planting {
-                            planting: p.id.clone(),
-                            cause,
-                        }
-                    })?;
+                let outcome = simulate_planting(
+                    job.crop,
+                    job.soil,
+                    p,
+                    project.options.effective_rain,
+                    w,
+                    None,
+                )
+                .map_err(|cause| EngineError::Planting {
+                    planting: p.id.clone(),
+                    cause,
+                })?;
                 let nir_mm_year: f64 = outcome.nir_mm[range.clone()].iter().sum::<f64>() / n_years;
                 let nir_m3_per_year = depth_mm_over_area_ha_to_m3(nir_mm_year, job.area_ha);
                 // Blocks are named by id in the network (see `network_of`).
@@ -178,6 +185,7 @@ pub fn compute_plantings(
                         headworks_m3_per_year: nir_m3_per_year * factor,
                         seasons: outcome.seasons,
                         seasons_excluded: outcome.seasons_excluded,
+                        warnings: outcome.warnings,
                     },
                     if keep_daily {
                         outcome.nir_mm
@@ -201,12 +209,13 @@ pub fn compute_plantings(
     let mut excluded = 0;
     for (_, s, d) in indexed {
         excluded += s.seasons_excluded;
+        out.warnings.extend(s.warnings.iter().cloned());
         out.summaries.push(s);
         out.daily.push(d);
     }
     if excluded > 0 {
         out.warnings.push(format!(
-            "{excluded} planting seasons left out: they do not fit inside the weather record"
+            "{excluded} planting seasons cut by the ends of the weather record, left out of statistics (their days inside the record still count in the demand)"
         ));
     }
     Ok(out)

@@ -340,12 +340,11 @@ pub fn supply_and_rerun(
                     crop: p.crop.clone(),
                 });
             };
-            let out = simulate_planting(crop, soil, p, w, Some(mm)).map_err(|cause| {
-                EngineError::Planting {
+            let out = simulate_planting(crop, soil, p, project.options.effective_rain, w, Some(mm))
+                .map_err(|cause| EngineError::Planting {
                     planting: p.id.clone(),
                     cause,
-                }
-            })?;
+                })?;
             let ea = block.method.application_efficiency;
             let n = out.seasons.len();
             let losses: Vec<f64> = out

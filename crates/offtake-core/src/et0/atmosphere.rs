@@ -50,6 +50,7 @@ impl Psychrometer {
 ///
 /// Validity: meaningful for terrestrial stations (about −450 m to 9 000 m); the
 /// series API rejects elevations outside that range.
+#[inline]
 pub fn atmospheric_pressure_kpa(elevation_m: f64) -> f64 {
     101.3 * ((293.0 - 0.0065 * elevation_m) / 293.0).powf(5.26) // Eq. 7
 }
@@ -61,6 +62,7 @@ pub fn atmospheric_pressure_kpa(elevation_m: f64) -> f64 {
 /// Eq. 8: γ = cp P/(ε λ) = 0.665×10⁻³ P with λ = 2.45 MJ kg⁻¹. FAO-56 p. 31.
 /// The printed coefficient 0.665×10⁻³ is used (as in ASCE-EWRI 2005 eq. 4 and
 /// Annex 2 Table 2.2); cp/(ε λ) itself evaluates to 0.6647×10⁻³.
+#[inline]
 pub fn psychrometric_constant_kpa_c(pressure_kpa: f64) -> f64 {
     PSYCHROMETRIC_COEFFICIENT_PER_C * pressure_kpa // Eq. 8
 }
@@ -71,6 +73,7 @@ pub fn psychrometric_constant_kpa_c(pressure_kpa: f64) -> f64 {
 ///
 /// Eq. 11: e°(T) = 0.6108 exp[17.27 T/(T + 237.3)]. FAO-56 p. 36; tabulated in
 /// Annex 2 Table 2.3. Valid for ordinary air temperatures (about −40..60 °C).
+#[inline]
 pub fn saturation_vapour_pressure_kpa(temperature_c: f64) -> f64 {
     0.6108 * (17.27 * temperature_c / (temperature_c + 237.3)).exp() // Eq. 11
 }
@@ -81,11 +84,9 @@ pub fn saturation_vapour_pressure_kpa(temperature_c: f64) -> f64 {
 ///
 /// Eq. 12: es = [e°(Tmax) + e°(Tmin)]/2. FAO-56 p. 36. Using e° of the mean
 /// temperature instead underestimates es (Example 3).
+#[inline]
 pub fn mean_saturation_vapour_pressure_kpa(tmax_c: f64, tmin_c: f64) -> f64 {
-    f64::midpoint(
-        saturation_vapour_pressure_kpa(tmax_c),
-        saturation_vapour_pressure_kpa(tmin_c),
-    ) // Eq. 12
+    0.5 * (saturation_vapour_pressure_kpa(tmax_c) + saturation_vapour_pressure_kpa(tmin_c)) // Eq. 12
 }
 
 /// Slope of the saturation vapour pressure curve Δ at temperature T (kPa °C⁻¹).
@@ -94,9 +95,10 @@ pub fn mean_saturation_vapour_pressure_kpa(tmax_c: f64, tmin_c: f64) -> f64 {
 ///
 /// Eq. 13: Δ = 4098 [0.6108 exp(17.27 T/(T + 237.3))]/(T + 237.3)². FAO-56 p. 37;
 /// tabulated in Annex 2 Table 2.4.
+#[inline]
 pub fn saturation_slope_kpa_c(temperature_c: f64) -> f64 {
-    let t_plus = temperature_c + 237.3;
-    4098.0 * saturation_vapour_pressure_kpa(temperature_c) / (t_plus * t_plus) // Eq. 13
+    let r = 1.0 / (temperature_c + 237.3); // one division serves both places
+    4098.0 * (0.6108 * (17.27 * temperature_c * r).exp()) * (r * r) // Eq. 13
 }
 
 /// Actual vapour pressure from dewpoint temperature (kPa).
@@ -104,6 +106,7 @@ pub fn saturation_slope_kpa_c(temperature_c: f64) -> f64 {
 /// * `tdew_c` — dewpoint temperature (°C).
 ///
 /// Eq. 14: ea = e°(Tdew). FAO-56 p. 37.
+#[inline]
 pub fn actual_vapour_pressure_from_dewpoint_kpa(tdew_c: f64) -> f64 {
     saturation_vapour_pressure_kpa(tdew_c) // Eq. 14
 }
@@ -115,6 +118,7 @@ pub fn actual_vapour_pressure_from_dewpoint_kpa(tdew_c: f64) -> f64 {
 /// * `psychrometer` — instrument type giving a_psy.
 ///
 /// Eq. 15: ea = e°(Twet) − γpsy (Tdry − Twet); eq. 16: γpsy = a_psy P. FAO-56 p. 38.
+#[inline]
 pub fn actual_vapour_pressure_from_psychrometer_kpa(
     tdry_c: f64,
     twet_c: f64,
@@ -132,16 +136,15 @@ pub fn actual_vapour_pressure_from_psychrometer_kpa(
 ///
 /// Eq. 17: ea = [e°(Tmin) RHmax/100 + e°(Tmax) RHmin/100]/2. FAO-56 p. 38.
 /// For RH in 0..=100 % the result never exceeds es (eq. 12).
+#[inline]
 pub fn actual_vapour_pressure_from_rh_max_min_kpa(
     tmax_c: f64,
     tmin_c: f64,
     rhmax_pct: f64,
     rhmin_pct: f64,
 ) -> f64 {
-    f64::midpoint(
-        saturation_vapour_pressure_kpa(tmin_c) * rhmax_pct / 100.0,
-        saturation_vapour_pressure_kpa(tmax_c) * rhmin_pct / 100.0,
-    ) // Eq. 17
+    0.5 * (saturation_vapour_pressure_kpa(tmin_c) * rhmax_pct / 100.0
+        + saturation_vapour_pressure_kpa(tmax_c) * rhmin_pct / 100.0) // Eq. 17
 }
 
 /// Actual vapour pressure from daily maximum relative humidity only (kPa).
@@ -151,6 +154,7 @@ pub fn actual_vapour_pressure_from_rh_max_min_kpa(
 ///
 /// Eq. 18: ea = e°(Tmin) RHmax/100. FAO-56 p. 39, recommended over eq. 19 when
 /// RHmin is unreliable.
+#[inline]
 pub fn actual_vapour_pressure_from_rh_max_kpa(tmin_c: f64, rhmax_pct: f64) -> f64 {
     saturation_vapour_pressure_kpa(tmin_c) * rhmax_pct / 100.0 // Eq. 18
 }
@@ -162,6 +166,7 @@ pub fn actual_vapour_pressure_from_rh_max_kpa(tmin_c: f64, rhmax_pct: f64) -> f6
 ///
 /// Eq. 19: ea = (RHmean/100) [e°(Tmax) + e°(Tmin)]/2. FAO-56 p. 39; less
 /// desirable than eqs. 17 and 18.
+#[inline]
 pub fn actual_vapour_pressure_from_rh_mean_kpa(tmax_c: f64, tmin_c: f64, rhmean_pct: f64) -> f64 {
     rhmean_pct / 100.0 * mean_saturation_vapour_pressure_kpa(tmax_c, tmin_c) // Eq. 19
 }
@@ -175,6 +180,7 @@ pub fn actual_vapour_pressure_from_rh_mean_kpa(tmax_c: f64, tmin_c: f64, rhmean_
 /// Eq. 48: ea = e°(Tmin) (with Tdew ≈ Tmin − offset). FAO-56 p. 58.
 /// Eq. 48 is printed with 0.611 while eq. 11 uses 0.6108; this function uses
 /// eq. 11 (0.6108) throughout so the two paths agree (difference < 0.04 %).
+#[inline]
 pub fn actual_vapour_pressure_from_tmin_kpa(tmin_c: f64, arid_offset_c: f64) -> f64 {
     saturation_vapour_pressure_kpa(tmin_c - arid_offset_c) // Eq. 48
 }
@@ -184,11 +190,13 @@ pub fn actual_vapour_pressure_from_tmin_kpa(tmin_c: f64, arid_offset_c: f64) -> 
 /// * `temperature_c` — mean hourly air temperature Thr (°C); `rh_pct` — mean hourly RH (%).
 ///
 /// Eq. 54: ea = e°(Thr) RHhr/100. FAO-56 p. 74.
+#[inline]
 pub fn actual_vapour_pressure_hourly_kpa(temperature_c: f64, rh_pct: f64) -> f64 {
     saturation_vapour_pressure_kpa(temperature_c) * rh_pct / 100.0 // Eq. 54
 }
 
 /// Vapour pressure deficit es − ea (kPa), FAO-56 p. 39 (Example 6).
+#[inline]
 pub fn vapour_pressure_deficit_kpa(es_kpa: f64, ea_kpa: f64) -> f64 {
     es_kpa - ea_kpa
 }
@@ -197,6 +205,7 @@ pub fn vapour_pressure_deficit_kpa(es_kpa: f64, ea_kpa: f64) -> f64 {
 ///
 /// Eq. 9: Tmean = (Tmax + Tmin)/2. FAO-56 p. 32. Used for daily ET₀ instead of a
 /// measured 24-hour mean, as FAO-56 prescribes for standardization.
+#[inline]
 pub fn mean_air_temperature_c(tmax_c: f64, tmin_c: f64) -> f64 {
-    f64::midpoint(tmax_c, tmin_c) // Eq. 9
+    0.5 * (tmax_c + tmin_c) // Eq. 9
 }

@@ -79,6 +79,7 @@ impl CombinationInputs {
 /// 0.408 Δ (Rn − G) / [Δ + γ (1 + Cd u2)] — the first part of FAO-56 eq. 6 / 53
 /// and ASCE-EWRI (2005) eq. 1, printed separately in FAO-56 Examples 17–20.
 /// 0.408 = 1/λ, λ = 2.45 MJ kg⁻¹ (FAO-56 eq. 20).
+#[inline]
 pub fn radiation_term_mm(inputs: &CombinationInputs, surface: SurfaceConstants) -> f64 {
     MM_DAY_PER_MJ_M2_DAY * inputs.slope_kpa_c * (inputs.net_radiation_mj - inputs.soil_heat_flux_mj)
         / inputs.denominator(surface)
@@ -88,6 +89,7 @@ pub fn radiation_term_mm(inputs: &CombinationInputs, surface: SurfaceConstants) 
 ///
 /// γ (Cn/(T + 273)) u2 (es − ea) / [Δ + γ (1 + Cd u2)] — the second part of
 /// FAO-56 eq. 6 / 53 and ASCE-EWRI (2005) eq. 1.
+#[inline]
 pub fn aerodynamic_term_mm(inputs: &CombinationInputs, surface: SurfaceConstants) -> f64 {
     inputs.psychrometric_kpa_c * surface.cn / (inputs.temperature_c + 273.0)
         * inputs.wind_2m_ms
@@ -103,6 +105,7 @@ pub fn aerodynamic_term_mm(inputs: &CombinationInputs, surface: SurfaceConstants
 ///
 /// The result is not clipped: it may be slightly negative when Rn − G is
 /// negative and the air is near saturation (night-time hours, polar winter).
+#[inline]
 pub fn combination_et_mm(inputs: &CombinationInputs, surface: SurfaceConstants) -> f64 {
     radiation_term_mm(inputs, surface) + aerodynamic_term_mm(inputs, surface) // Eq. 6 / 53
 }
@@ -111,6 +114,7 @@ pub fn combination_et_mm(inputs: &CombinationInputs, surface: SurfaceConstants) 
 ///
 /// FAO-56 eq. 6 (p. 24): ET₀ = [0.408 Δ (Rn − G) + γ (900/(T + 273)) u2 (es − ea)]
 /// / [Δ + γ (1 + 0.34 u2)]. For monthly steps G comes from eq. 43 or 44.
+#[inline]
 pub fn et0_penman_monteith_mm_day(inputs: &CombinationInputs) -> f64 {
     combination_et_mm(inputs, FAO56_DAILY) // Eq. 6
 }
@@ -119,6 +123,7 @@ pub fn et0_penman_monteith_mm_day(inputs: &CombinationInputs) -> f64 {
 ///
 /// FAO-56 eq. 53 (p. 74): ET₀ = [0.408 Δ (Rn − G) + γ (37/(Thr + 273)) u2 (e°(Thr) − ea)]
 /// / [Δ + γ (1 + 0.34 u2)].
+#[inline]
 pub fn et0_penman_monteith_hourly_mm(inputs: &CombinationInputs) -> f64 {
     combination_et_mm(inputs, FAO56_HOURLY) // Eq. 53
 }

@@ -11,13 +11,13 @@ use super::atmosphere::{
 };
 use super::combination::{
     ASCE_SHORT_DAILY, ASCE_TALL_DAILY, CombinationInputs, FAO56_DAILY, SurfaceConstants,
-    aerodynamic_term_mm, radiation_term_mm,
 };
 use super::radiation::{
     REFERENCE_ALBEDO, daylight_hours, extraterrestrial_radiation_mj, net_longwave_radiation_mj,
     net_radiation_mj, net_shortwave_radiation_mj, relative_shortwave_radiation,
     solar_declination_rad, sunset_hour_angle_rad,
 };
+use crate::units::MM_DAY_PER_MJ_M2_DAY;
 
 /// Rs/Rso used when Rso = 0 (polar night), where the ratio is undefined.
 ///
@@ -122,6 +122,7 @@ pub struct DailySteps {
 ///
 /// FAO-56: Rnl by eq. 39 (σ = 4.903×10⁻⁹, Rs/Rso ≤ 1). ASCE: Rnl by eq. 17
 /// (σ = 4.901×10⁻⁹, Rs/Rso 0.3..=1, fcd 0.05..=1). Both: albedo 0.23, Tmean by eq. 9.
+#[inline]
 pub fn daily_steps(
     pressure_kpa: f64,
     inputs: &DailyInputs,
@@ -137,6 +138,7 @@ pub fn daily_steps(
 }
 
 /// As [`daily_steps`], with e°(Tmax) and e°(Tmin) (kPa, eq. 11) already computed.
+#[inline]
 pub(crate) fn daily_steps_with_saturation(
     pressure_kpa: f64,
     inputs: &DailyInputs,
@@ -147,7 +149,7 @@ pub(crate) fn daily_steps_with_saturation(
     let gamma = psychrometric_constant_kpa_c(pressure_kpa); // Eq. 8
     let tmean = mean_air_temperature_c(inputs.tmax_c, inputs.tmin_c); // Eq. 9
     let slope = saturation_slope_kpa_c(tmean); // Eq. 13
-    let es = f64::midpoint(e_tmax_kpa, e_tmin_kpa); // Eq. 12
+    let es = 0.5 * (e_tmax_kpa + e_tmin_kpa); // Eq. 12
     let ratio =
         relative_shortwave_radiation(inputs.rs_mj, inputs.rso_mj, POLAR_NIGHT_RELATIVE_SHORTWAVE);
     let rns = net_shortwave_radiation_mj(inputs.rs_mj, REFERENCE_ALBEDO); // Eq. 38
@@ -171,8 +173,17 @@ pub(crate) fn daily_steps_with_saturation(
         ea_kpa: inputs.ea_kpa,
     };
     let constants = reference.constants();
-    let radiation_term = radiation_term_mm(&combination, constants);
-    let aerodynamic_term = aerodynamic_term_mm(&combination, constants);
+    // Same as radiation_term_mm / aerodynamic_term_mm, sharing one reciprocal
+    // of the denominator (the hot path of the day series).
+    let inv_denominator = 1.0 / (slope + gamma * (1.0 + constants.cd * combination.wind_2m_ms));
+    let radiation_term = MM_DAY_PER_MJ_M2_DAY
+        * slope
+        * (combination.net_radiation_mj - combination.soil_heat_flux_mj)
+        * inv_denominator;
+    let aerodynamic_term = gamma * constants.cn / (tmean + 273.0)
+        * combination.wind_2m_ms
+        * (es - combination.ea_kpa)
+        * inv_denominator;
     DailySteps {
         psychrometric_kpa_c: gamma,
         tmean_c: tmean,

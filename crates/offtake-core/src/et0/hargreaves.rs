@@ -15,7 +15,8 @@
 /// climates. A negative temperature range gives 0 (no evaporative demand from
 /// the range term); the day-series API rejects Tmin > Tmax before this point.
 /// With Tmean < −17.8 °C the formula turns negative; the series clips ET₀ at 0.
+#[inline]
 pub fn et0_hargreaves_samani_mm_day(tmax_c: f64, tmin_c: f64, ra_mm_day: f64) -> f64 {
-    let tmean_c = f64::midpoint(tmax_c, tmin_c);
+    let tmean_c = 0.5 * (tmax_c + tmin_c);
     0.0023 * (tmean_c + 17.8) * (tmax_c - tmin_c).max(0.0).sqrt() * ra_mm_day // Eq. 52
 }

@@ -54,6 +54,7 @@ pub mod krs {
 /// * `day_of_year` — J, 1..=366.
 ///
 /// Eq. 23: dr = 1 + 0.033 cos(2πJ/365). FAO-56 p. 46.
+#[inline]
 pub fn inverse_relative_distance(day_of_year: u32) -> f64 {
     1.0 + 0.033 * (2.0 * PI * f64::from(day_of_year) / 365.0).cos() // Eq. 23
 }
@@ -63,6 +64,7 @@ pub fn inverse_relative_distance(day_of_year: u32) -> f64 {
 /// * `day_of_year` — J, 1..=366.
 ///
 /// Eq. 24: δ = 0.409 sin(2πJ/365 − 1.39). FAO-56 p. 46.
+#[inline]
 pub fn solar_declination_rad(day_of_year: u32) -> f64 {
     0.409 * (2.0 * PI * f64::from(day_of_year) / 365.0 - 1.39).sin() // Eq. 24
 }
@@ -79,6 +81,7 @@ pub fn solar_declination_rad(day_of_year: u32) -> f64 {
 /// make Ra slightly negative. Here the argument is clamped to [−1, 1] instead:
 /// ωs = 0 in polar night (no sunrise; Ra = 0, N = 0) and ωs = π in polar day
 /// (sun never sets; N = 24 h). Inside the polar circles this is exactly eq. 25.
+#[inline]
 pub fn sunset_hour_angle_rad(latitude_rad: f64, declination_rad: f64) -> f64 {
     let arg = -latitude_rad.tan() * declination_rad.tan();
     if arg.is_nan() {
@@ -95,6 +98,7 @@ pub fn sunset_hour_angle_rad(latitude_rad: f64, declination_rad: f64) -> f64 {
 /// Eq. 21: Ra = (24·60/π) Gsc dr [ωs sin φ sin δ + cos φ cos δ sin ωs]. FAO-56 p. 46.
 /// With ωs from [`sunset_hour_angle_rad`] Ra is never negative (the result is
 /// also floored at 0 against rounding at the polar-night edge).
+#[inline]
 pub fn extraterrestrial_radiation_mj(latitude_rad: f64, day_of_year: u32) -> f64 {
     let dr = inverse_relative_distance(day_of_year);
     let delta = solar_declination_rad(day_of_year);
@@ -111,6 +115,7 @@ pub fn extraterrestrial_radiation_mj(latitude_rad: f64, day_of_year: u32) -> f64
 /// * `day_of_year` — J.
 ///
 /// Eqs. 32–33: Sc = 0.1645 sin(2b) − 0.1255 cos(b) − 0.025 sin(b), b = 2π(J − 81)/364. FAO-56 p. 48.
+#[inline]
 pub fn seasonal_correction_h(day_of_year: u32) -> f64 {
     let b = 2.0 * PI * (f64::from(day_of_year) - 81.0) / 364.0; // Eq. 33
     0.1645 * (2.0 * b).sin() - 0.1255 * b.cos() - 0.025 * b.sin() // Eq. 32
@@ -125,6 +130,7 @@ pub fn seasonal_correction_h(day_of_year: u32) -> f64 {
 ///
 /// Eq. 31: ω = (π/12)[(t + 0.06667(Lz − Lm) + Sc) − 12]. FAO-56 p. 48.
 /// FAO-56 counts longitudes westward (e.g. Lz = 15 for GMT−1, Lm = 16.25 at 16°15'W).
+#[inline]
 pub fn solar_time_angle_rad(
     clock_time_mid_h: f64,
     lz_deg_west: f64,
@@ -140,6 +146,7 @@ pub fn solar_time_angle_rad(
 /// * `omega_mid_rad` — ω at the midpoint (eq. 31); `period_h` — tl, length of the period (hour).
 ///
 /// Eqs. 29–30: ω1 = ω − π tl/24, ω2 = ω + π tl/24. FAO-56 p. 48.
+#[inline]
 pub fn period_solar_time_angles_rad(omega_mid_rad: f64, period_h: f64) -> (f64, f64) {
     let half = PI * period_h / 24.0;
     (omega_mid_rad - half, omega_mid_rad + half) // Eqs. 29, 30
@@ -156,6 +163,7 @@ pub fn period_solar_time_angles_rad(omega_mid_rad: f64, period_h: f64) -> (f64, 
 /// outside −ωs..ωs. Periods that straddle sunrise or sunset have ω1, ω2 limited to
 /// −ωs..ωs (as ASCE-EWRI 2005 eqs. 56–58 do) so that only the lit part counts.
 /// The result is never negative.
+#[inline]
 pub fn extraterrestrial_radiation_period_mj(
     latitude_rad: f64,
     day_of_year: u32,
@@ -165,7 +173,7 @@ pub fn extraterrestrial_radiation_period_mj(
     let dr = inverse_relative_distance(day_of_year);
     let delta = solar_declination_rad(day_of_year);
     let ws = sunset_hour_angle_rad(latitude_rad, delta);
-    let mid = f64::midpoint(omega1_rad, omega2_rad);
+    let mid = 0.5 * (omega1_rad + omega2_rad);
     if mid < -ws || mid > ws {
         return 0.0;
     }
@@ -184,6 +192,7 @@ pub fn extraterrestrial_radiation_period_mj(
 /// * `sunset_hour_angle_rad` — ωs (eq. 25).
 ///
 /// Eq. 34: N = (24/π) ωs. FAO-56 p. 48. With the clamped ωs, 0 ≤ N ≤ 24.
+#[inline]
 pub fn daylight_hours(sunset_hour_angle_rad: f64) -> f64 {
     24.0 / PI * sunset_hour_angle_rad // Eq. 34
 }
@@ -195,6 +204,7 @@ pub fn daylight_hours(sunset_hour_angle_rad: f64) -> f64 {
 ///
 /// Eq. 35: Rs = (a_s + b_s n/N) Ra. FAO-56 p. 50. n/N is limited to 0..=1; with
 /// N = 0 (polar night) Rs = a_s Ra = 0.
+#[inline]
 pub fn solar_radiation_from_sunshine_mj(
     sunshine_h: f64,
     daylight_h: f64,
@@ -212,6 +222,7 @@ pub fn solar_radiation_from_sunshine_mj(
 /// Clear-sky solar radiation from calibrated Ångström coefficients, Rso (MJ m⁻² day⁻¹).
 ///
 /// Eq. 36: Rso = (a_s + b_s) Ra. FAO-56 p. 51, for when a_s and b_s are calibrated.
+#[inline]
 pub fn clear_sky_radiation_angstrom_mj(ra_mj: f64, angstrom: Angstrom) -> f64 {
     (angstrom.a_s + angstrom.b_s) * ra_mj // Eq. 36
 }
@@ -221,6 +232,7 @@ pub fn clear_sky_radiation_angstrom_mj(ra_mj: f64, angstrom: Angstrom) -> f64 {
 /// * `ra_mj` — Ra; `elevation_m` — station elevation z (m).
 ///
 /// Eq. 37: Rso = (0.75 + 2×10⁻⁵ z) Ra. FAO-56 p. 51, for when a_s, b_s are not calibrated.
+#[inline]
 pub fn clear_sky_radiation_mj(ra_mj: f64, elevation_m: f64) -> f64 {
     (0.75 + 2e-5 * elevation_m) * ra_mj // Eq. 37
 }
@@ -233,6 +245,7 @@ pub fn clear_sky_radiation_mj(ra_mj: f64, elevation_m: f64) -> f64 {
 ///
 /// Eq. 50: Rs = kRs √(Tmax − Tmin) Ra, limited to Rs ≤ Rso. FAO-56 p. 60–61.
 /// A negative range (Tmin > Tmax) gives 0 here; the day-series API rejects such days.
+#[inline]
 pub fn solar_radiation_from_temperature_mj(
     tmax_c: f64,
     tmin_c: f64,
@@ -248,6 +261,7 @@ pub fn solar_radiation_from_temperature_mj(
 /// * `rs_mj` — incoming solar radiation; `albedo` — α (0.23 for the grass reference).
 ///
 /// Eq. 38: Rns = (1 − α) Rs. FAO-56 p. 51.
+#[inline]
 pub fn net_shortwave_radiation_mj(rs_mj: f64, albedo: f64) -> f64 {
     (1.0 - albedo) * rs_mj // Eq. 38
 }
@@ -257,6 +271,7 @@ pub fn net_shortwave_radiation_mj(rs_mj: f64, albedo: f64) -> f64 {
 /// FAO-56 eq. 39 note (p. 52): Rs/Rso ≤ 1.0. When Rso is zero (polar night,
 /// night-time hours) the ratio is undefined and `fallback` is returned (FAO-56
 /// p. 75 suggests 0.4–0.6 in humid and 0.7–0.8 in arid climates at night).
+#[inline]
 pub fn relative_shortwave_radiation(rs_mj: f64, rso_mj: f64, fallback: f64) -> f64 {
     if rso_mj > 0.0 {
         (rs_mj / rso_mj).clamp(0.0, 1.0)
@@ -266,6 +281,7 @@ pub fn relative_shortwave_radiation(rs_mj: f64, rso_mj: f64, fallback: f64) -> f
 }
 
 /// σ T_K⁴ for a daily sum (MJ m⁻² day⁻¹), with T_K = T + 273.16 (FAO-56 eq. 39, Annex 2 Table 2.8).
+#[inline]
 pub fn black_body_radiation_mj_day(temperature_c: f64) -> f64 {
     let tk = temperature_c + KELVIN_OFFSET_FAO56;
     STEFAN_BOLTZMANN_MJ_K4_M2_DAY * (tk * tk) * (tk * tk)
@@ -278,11 +294,10 @@ pub fn black_body_radiation_mj_day(temperature_c: f64) -> f64 {
 ///
 /// Eq. 39: Rnl = σ [(Tmax,K⁴ + Tmin,K⁴)/2] (0.34 − 0.14 √ea)(1.35 Rs/Rso − 0.35),
 /// σ = 4.903×10⁻⁹, K = °C + 273.16. FAO-56 p. 52. Negative ea is treated as 0.
+#[inline]
 pub fn net_longwave_radiation_mj(tmax_c: f64, tmin_c: f64, ea_kpa: f64, rs_over_rso: f64) -> f64 {
-    let sigma_t4 = f64::midpoint(
-        black_body_radiation_mj_day(tmax_c),
-        black_body_radiation_mj_day(tmin_c),
-    );
+    let sigma_t4 =
+        0.5 * (black_body_radiation_mj_day(tmax_c) + black_body_radiation_mj_day(tmin_c));
     sigma_t4 * (0.34 - 0.14 * ea_kpa.max(0.0).sqrt()) * (1.35 * rs_over_rso - 0.35) // Eq. 39
 }
 
@@ -291,6 +306,7 @@ pub fn net_longwave_radiation_mj(tmax_c: f64, tmin_c: f64, ea_kpa: f64, rs_over_
 /// * `temperature_c` — mean hourly air temperature (°C); `ea_kpa`; `rs_over_rso` (limited).
 ///
 /// Eq. 39 with σ per hour = 4.903×10⁻⁹/24 and the hourly temperature (FAO-56 p. 74).
+#[inline]
 pub fn net_longwave_radiation_hourly_mj(temperature_c: f64, ea_kpa: f64, rs_over_rso: f64) -> f64 {
     let tk = temperature_c + KELVIN_OFFSET_FAO56;
     STEFAN_BOLTZMANN_MJ_K4_M2_HOUR
@@ -303,6 +319,7 @@ pub fn net_longwave_radiation_hourly_mj(temperature_c: f64, ea_kpa: f64, rs_over
 /// Net radiation Rn = Rns − Rnl (MJ m⁻² per day or period).
 ///
 /// Eq. 40. FAO-56 p. 53.
+#[inline]
 pub fn net_radiation_mj(rns_mj: f64, rnl_mj: f64) -> f64 {
     rns_mj - rnl_mj // Eq. 40
 }

@@ -355,16 +355,13 @@ impl Et0Context {
             (saturation_vapour_pressure_kpa(td), HumiditySource::Dewpoint) // Eq. 14
         } else if let (Some(hi), Some(lo)) = (rhmax, rhmin) {
             (
-                f64::midpoint(e_tmin * hi, e_tmax * lo) / 100.0,
+                0.5 * (e_tmin * hi + e_tmax * lo) / 100.0,
                 HumiditySource::RhMaxMin,
             ) // Eq. 17
         } else if let Some(hi) = rhmax {
             (e_tmin * hi / 100.0, HumiditySource::RhMax) // Eq. 18
         } else if let Some(m) = rhmean {
-            (
-                m / 100.0 * f64::midpoint(e_tmax, e_tmin),
-                HumiditySource::RhMean,
-            ) // Eq. 19
+            (m / 100.0 * 0.5 * (e_tmax + e_tmin), HumiditySource::RhMean) // Eq. 19
         } else if o.arid_tmin_offset_c == 0.0 {
             (e_tmin, HumiditySource::FromTmin) // Eq. 48
         } else {
@@ -465,6 +462,7 @@ fn checked_rh(
 ) -> Result<Option<f64>, Et0Error> {
     match value {
         None => Ok(None),
+        Some(v) if !v.is_finite() => Err(Et0Error::NotFinite { quantity, value: v }),
         Some(v) if v >= -tolerance_pct && v <= 100.0 + tolerance_pct => {
             Ok(Some(v.clamp(0.0, 100.0)))
         }
@@ -472,6 +470,17 @@ fn checked_rh(
             quantity,
             value_pct: v,
         }),
+    }
+}
+
+impl Et0Context {
+    /// ET₀ of every day of `days`, written into `out` (cleared first).
+    ///
+    /// Reusing `out` between recomputations avoids reallocating the result
+    /// buffer, which matters when the app recomputes on every edit.
+    pub fn series_into(&self, days: &[WeatherDay], out: &mut Vec<Et0DayResult>) {
+        out.clear();
+        out.extend(days.iter().map(|d| self.day(d)));
     }
 }
 
