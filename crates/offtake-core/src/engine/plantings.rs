@@ -1,10 +1,14 @@
-//! All plantings of a project: their daily NIR in m³ per block and crop,
-//! computed in parallel over blocks.
+//! All plantings of a project: their daily NIR in m³ per block and crop.
+//!
+//! Plantings with the same setting (crop, soil, window, season length,
+//! strategy) have the same NIR per hectare, so each distinct setting is
+//! simulated once; distinct settings run in parallel (rayon), then blocks sum
+//! their plantings' series by crop in parallel.
 
 use rayon::prelude::*;
 
 use super::EngineError;
-use super::planting_step::{SeasonOutcome, simulate_planting};
+use super::planting_step::{PlantingOutcome, SeasonOutcome, simulate_planting};
 use super::weather_prep::PreparedWeather;
 use crate::calendar::IrrigationYear;
 use crate::crop::Crop;
@@ -34,8 +38,6 @@ pub struct PlantingSummary {
     pub seasons: Vec<SeasonOutcome>,
     /// Seasons left out because they do not fit inside the weather record.
     pub seasons_excluded: usize,
-    /// Warnings of the planting step.
-    pub warnings: Vec<String>,
 }
 
 /// Plantings computed for the scheme.
@@ -68,12 +70,21 @@ pub fn complete_range(w: &PreparedWeather, years: &[IrrigationYear]) -> std::ops
 type BlockOut = (Vec<NirSeries>, Vec<(usize, PlantingSummary, Vec<f64>)>);
 
 /// Resolved inputs of one planting.
-struct Job<'a> {
+struct Job {
     index: usize,
     block: usize,
+    area_ha: f64,
+    /// Index of its distinct setting in the list of distinct plantings.
+    distinct: usize,
+}
+
+/// A planting setting computed once: the per-hectare result depends only on
+/// the crop, the soil, the window, the season length, the strategy and the
+/// effective-rain method, so plantings that share them share the result.
+struct Distinct<'a> {
+    planting: usize,
     crop: &'a Crop,
     soil: &'a Soil,
-    area_ha: f64,
 }
 
 /// Runs every planting and sums their NIR by block and crop.
@@ -91,7 +102,9 @@ pub fn compute_plantings(
     years: &[IrrigationYear],
     keep_daily: bool,
 ) -> Result<ComputedPlantings, EngineError> {
-    let mut by_block: Vec<Vec<Job<'_>>> = (0..project.blocks.len()).map(|_| Vec::new()).collect();
+    let mut by_block: Vec<Vec<Job>> = (0..project.blocks.len()).map(|_| Vec::new()).collect();
+    let mut keys: std::collections::HashMap<String, usize> = std::collections::HashMap::new();
+    let mut distinct: Vec<Distinct<'_>> = Vec::new();
     for (index, p) in project.plantings.iter().enumerate() {
         let block = project
             .blocks
@@ -118,16 +131,43 @@ pub fn compute_plantings(
                     block: b.id.clone(),
                     soil: b.soil.clone(),
                 })?;
+        let key = format!(
+            "{}|{}|{:?}|{}|{:?}|{:?}",
+            p.crop, b.soil, p.first_planting, p.spread_days, p.season_length_days, p.strategy
+        );
+        let next = distinct.len();
+        let d = *keys.entry(key).or_insert(next);
+        if d == next {
+            distinct.push(Distinct {
+                planting: index,
+                crop,
+                soil,
+            });
+        }
         by_block[block].push(Job {
             index,
             block,
-            crop,
-            soil,
             area_ha: p.area.hectares(b.area_ha),
+            distinct: d,
         });
     }
     let range = complete_range(w, years);
     let n_years = years.len().max(1) as f64;
+
+    let outcomes: Vec<Result<PlantingOutcome, EngineError>> = distinct
+        .par_iter()
+        .map(|d| {
+            let p = &project.plantings[d.planting];
+            simulate_planting(d.crop, d.soil, p, project.options.effective_rain, w, None).map_err(
+                |cause| EngineError::Planting {
+                    planting: p.id.clone(),
+                    cause,
+                },
+            )
+        })
+        .collect();
+    let outcomes: Vec<PlantingOutcome> = outcomes.into_iter().collect::<Result<_, _>>()?;
+    let mut warnings: Vec<String> = outcomes.iter().flat_map(|o| o.warnings.clone()).collect();
 
     let per_block: Vec<Result<BlockOut, EngineError>> = by_block
         .par_iter()
@@ -138,18 +178,7 @@ pub fn compute_plantings(
             for job in jobs {
                 let p = &project.plantings[job.index];
                 let block_id = &project.blocks[job.block].id;
-                let outcome = simulate_planting(
-                    job.crop,
-                    job.soil,
-                    p,
-                    project.options.effective_rain,
-                    w,
-                    None,
-                )
-                .map_err(|cause| EngineError::Planting {
-                    planting: p.id.clone(),
-                    cause,
-                })?;
+                let outcome = &outcomes[job.distinct];
                 let nir_mm_year: f64 = outcome.nir_mm[range.clone()].iter().sum::<f64>() / n_years;
                 let nir_m3_per_year = depth_mm_over_area_ha_to_m3(nir_mm_year, job.area_ha);
                 // Blocks are named by id in the network (see `network_of`).
@@ -183,12 +212,11 @@ pub fn compute_plantings(
                         area_ha: job.area_ha,
                         nir_m3_per_year,
                         headworks_m3_per_year: nir_m3_per_year * factor,
-                        seasons: outcome.seasons,
+                        seasons: outcome.seasons.clone(),
                         seasons_excluded: outcome.seasons_excluded,
-                        warnings: outcome.warnings,
                     },
                     if keep_daily {
-                        outcome.nir_mm
+                        outcome.nir_mm.clone()
                     } else {
                         Vec::new()
                     },
@@ -199,6 +227,7 @@ pub fn compute_plantings(
         .collect();
 
     let mut out = ComputedPlantings::default();
+    out.warnings.append(&mut warnings);
     let mut indexed = Vec::with_capacity(project.plantings.len());
     for r in per_block {
         let (series, summaries) = r?;
@@ -209,7 +238,6 @@ pub fn compute_plantings(
     let mut excluded = 0;
     for (_, s, d) in indexed {
         excluded += s.seasons_excluded;
-        out.warnings.extend(s.warnings.iter().cloned());
         out.summaries.push(s);
         out.daily.push(d);
     }
