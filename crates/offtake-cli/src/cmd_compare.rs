@@ -38,6 +38,9 @@ fn opt(v: Option<f64>, d: usize) -> String {
     v.map_or_else(|| "-".to_owned(), |x| format!("{x:.d$}"))
 }
 
+/// How one row's cell is made from a scenario's figures.
+type RowFn = Box<dyn Fn(&offtake_core::engine::ScenarioColumn) -> String>;
+
 /// The printed table.
 pub(crate) fn comparison_text(c: &Comparison) -> String {
     let mut rows: Vec<(String, Vec<String>)> = Vec::new();
@@ -73,10 +76,7 @@ pub(crate) fn comparison_text(c: &Comparison) -> String {
                 .collect(),
         ));
     }
-    let simple: [(
-        &str,
-        Box<dyn Fn(&offtake_core::engine::ScenarioColumn) -> String>,
-    ); 10] = [
+    let simple: [(&str, RowFn); 10] = [
         (
             "headworks volume total (m3/year)",
             Box::new(|x| format!("{:.0}", x.headworks_volume_m3)),
@@ -118,7 +118,7 @@ pub(crate) fn comparison_text(c: &Comparison) -> String {
     for (label, f) in &simple {
         rows.push((
             (*label).to_owned(),
-            c.columns.iter().map(|x| f(x)).collect(),
+            c.columns.iter().map(f.as_ref()).collect(),
         ));
     }
     let w0 = rows.iter().map(|r| r.0.chars().count()).max().unwrap_or(0);

@@ -280,6 +280,10 @@ fn node_order(r: &Results) -> Vec<Node> {
 }
 
 /// Builds every table of a run.
+#[expect(
+    clippy::needless_range_loop,
+    reason = "the day indexes several per-node and per-block series at once"
+)]
 pub(crate) fn tables(r: &Results, project: &Project) -> Vec<Table> {
     let net = r.demand.network();
     let mut design = Table::with_headers("design values", &DESIGN_VALUES_HEADERS);
