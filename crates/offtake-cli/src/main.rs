@@ -10,6 +10,7 @@ use std::process::ExitCode;
 use clap::{Parser, Subcommand};
 
 mod cmd_et0;
+mod cmd_planting;
 mod cmd_weather_check;
 
 /// Irrigation crop water demand planner (headless).
@@ -24,6 +25,8 @@ struct Cli {
 enum Command {
     /// Reference evapotranspiration (ET0) of each day of a weather file.
     Et0(cmd_et0::Args),
+    /// Net irrigation requirement of one planting over a weather record.
+    Planting(cmd_planting::Args),
     /// Weather series: quality checks.
     Weather {
         #[command(subcommand)]
@@ -41,6 +44,7 @@ fn main() -> ExitCode {
     let cli = Cli::parse();
     let result = match &cli.command {
         Command::Et0(args) => cmd_et0::run(args),
+        Command::Planting(args) => cmd_planting::run(args),
         Command::Weather {
             command: WeatherCommand::Check(args),
         } => cmd_weather_check::run(args),
