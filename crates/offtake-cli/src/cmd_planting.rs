@@ -247,7 +247,7 @@ pub fn run(args: &Args) -> Result<()> {
     for w in &result.warnings {
         match w {
             PlantingWarning::SeasonCut { .. } => {}
-            other => eprintln!("warning: {other:?}"),
+            other => eprintln!("warning: {other}"),
         }
     }
 

@@ -292,6 +292,39 @@ pub enum PlantingWarning {
     },
 }
 
+impl std::fmt::Display for PlantingWarning {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            Self::SeasonCut { year, start, end } => write!(
+                f,
+                "season {year} ({start} to {end}) runs past the start or end of the weather record: simulated over the days inside, left out of statistics"
+            ),
+            Self::PaddySeasonNotComputed { year } => write!(
+                f,
+                "paddy season {year}: land preparation to harvest is not wholly inside the weather record; not computed"
+            ),
+            Self::LeapDayPlantingMoved { year } => {
+                write!(
+                    f,
+                    "{year} is not a leap year: planting on 28 February instead of 29"
+                )
+            }
+            Self::SeasonsOverlap { season_days } => write!(
+                f,
+                "first planting to last harvest takes {season_days} days, more than a year: seasons of successive years overlap and their requirements add up"
+            ),
+            Self::KyUnknown { crop } => write!(
+                f,
+                "crop `{crop}` has no seasonal yield response factor: Ky = 1 used (FAO-56 p. 176)"
+            ),
+            Self::DeliveryShortfall { days, shortfall_mm } => write!(
+                f,
+                "delivery below the requirement on {days} day(s), {shortfall_mm:.1} mm in all; the shortfall is not carried forward"
+            ),
+        }
+    }
+}
+
 /// The result of one planting over the record.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct PlantingResult {
