@@ -63,6 +63,8 @@
 //! With [`LeachingInput`] the leaching requirement LR (FAO-29, see
 //! [`crate::salinity::leaching_requirement`]) is found from the irrigation
 //! water ECw and the crop's threshold ECe, and NIR becomes NIR ÷ (1 − LR).
+//! Not for paddy rice, whose requirement already contains the seepage and
+//! percolation that leach the root zone ([`PlantingWarning::LeachingNotForPaddy`]).
 //!
 //! # Yield
 //!
@@ -232,7 +234,8 @@ pub struct SeasonSummary {
     pub nir_mm: f64,
     /// Σ net irrigation at the root zone (before leaching).
     pub net_irrigation_mm: f64,
-    /// Mean number of irrigations per cohort (area-weighted).
+    /// Mean number of irrigations per cohort (area-weighted); paddy: days
+    /// with a requirement.
     pub irrigation_count: f64,
     /// Σ deep percolation (paddy: seepage and percolation).
     pub deep_perc_mm: f64,
@@ -282,6 +285,10 @@ pub enum PlantingWarning {
         /// Crop id.
         crop: String,
     },
+    /// Leaching was asked for a paddy crop and not applied: the seepage and
+    /// percolation in the paddy requirement already pass water through the
+    /// root zone, so adding LR would count that water twice.
+    LeachingNotForPaddy,
     /// The delivered depth was less than the requirement of a paddy or
     /// period-method planting on some days; the shortfall is not carried.
     DeliveryShortfall {
@@ -316,6 +323,9 @@ impl std::fmt::Display for PlantingWarning {
             Self::KyUnknown { crop } => write!(
                 f,
                 "crop `{crop}` has no seasonal yield response factor: Ky = 1 used (FAO-56 p. 176)"
+            ),
+            Self::LeachingNotForPaddy => f.write_str(
+                "leaching not applied to paddy rice: its seepage and percolation already leach the root zone"
             ),
             Self::DeliveryShortfall { days, shortfall_mm } => write!(
                 f,

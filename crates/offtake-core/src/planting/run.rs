@@ -119,8 +119,13 @@ fn prepare<'s, 'w>(
         )?;
     }
     let mut warnings = Vec::new();
+    let paddy = spec.crop.group == CropGroup::PaddyRice && !is_chain(spec);
     let lr = match spec.leaching {
         None => 0.0,
+        Some(_) if paddy => {
+            warnings.push(PlantingWarning::LeachingNotForPaddy);
+            0.0
+        }
         Some(l) => {
             let ece = match (l.ece_ds_m, spec.crop.salinity) {
                 (Some(e), _) => e,
@@ -500,11 +505,9 @@ fn summarise(
     for c in cohorts {
         let w = c.share;
         let (mut etc, mut etc_adj) = (0.0, 0.0);
-        for (i, d) in c.days.iter().enumerate() {
-            let g = c.first + i;
-            if g < lo || g >= hi {
-                continue;
-            }
+        let from = lo.saturating_sub(c.first).min(c.days.len());
+        let to = hi.saturating_sub(c.first).min(c.days.len()).max(from);
+        for d in &c.days[from..to] {
             s.et0_mm += w * d.et0_mm;
             etc += d.etc_mm;
             etc_adj += d.etc_adj_mm;
