@@ -3,20 +3,49 @@
 //! The Offtake desktop planner. `main.rs` only starts eframe; the app itself
 //! is [`OfftakeApp`], a library type that the interaction tests build and
 //! drive headless with egui_kittest.
+//!
+//! ## Structure
+//! - [`app`]: the window, panels, shortcuts and the end-of-frame command loop;
+//!   file commands (new, open, save, import weather), unsaved-changes guard.
+//! - [`command`]: the [`command::Command`] enum views emit, tabs, selection.
+//! - [`document`]: the open project with its file and saved state.
+//! - [`edit`]: undoable edits of the project ([`edit::DocEdit`]) and their inverses.
+//! - [`history`]: undo/redo by inverse edits.
+//! - [`worker`]: debounced background recomputation on a thread.
+//! - [`compute`]: what the worker computes ([`compute::Snapshot`] in,
+//!   [`compute::Computed`] out) — the plug for the computation chain.
+//! - [`import`]: the weather import window (background read, preview, warnings).
+//! - [`recovery`]: autosave to a recovery file and restore after a crash.
+//! - [`state`]: runtime state beside the document.
+//! - [`menu`], [`tree`], [`inspector`], [`fields`], [`status`], [`help`]: the panels.
+//! - [`tabs`]: the centre workspace tabs, one file each.
+//! - [`plot`], [`palette`]: the shared plot widget and colours.
+//!
+//! ## Plugging in a computation
+//! [`OfftakeApp::with_compute`] takes any
+//! `Box<dyn FnMut(compute::Snapshot) -> compute::Computed + Send>`; the
+//! default, [`compute::default_compute`], validates the project, reads the
+//! weather and computes ET₀ and the library Kc curves. Add a field to
+//! [`compute::Computed`], fill it there, and read it in a tab.
 
-/// The desktop application state.
-#[derive(Debug, Default)]
-pub struct OfftakeApp {}
+pub mod app;
+pub mod command;
+pub mod compute;
+pub mod document;
+pub mod edit;
+pub mod fields;
+pub mod help;
+pub mod history;
+pub mod import;
+pub mod inspector;
+pub mod menu;
+pub mod palette;
+pub mod plot;
+pub mod recovery;
+pub mod state;
+pub mod status;
+pub mod tabs;
+pub mod tree;
+pub mod worker;
 
-impl OfftakeApp {
-    /// Draws one frame of the whole window.
-    pub fn ui(&mut self, ui: &mut egui::Ui) {
-        ui.heading("Offtake");
-    }
-}
-
-impl eframe::App for OfftakeApp {
-    fn ui(&mut self, ui: &mut egui::Ui, _frame: &mut eframe::Frame) {
-        OfftakeApp::ui(self, ui);
-    }
-}
+pub use app::OfftakeApp;

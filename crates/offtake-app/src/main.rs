@@ -1,4 +1,4 @@
-//! Starts the Offtake desktop planner.
+//! Starts the Offtake desktop planner (opening the invented demo scheme).
 
 fn main() -> eframe::Result {
     let options = eframe::NativeOptions {
@@ -10,6 +10,11 @@ fn main() -> eframe::Result {
     eframe::run_native(
         "Offtake",
         options,
-        Box::new(|_cc| Ok(Box::new(offtake_app::OfftakeApp::default()))),
+        Box::new(|_cc| {
+            let mut app = offtake_app::OfftakeApp::new()
+                .with_recovery_file(offtake_app::recovery::default_recovery_path());
+            app.open_demo();
+            Ok(Box::new(app))
+        }),
     )
 }

@@ -12,6 +12,7 @@ use clap::{Parser, Subcommand};
 mod cmd_et0;
 mod cmd_planting;
 mod cmd_weather_check;
+mod cmd_weather_stats;
 
 /// Irrigation crop water demand planner (headless).
 #[derive(Debug, Parser)]
@@ -27,7 +28,7 @@ enum Command {
     Et0(cmd_et0::Args),
     /// Net irrigation requirement of one planting over a weather record.
     Planting(cmd_planting::Args),
-    /// Weather series: quality checks.
+    /// Weather series: quality checks and multi-year statistics.
     Weather {
         #[command(subcommand)]
         command: WeatherCommand,
@@ -38,6 +39,8 @@ enum Command {
 enum WeatherCommand {
     /// Read a weather file and print its quality report.
     Check(cmd_weather_check::Args),
+    /// Yearly, monthly and 10-day ET0 and rain statistics with dependable values.
+    Stats(cmd_weather_stats::Args),
 }
 
 fn main() -> ExitCode {
@@ -48,6 +51,9 @@ fn main() -> ExitCode {
         Command::Weather {
             command: WeatherCommand::Check(args),
         } => cmd_weather_check::run(args),
+        Command::Weather {
+            command: WeatherCommand::Stats(args),
+        } => cmd_weather_stats::run(args),
     };
     match result {
         Ok(()) => ExitCode::SUCCESS,

@@ -282,3 +282,39 @@ fn et0_fao56_example18_through_mapping() {
     assert!((et0 - 3.9).abs() <= 0.05, "{row}");
     assert!(row.ends_with(",rhmax_rhmin,sunshine,measured"), "{row}");
 }
+
+#[test]
+fn check_writes_flags_csv() {
+    let dir = tempfile::tempdir().unwrap();
+    let out_path = dir.path().join("flags.csv");
+    let o = offtake(&[
+        "weather",
+        "check",
+        &corpus("tmin_above_tmax.csv"),
+        "--out",
+        out_path.to_str().unwrap(),
+    ]);
+    assert!(o.status.success(), "{}", text(&o.stderr));
+    let written = std::fs::read_to_string(&out_path).unwrap();
+    let rows: Vec<&str> = written.lines().collect();
+    assert_eq!(rows[0], "date,variable,rule,value,limit");
+    assert_eq!(rows[1], "2021-03-01,tmin_c,tmin_above_tmax,35,31.2");
+}
+
+#[test]
+fn bad_mapping_file_is_positioned() {
+    let mapping = corpus("good_own.csv"); // not RON
+    let o = offtake(&[
+        "weather",
+        "check",
+        &corpus("foreign_units.csv"),
+        "--mapping",
+        &mapping,
+    ]);
+    assert!(!o.status.success());
+    let err = text(&o.stderr);
+    assert!(
+        err.starts_with(&format!("{mapping}:1:1: mapping file:")),
+        "{err}"
+    );
+}

@@ -51,6 +51,8 @@ use rand_distr::{Distribution, Gamma, StandardNormal};
 use serde::{Deserialize, Serialize};
 
 use crate::calendar::{day_of_year, days_between, days_in_year};
+use crate::et0::atmosphere::saturation_vapour_pressure_kpa;
+use crate::et0::radiation::{clear_sky_radiation_mj, extraterrestrial_radiation_mj};
 use crate::weather::{StationSite, WeatherDay};
 
 /// Name of the invented demo station.
@@ -118,9 +120,6 @@ pub const WIND_10M_NORMAL_MS: [f64; 12] =
 pub const DRY_DAY_CLEARNESS: [f64; 12] = [
     0.90, 0.90, 0.90, 0.88, 0.85, 0.75, 0.66, 0.66, 0.72, 0.85, 0.90, 0.90,
 ];
-
-/// Solar constant Gsc (MJ m⁻² min⁻¹), FAO-56 eq. 21.
-const SOLAR_CONSTANT_MJ_M2_MIN: f64 = 0.0820;
 
 /// Errors of the generator settings.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
@@ -231,6 +230,11 @@ pub struct GeneratedWeather {
     pub defects: Vec<PlantedDefect>,
 }
 
+/// Size of the planted Tmax spike (°C): well beyond any day-to-day change of
+/// the generated temperatures, so a spike rule with a threshold of 15 °C or
+/// less finds it.
+pub const SPIKE_C: f64 = 18.0;
+
 /// Where (year offset from the first year, month, day, length in days) and
 /// what each planted defect is.
 const DEFECT_PLAN: [(i32, u32, u32, u32, &str, DefectKind); 8] = [
@@ -256,25 +260,13 @@ fn seasonal(table: &[f64; 12], doy: f64, year_len: f64) -> f64 {
     table[lower] + fraction * (table[upper] - table[lower])
 }
 
-/// Saturation vapour pressure e°(T) (kPa) at air temperature `t_c` (°C),
-/// FAO-56 eq. 11: e°(T) = 0.6108 exp[17.27 T / (T + 237.3)].
-fn saturation_vapour_pressure_kpa(t_c: f64) -> f64 {
-    0.6108 * (17.27 * t_c / (t_c + 237.3)).exp()
-}
-
-/// Clear-sky solar radiation Rso (MJ m⁻² day⁻¹), FAO-56 eq. 37 with Ra from
-/// eq. 21 (dr eq. 23, δ eq. 24, ωs eq. 25). Valid where the sun rises and
-/// sets every day (the generator accepts |latitude| ≤ 60°).
-fn clear_sky_radiation_mj(latitude_rad: f64, elevation_m: f64, doy: u32) -> f64 {
-    let j = f64::from(doy);
-    let dr = 1.0 + 0.033 * (2.0 * std::f64::consts::PI / 365.0 * j).cos(); // eq. 23
-    let delta = 0.409 * (2.0 * std::f64::consts::PI / 365.0 * j - 1.39).sin(); // eq. 24
-    let ws = (-latitude_rad.tan() * delta.tan()).clamp(-1.0, 1.0).acos(); // eq. 25
-    let ra = 24.0 * 60.0 / std::f64::consts::PI
-        * SOLAR_CONSTANT_MJ_M2_MIN
-        * dr
-        * (ws * latitude_rad.sin() * delta.sin() + latitude_rad.cos() * delta.cos() * ws.sin()); // eq. 21
-    (0.75 + 2.0e-5 * elevation_m) * ra // eq. 37
+/// Clear-sky solar radiation Rso (MJ m⁻² day⁻¹) of a day: FAO-56 eq. 37 with
+/// Ra of eq. 21 (functions of [`crate::et0::radiation`]).
+fn clear_sky_radiation_of_day_mj(latitude_rad: f64, elevation_m: f64, doy: u32) -> f64 {
+    clear_sky_radiation_mj(
+        extraterrestrial_radiation_mj(latitude_rad, doy),
+        elevation_m,
+    )
 }
 
 fn round1(x: f64) -> f64 {
@@ -433,7 +425,7 @@ pub fn generate_invented_weather(
         if wet {
             clearness *= 0.85 - 0.3 * (rain_mm / 40.0).min(1.0);
         }
-        let rso = clear_sky_radiation_mj(latitude_rad, settings.site.elevation_m, doy);
+        let rso = clear_sky_radiation_of_day_mj(latitude_rad, settings.site.elevation_m, doy);
         let solar = ((clearness.clamp(0.22, 0.97) * rso * 10.0).floor()) / 10.0;
 
         // Wind.
@@ -496,7 +488,7 @@ fn plant_defects(first_year: i32, days: &mut Vec<WeatherDay>, defects: &mut Vec<
             }
             DefectKind::Spike => {
                 let d = &mut days[i0];
-                d.tmax_c = d.tmax_c.map(|t| round1(t + 14.0));
+                d.tmax_c = d.tmax_c.map(|t| round1(t + SPIKE_C));
             }
             DefectKind::Stuck => {
                 let stuck = days[i0].wind_ms;
@@ -539,12 +531,6 @@ mod tests {
         assert!(new_year > 5.0 && new_year < 11.0);
     }
 
-    /// FAO-56 eq. 11 at 25 °C: e° = 3.168 kPa (FAO-56 Annex 2, Table 2.3).
-    #[test]
-    fn saturation_vapour_pressure_table_2_3() {
-        assert!((saturation_vapour_pressure_kpa(25.0) - 3.168).abs() < 0.0005);
-    }
-
     /// Solar radiation never exceeds the clear-sky radiation Rso of its day.
     #[test]
     fn solar_never_above_clear_sky() {
@@ -553,18 +539,13 @@ mod tests {
         let lat = settings.site.latitude_deg.to_radians();
         for day in &weather.days {
             if let Some(rs) = day.solar_mj {
-                let rso =
-                    clear_sky_radiation_mj(lat, settings.site.elevation_m, day_of_year(day.date));
+                let rso = clear_sky_radiation_of_day_mj(
+                    lat,
+                    settings.site.elevation_m,
+                    day_of_year(day.date),
+                );
                 assert!(rs <= rso, "{}: {rs} > {rso}", day.date);
             }
         }
-    }
-
-    /// FAO-56 Example 8 (p. 47): 20°S, 3 September (J = 246), Ra = 32.2
-    /// MJ m⁻² day⁻¹; Rso at sea level = 0.75 Ra = 24.15.
-    #[test]
-    fn clear_sky_radiation_example_8() {
-        let rso = clear_sky_radiation_mj((-20.0_f64).to_radians(), 0.0, 246);
-        assert!((rso / 0.75 - 32.2).abs() < 0.05);
     }
 }

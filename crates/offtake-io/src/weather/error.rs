@@ -306,14 +306,19 @@ pub enum ImportError {
         /// Problems beyond the cap, counted but not listed.
         omitted: usize,
     },
-    /// A mapping file could not be read or parsed.
-    #[error("{}: mapping file: {source}", path.display())]
+    /// A mapping file could not be parsed.
+    #[error(
+        "{}:{}:{}: mapping file: {}; expected a column mapping in RON (date_column, columns)",
+        path.display(),
+        error.span.start.line,
+        error.span.start.col,
+        error.code
+    )]
     MappingFile {
         /// The mapping file.
         path: PathBuf,
-        /// The RON parser's message with its line and column.
-        #[source]
-        source: Box<ron::error::SpannedError>,
+        /// The RON parser's error with its line and column.
+        error: Box<ron::error::SpannedError>,
     },
     /// The options are contradictory.
     #[error("import options: found {found}, expected {expected}")]

@@ -905,9 +905,9 @@ pub fn load_mapping(path: &Path) -> Result<ColumnMapping, ImportError> {
         path: path.to_path_buf(),
         source,
     })?;
-    ColumnMapping::from_ron_str(&text).map_err(|source| ImportError::MappingFile {
+    ColumnMapping::from_ron_str(&text).map_err(|error| ImportError::MappingFile {
         path: path.to_path_buf(),
-        source: Box::new(source),
+        error: Box::new(error),
     })
 }
 

@@ -1,0 +1,877 @@
+//! [`OfftakeApp`]: the window, its panels, and the end-of-frame command loop.
+//!
+//! Each frame: keyboard shortcuts and views push [`Command`]s onto a list;
+//! after everything is drawn, [`OfftakeApp::apply`] runs them in order.
+//! Document edits go through the undo history; results come from the
+//! background worker and are cached, never computed inside a frame.
+
+use std::sync::Arc;
+use std::sync::mpsc::{self, Receiver, Sender};
+use std::time::{Duration, Instant};
+
+use egui::{Key, KeyboardShortcut, Modifiers, Ui};
+use offtake_core::project::Project;
+use offtake_io::library::Libraries;
+
+use crate::command::{Command, HelpWindow, ItemRef, PanelKind, Selection};
+use crate::compute::{ComputeFn, Computed, Snapshot};
+use crate::document::OpenDocument;
+use crate::edit::DocEdit;
+use crate::history::History;
+use crate::menu::MenuInfo;
+use crate::recovery::Recovery;
+use crate::state::{Discard, RecomputeStatus, RuntimeState};
+use crate::status::SaveState;
+use crate::tabs::{Tabs, View};
+use crate::worker::{Worker, WorkerState};
+use crate::{help, inspector, menu, status, tree};
+
+/// The invented demo scheme of the repository.
+pub const DEMO_PROJECT: &str = concat!(
+    env!("CARGO_MANIFEST_DIR"),
+    "/../../demo-projects/demo-scheme/scheme.ron"
+);
+
+/// Quiet time after the last edit before recomputing.
+pub const DEFAULT_DEBOUNCE: Duration = Duration::from_millis(150);
+
+/// Ctrl+S: save.
+pub const SAVE: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::S);
+/// Ctrl+O: open.
+pub const OPEN: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::O);
+/// Ctrl+Z: undo.
+pub const UNDO: KeyboardShortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::Z);
+/// Ctrl+Shift+Z: redo.
+pub const REDO: KeyboardShortcut = KeyboardShortcut::new(
+    Modifiers {
+        alt: false,
+        ctrl: false,
+        shift: true,
+        mac_cmd: false,
+        command: true,
+    },
+    Key::Z,
+);
+/// F1: help (Methods and sources).
+pub const HELP: KeyboardShortcut = KeyboardShortcut::new(Modifiers::NONE, Key::F1);
+/// Delete: remove the selected tree item.
+pub const DELETE: KeyboardShortcut = KeyboardShortcut::new(Modifiers::NONE, Key::Delete);
+
+/// A plot image waiting for the user to pick a file.
+struct PendingImage {
+    file_name: String,
+    image: egui::ColorImage,
+}
+
+/// The desktop application: the document (once open), runtime state, cached
+/// results and the handles of background work.
+pub struct OfftakeApp {
+    /// Crop and soil libraries (built-in FAO-56 tables).
+    pub libraries: Arc<Libraries>,
+    /// The open project, if any.
+    pub document: Option<OpenDocument>,
+    /// Undo/redo of document edits.
+    pub history: History<DocEdit>,
+    /// Session state: tab, selection, windows, panels, messages.
+    pub state: RuntimeState,
+    /// Background recomputation.
+    worker: Worker<Snapshot, Computed>,
+    /// View state of the workspace tabs.
+    pub tabs: Tabs,
+    /// Results of the last finished computation.
+    pub computed: Option<Computed>,
+    /// Commands recorded this frame, applied at its end.
+    commands: Vec<Command>,
+    /// Screenshots cropped to a plot arrive here from the renderer.
+    images_tx: Sender<PendingImage>,
+    images_rx: Receiver<PendingImage>,
+    /// Whether file dialogs may open (off in headless tests).
+    dialogs: bool,
+    /// The user confirmed closing with unsaved changes.
+    closing: bool,
+    /// Autosave to a recovery file (off when `None`).
+    recovery: Option<Recovery>,
+    /// A recovery file from an earlier session waits for the user's answer.
+    offer_recovery: bool,
+    /// The weather import window, while open.
+    pub import: Option<crate::import::ImportJob>,
+}
+
+impl std::fmt::Debug for OfftakeApp {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.debug_struct("OfftakeApp")
+            .field("state", &self.state)
+            .finish_non_exhaustive()
+    }
+}
+
+impl Default for OfftakeApp {
+    fn default() -> Self {
+        Self::new()
+    }
+}
+
+impl OfftakeApp {
+    /// A new window with no project open.
+    pub fn new() -> Self {
+        let (libraries, problem) = match Libraries::builtin() {
+            Ok(l) => (l, None),
+            Err(e) => (
+                Libraries {
+                    crops: Vec::new(),
+                    soils: Vec::new(),
+                },
+                Some(format!(
+                    "The built-in crop and soil libraries could not be read: {e}"
+                )),
+            ),
+        };
+        let libs = Arc::new(libraries);
+        let for_worker = Arc::clone(&libs);
+        let mut app = Self::with_compute(
+            DEFAULT_DEBOUNCE,
+            crate::compute::default_compute(for_worker),
+        );
+        app.libraries = libs;
+        app.state.message = problem;
+        app
+    }
+
+    /// A new window whose worker runs `compute` on a snapshot of the project
+    /// after each burst of edits (`debounce` of quiet time). This is where the
+    /// computation chain plugs in.
+    pub fn with_compute(debounce: Duration, compute: ComputeFn) -> Self {
+        let (images_tx, images_rx) = mpsc::channel();
+        Self {
+            libraries: Arc::new(Libraries {
+                crops: Vec::new(),
+                soils: Vec::new(),
+            }),
+            document: None,
+            history: History::default(),
+            worker: Worker::spawn(debounce, compute),
+            state: RuntimeState::default(),
+            tabs: Tabs::default(),
+            computed: None,
+            commands: Vec::new(),
+            images_tx,
+            images_rx,
+            dialogs: true,
+            closing: false,
+            recovery: None,
+            offer_recovery: false,
+            import: None,
+        }
+    }
+
+    /// Turns native file dialogs off (headless tests): commands that need a
+    /// file then report so in the status line instead.
+    #[must_use]
+    pub fn without_dialogs(mut self) -> Self {
+        self.dialogs = false;
+        self
+    }
+
+    /// Autosaves unsaved work to `path`; if the file is already there (an
+    /// earlier session ended without saving), offers to restore it.
+    #[must_use]
+    pub fn with_recovery_file(mut self, path: std::path::PathBuf) -> Self {
+        let r = Recovery::new(path);
+        self.offer_recovery = r.exists();
+        self.recovery = Some(r);
+        self
+    }
+
+    /// Writes the recovery file now if there are unsaved changes.
+    pub fn autosave_now(&mut self) {
+        self.autosave(true);
+    }
+
+    fn autosave(&mut self, force: bool) {
+        if self.offer_recovery {
+            // Never overwrite an earlier session's work before the user answers.
+            return;
+        }
+        let (Some(r), Some(doc)) = (self.recovery.as_mut(), self.document.as_ref()) else {
+            return;
+        };
+        if !doc.is_dirty() {
+            return;
+        }
+        if let Err(e) = r.write_if_due(&doc.project, Instant::now(), force) {
+            self.state.message = Some(format!("Autosave failed: {e}"));
+        }
+    }
+
+    fn clear_recovery(&mut self) {
+        if !self.offer_recovery
+            && let Some(r) = self.recovery.as_mut()
+        {
+            r.clear();
+        }
+    }
+
+    fn recovery_window(&mut self, ctx: &egui::Context) {
+        if !self.offer_recovery {
+            return;
+        }
+        let mut answer = None;
+        egui::Window::new("Restore unsaved work?")
+            .collapsible(false)
+            .resizable(false)
+            .show(ctx, |ui| {
+                ui.label(
+                    "The last session ended with unsaved changes. Restore them as an unsaved project?",
+                );
+                ui.horizontal(|ui| {
+                    if ui.button("Restore").clicked() {
+                        answer = Some(true);
+                    }
+                    if ui.button("Discard the recovered work").clicked() {
+                        answer = Some(false);
+                    }
+                });
+            });
+        let Some(restore) = answer else { return };
+        self.offer_recovery = false;
+        if restore {
+            let read = self.recovery.as_ref().map(Recovery::read);
+            match read {
+                Some(Ok(project)) => {
+                    self.set_document(OpenDocument::new(project));
+                    self.state.message =
+                        Some("Restored unsaved work — save it with File › Save as…".to_owned());
+                    // Keep the file until the restored work is saved again.
+                    self.autosave(true);
+                }
+                Some(Err(e)) => self.state.message = Some(format!("Could not restore: {e}")),
+                None => {}
+            }
+        } else {
+            self.clear_recovery();
+        }
+    }
+
+    /// Queues a command as if a view had pushed it; it runs at the end of the next frame.
+    pub fn push(&mut self, command: Command) {
+        self.commands.push(command);
+    }
+
+    fn project_open(&self) -> bool {
+        self.document.is_some()
+    }
+
+    /// The open project, if any.
+    pub fn project(&self) -> Option<&Project> {
+        self.document.as_ref().map(|d| &d.project)
+    }
+
+    /// Opens `project` as a new, unsaved document (clears the history and
+    /// schedules a recompute).
+    pub fn open_project(&mut self, project: Project) {
+        self.set_document(OpenDocument::new(project));
+    }
+
+    fn set_document(&mut self, doc: OpenDocument) {
+        self.document = Some(doc);
+        self.history.clear();
+        self.state.selection = Selection::Scheme;
+        self.request_recompute();
+    }
+
+    fn request_recompute(&mut self) {
+        if let Some(doc) = &self.document {
+            let snapshot = Snapshot {
+                project: doc.project.clone(),
+                project_path: doc.path.clone(),
+            };
+            self.worker.request(snapshot, Instant::now());
+            self.state.recompute = RecomputeStatus::Running;
+        }
+    }
+
+    /// Blocks until the background computation settles (at most `timeout`)
+    /// and takes its results. For tests and scripted screenshots; the UI
+    /// itself never waits.
+    pub fn wait_for_recompute(&mut self, timeout: Duration) {
+        if let Some(done) = self.worker.wait(timeout) {
+            self.take_results(done);
+        }
+        self.sync_worker_state();
+    }
+
+    fn take_results(&mut self, done: crate::worker::Finished<Computed>) {
+        self.state.warning_count = done.output.warnings.len();
+        self.computed = Some(done.output);
+        self.state.recompute = RecomputeStatus::Done {
+            elapsed_ms: done.elapsed_ms,
+        };
+    }
+
+    fn sync_worker_state(&mut self) {
+        match self.worker.state() {
+            WorkerState::Running | WorkerState::Waiting => {
+                self.state.recompute = RecomputeStatus::Running;
+            }
+            WorkerState::Stopped => self.state.recompute = RecomputeStatus::Stopped,
+            WorkerState::Idle => {
+                if self.document.is_none() {
+                    self.state.recompute = RecomputeStatus::NothingToCompute;
+                }
+            }
+        }
+    }
+
+    fn poll_worker(&mut self, ctx: &egui::Context) {
+        let now = Instant::now();
+        if let Some(done) = self.worker.poll(now) {
+            self.take_results(done);
+        }
+        self.sync_worker_state();
+        if let Some(wait) = self.worker.next_poll_in(now) {
+            ctx.request_repaint_after(wait.max(Duration::from_millis(5)));
+        }
+    }
+
+    fn save_state(&self) -> SaveState {
+        match &self.document {
+            None => SaveState::NoProject,
+            Some(d) if !d.has_file() => SaveState::NotSaved,
+            Some(d) if d.is_dirty() => SaveState::Unsaved,
+            Some(_) => SaveState::Saved,
+        }
+    }
+
+    /// Draws one frame of the whole window, then applies the frame's commands.
+    pub fn ui(&mut self, ui: &mut Ui) {
+        self.shortcuts(ui);
+        self.receive_images();
+        self.poll_worker(ui.ctx());
+        let mut commands = std::mem::take(&mut self.commands);
+        let project_open = self.project_open();
+        let project = self.document.as_ref().map(|d| &d.project);
+
+        egui::Panel::top("menu").show(ui, |ui| {
+            let info = MenuInfo {
+                project_open,
+                undo: self.history.undo_label(),
+                redo: self.history.redo_label(),
+            };
+            menu::ui(ui, &self.state, info, &mut commands);
+        });
+        if self.state.panels.status_bar {
+            egui::Panel::bottom("status").show(ui, |ui| {
+                status::ui(ui, &self.state, self.save_state(), &mut commands);
+            });
+        }
+        if self.state.panels.tree {
+            egui::Panel::left("tree")
+                .resizable(true)
+                .default_size(260.0)
+                .show(ui, |ui| {
+                    egui::ScrollArea::vertical().show(ui, |ui| {
+                        tree::ui(
+                            ui,
+                            project,
+                            &self.libraries,
+                            &self.state.selection,
+                            &mut commands,
+                        );
+                    });
+                });
+        }
+        if self.state.panels.inspector {
+            egui::Panel::right("inspector")
+                .resizable(true)
+                .default_size(300.0)
+                .show(ui, |ui| {
+                    egui::ScrollArea::vertical().show(ui, |ui| {
+                        let ctx = inspector::Context {
+                            libraries: &self.libraries,
+                            problems: self.computed.as_ref().map_or(&[][..], |c| &c.warnings[..]),
+                        };
+                        inspector::ui(ui, project, &self.state.selection, &ctx, &mut commands);
+                    });
+                });
+        }
+        egui::CentralPanel::default().show(ui, |ui| {
+            if let Some(p) = project {
+                ui.label(format!(
+                    "Selection: {}",
+                    tree::breadcrumb(p, &self.state.selection).join(" › ")
+                ));
+            }
+            let view = View {
+                project_open,
+                project,
+                selection: &self.state.selection,
+                computed: self.computed.as_ref(),
+            };
+            self.tabs.ui(ui, self.state.tab, &view, &mut commands);
+        });
+        self.help_windows(ui.ctx());
+        self.discard_guard(ui.ctx());
+        self.recovery_window(ui.ctx());
+        self.import_window(ui.ctx());
+
+        commands.append(&mut self.commands);
+        if !commands.is_empty() {
+            // Show the effect of the commands in the next frame.
+            ui.ctx().request_repaint();
+        }
+        for command in commands {
+            self.apply(command, ui.ctx());
+        }
+        self.autosave(false);
+    }
+
+    /// Reads the keyboard shortcuts into commands. Undo, redo and Delete are
+    /// left to a text field that has the keyboard focus.
+    fn shortcuts(&mut self, ui: &Ui) {
+        let typing = ui.ctx().egui_wants_keyboard_input();
+        ui.input_mut(|i| {
+            if i.consume_shortcut(&SAVE) {
+                self.commands.push(Command::Save);
+            }
+            if i.consume_shortcut(&OPEN) {
+                self.commands.push(Command::OpenProject);
+            }
+            if i.consume_shortcut(&HELP) {
+                self.commands.push(Command::ShowHelp(HelpWindow::Methods));
+            }
+            if !typing {
+                // Ctrl+Shift+Z before Ctrl+Z: the latter also matches with Shift held.
+                if i.consume_shortcut(&REDO) {
+                    self.commands.push(Command::Redo);
+                }
+                if i.consume_shortcut(&UNDO) {
+                    self.commands.push(Command::Undo);
+                }
+                if i.consume_shortcut(&DELETE) {
+                    self.commands.push(Command::DeleteSelected);
+                }
+            }
+        });
+    }
+
+    fn help_windows(&mut self, ctx: &egui::Context) {
+        egui::Window::new("Methods and sources")
+            .open(&mut self.state.help.methods)
+            .default_width(620.0)
+            .show(ctx, help::methods_ui);
+        egui::Window::new("Cautions")
+            .open(&mut self.state.help.cautions)
+            .default_width(520.0)
+            .show(ctx, help::cautions_ui);
+        egui::Window::new("About Offtake")
+            .open(&mut self.state.help.about)
+            .default_width(420.0)
+            .show(ctx, help::about_ui);
+    }
+
+    /// Applies one command.
+    pub fn apply(&mut self, command: Command, ctx: &egui::Context) {
+        match command {
+            Command::SelectTab(tab) => self.state.tab = tab,
+            Command::Select(sel) => self.state.selection = sel,
+            Command::ShowHelp(which) => self.state.help.open(which),
+            Command::TogglePanel(kind) => self.state.panels.toggle(kind),
+            Command::Edit(edit) => self.edit(edit),
+            Command::Undo => self.undo(),
+            Command::Redo => self.redo(),
+            Command::DeleteSelected => match &self.state.selection {
+                Selection::Item(item) => {
+                    let item = item.clone();
+                    self.edit(DocEdit::Remove(item));
+                }
+                _ => {
+                    self.state.message =
+                        Some("Select a canal, block or planting to delete".to_owned());
+                }
+            },
+            Command::NewProject | Command::OpenProject | Command::OpenRecent(_)
+                if self.document.as_ref().is_some_and(OpenDocument::is_dirty) =>
+            {
+                self.state.confirm_discard = Some(Discard::Command(Box::new(command)));
+            }
+            Command::NewProject | Command::OpenProject | Command::OpenRecent(_) => {
+                self.replace_document(command);
+            }
+            Command::Save => match self.document.as_ref().and_then(|d| d.path.clone()) {
+                Some(path) => self.save_to(&path),
+                None => self.apply(Command::SaveAs, ctx),
+            },
+            Command::SaveAs => {
+                if self.document.is_some()
+                    && let Some(path) = self.pick_file(true, "project.ron")
+                {
+                    self.save_to(&path);
+                }
+            }
+            Command::ImportWeather => self.import_weather(),
+            Command::ExportWorkbook => {
+                self.state.message = Some(
+                    "Weather import and workbook export are not available in this build yet"
+                        .to_owned(),
+                );
+            }
+            Command::DiscardAndRun(inner) => {
+                self.clear_recovery();
+                self.replace_document(*inner);
+            }
+            Command::ExportPlotCsv { file_name, csv } => self.export_csv(&file_name, &csv),
+            Command::ExportPlotImage { file_name, rect } => {
+                self.request_plot_image(ctx, file_name, rect);
+            }
+        }
+    }
+
+    /// Opens the invented demo scheme shipped in `demo-projects/` (first start).
+    pub fn open_demo(&mut self) {
+        let path = std::path::Path::new(DEMO_PROJECT);
+        let path = std::fs::canonicalize(path).unwrap_or_else(|_| path.to_path_buf());
+        self.open_file(&path);
+    }
+
+    /// New, Open or Open recent, without asking about unsaved changes.
+    fn replace_document(&mut self, command: Command) {
+        match command {
+            Command::NewProject => self.new_project(),
+            Command::OpenProject => {
+                if let Some(path) = self.pick_file(false, "project.ron") {
+                    self.open_file(&path);
+                }
+            }
+            Command::OpenRecent(path) => self.open_file(&path),
+            other => self.state.message = Some(format!("Unexpected command {other:?}")),
+        }
+    }
+
+    /// Picks a weather CSV and opens the import window for it.
+    fn import_weather(&mut self) {
+        if self.document.is_none() {
+            return;
+        }
+        if !self.dialogs {
+            self.state.message = Some("File dialogs are off".to_owned());
+            return;
+        }
+        if let Some(file) = rfd::FileDialog::new()
+            .add_filter("Weather CSV", &["csv"])
+            .pick_file()
+        {
+            self.preview_weather(file);
+        }
+    }
+
+    /// Reads `file` in the background and shows the import window.
+    pub fn preview_weather(&mut self, file: std::path::PathBuf) {
+        self.import = Some(crate::import::ImportJob::start(file));
+    }
+
+    /// Blocks until the weather import window has its result (tests only).
+    pub fn wait_for_import(&mut self, timeout: Duration) {
+        if let Some(job) = self.import.as_mut() {
+            job.wait(timeout);
+        }
+    }
+
+    fn import_window(&mut self, ctx: &egui::Context) {
+        let Some(job) = self.import.as_mut() else {
+            return;
+        };
+        job.poll();
+        let mut answer = None;
+        egui::Window::new("Import weather")
+            .collapsible(false)
+            .default_width(640.0)
+            .show(ctx, |ui| answer = crate::import::ui(ui, job));
+        match answer {
+            Some(crate::import::ImportAnswer::Attach(file)) => {
+                self.import = None;
+                self.attach_weather(&file);
+            }
+            Some(crate::import::ImportAnswer::Cancel) => self.import = None,
+            None => {}
+        }
+    }
+
+    /// Attaches a weather file to the project as an undoable edit; the worker
+    /// reads it and computes daily ET₀.
+    fn attach_weather(&mut self, file: &std::path::Path) {
+        let Some(doc) = self.document.as_ref() else {
+            return;
+        };
+        let mut weather = doc.project.weather.clone();
+        weather.path = relative_to_project(file, doc.path.as_deref());
+        self.edit(DocEdit::SetWeather(weather));
+        self.state.selection = Selection::Weather;
+        self.state.message = Some(
+            "Weather attached — check the station latitude, elevation and wind height in the inspector"
+                .to_owned(),
+        );
+    }
+
+    fn new_project(&mut self) {
+        self.set_document(OpenDocument::new(Project::default()));
+        self.state.message = Some("New project".to_owned());
+    }
+
+    /// Opens a project file; a bad file leaves the open project as it was
+    /// and reports the file, line and column of the problem.
+    pub fn open_file(&mut self, path: &std::path::Path) {
+        match offtake_io::project_file::load_project(path) {
+            Ok(project) => {
+                self.set_document(OpenDocument::opened(project, path.to_path_buf()));
+                self.remember_recent(path);
+                self.state.message = Some(format!("Opened {}", path.display()));
+            }
+            Err(e) => self.state.message = Some(format!("Could not open: {e}")),
+        }
+    }
+
+    /// Saves the project to `path` (atomic; an invalid project is saved too,
+    /// so nothing is lost, and its problems stay listed).
+    pub fn save_to(&mut self, path: &std::path::Path) {
+        let Some(doc) = self.document.as_mut() else {
+            return;
+        };
+        match offtake_io::project_file::save_project(path, &doc.project) {
+            Ok(()) => {
+                doc.mark_saved(path.to_path_buf());
+                self.remember_recent(path);
+                self.clear_recovery();
+                self.state.message = Some(format!("Saved {}", path.display()));
+            }
+            Err(e) => self.state.message = Some(format!("Could not save: {e}")),
+        }
+    }
+
+    fn remember_recent(&mut self, path: &std::path::Path) {
+        self.state.recent.retain(|p| p != path);
+        self.state.recent.insert(0, path.to_path_buf());
+        self.state.recent.truncate(10);
+    }
+
+    fn pick_file(&mut self, save: bool, suggested: &str) -> Option<std::path::PathBuf> {
+        if !self.dialogs {
+            self.state.message = Some("File dialogs are off".to_owned());
+            return None;
+        }
+        let dialog = rfd::FileDialog::new().add_filter("Offtake project", &["ron"]);
+        if save {
+            dialog.set_file_name(suggested).save_file()
+        } else {
+            dialog.pick_file()
+        }
+    }
+
+    /// The "discard unsaved changes?" window and the close guard.
+    fn discard_guard(&mut self, ctx: &egui::Context) {
+        let dirty = self.document.as_ref().is_some_and(OpenDocument::is_dirty);
+        if ctx.input(|i| i.viewport().close_requested()) && dirty && !self.closing {
+            ctx.send_viewport_cmd(egui::ViewportCommand::CancelClose);
+            self.state.confirm_discard = Some(Discard::Close);
+        }
+        let Some(pending) = self.state.confirm_discard.clone() else {
+            return;
+        };
+        let mut answer = None;
+        egui::Window::new("Unsaved changes")
+            .collapsible(false)
+            .resizable(false)
+            .show(ctx, |ui| {
+                ui.label("The project has changes that are not saved. Discard them?");
+                ui.horizontal(|ui| {
+                    if ui.button("Discard changes").clicked() {
+                        answer = Some(true);
+                    }
+                    if ui.button("Cancel").clicked() {
+                        answer = Some(false);
+                    }
+                });
+            });
+        match answer {
+            Some(true) => {
+                self.state.confirm_discard = None;
+                match pending {
+                    Discard::Close => {
+                        self.closing = true;
+                        self.clear_recovery();
+                        ctx.send_viewport_cmd(egui::ViewportCommand::Close);
+                    }
+                    Discard::Command(cmd) => self.commands.push(Command::DiscardAndRun(cmd)),
+                }
+            }
+            Some(false) => self.state.confirm_discard = None,
+            None => {}
+        }
+    }
+
+    fn edit(&mut self, edit: DocEdit) {
+        let Some(doc) = self.document.as_mut() else {
+            self.state.message = Some("No project open".to_owned());
+            return;
+        };
+        let removed = match &edit {
+            DocEdit::Remove(item) => Some(item.clone()),
+            _ => None,
+        };
+        match self.history.apply(edit, &mut doc.project) {
+            Ok(()) => {
+                if removed.is_some_and(|r| self.state.selection == Selection::Item(r)) {
+                    self.state.selection = Selection::Scheme;
+                }
+                self.state.message = None;
+                self.request_recompute();
+            }
+            Err(e) => self.state.message = Some(format!("Could not apply the edit: {e}")),
+        }
+    }
+
+    fn undo(&mut self) {
+        let Some(doc) = self.document.as_mut() else {
+            return;
+        };
+        self.state.message = Some(match self.history.undo(&mut doc.project) {
+            None => "Nothing to undo".to_owned(),
+            Some(Ok(label)) => format!("Undid {label}"),
+            Some(Err(e)) => format!("Could not undo: {e}"),
+        });
+        self.fix_selection();
+        self.request_recompute();
+    }
+
+    fn redo(&mut self) {
+        let Some(doc) = self.document.as_mut() else {
+            return;
+        };
+        self.state.message = Some(match self.history.redo(&mut doc.project) {
+            None => "Nothing to redo".to_owned(),
+            Some(Ok(label)) => format!("Redid {label}"),
+            Some(Err(e)) => format!("Could not redo: {e}"),
+        });
+        self.fix_selection();
+        self.request_recompute();
+    }
+
+    /// Falls back to the scheme when the selected item is gone.
+    fn fix_selection(&mut self) {
+        let Some(p) = self.project() else { return };
+        let exists = match &self.state.selection {
+            Selection::Item(ItemRef::Canal(id)) => p.canal(id).is_some(),
+            Selection::Item(ItemRef::Block(id)) => p.block(id).is_some(),
+            Selection::Item(ItemRef::Planting(id)) => p.planting(id).is_some(),
+            _ => true,
+        };
+        if !exists {
+            self.state.selection = Selection::Scheme;
+        }
+    }
+
+    fn export_csv(&mut self, file_name: &str, csv: &str) {
+        if !self.dialogs {
+            self.state.message = Some("File dialogs are off".to_owned());
+            return;
+        }
+        let Some(path) = rfd::FileDialog::new()
+            .set_file_name(file_name)
+            .add_filter("CSV", &["csv"])
+            .save_file()
+        else {
+            return;
+        };
+        self.state.message = Some(match std::fs::write(&path, csv) {
+            Ok(()) => format!("Plot data saved to {}", path.display()),
+            Err(e) => format!("Could not write {}: {e}", path.display()),
+        });
+    }
+
+    /// Asks the renderer for a screenshot; the cropped plot arrives on the channel.
+    fn request_plot_image(&mut self, ctx: &egui::Context, file_name: String, rect: egui::Rect) {
+        let rect = if rect.is_positive() {
+            rect
+        } else {
+            ctx.data(|d| d.get_temp::<egui::Rect>(egui::Id::unique(crate::plot::LAST_PLOT_RECT)))
+                .unwrap_or(egui::Rect::NOTHING)
+        };
+        if !rect.is_positive() {
+            self.state.message = Some("No plot on screen to export".to_owned());
+            return;
+        }
+        let tx = self.images_tx.clone();
+        let ppp = ctx.pixels_per_point();
+        let repaint = ctx.clone();
+        ctx.request_screenshot(move |full: Arc<egui::ColorImage>| {
+            let image = full.region(&rect, Some(ppp));
+            // The receiver lives as long as the app; a closed window drops the image.
+            let _ = tx.send(PendingImage { file_name, image });
+            repaint.request_repaint();
+        });
+    }
+
+    fn receive_images(&mut self) {
+        while let Ok(pending) = self.images_rx.try_recv() {
+            self.save_png(&pending);
+        }
+    }
+
+    fn save_png(&mut self, pending: &PendingImage) {
+        if !self.dialogs {
+            return;
+        }
+        let Some(path) = rfd::FileDialog::new()
+            .set_file_name(&pending.file_name)
+            .add_filter("PNG image", &["png"])
+            .save_file()
+        else {
+            return;
+        };
+        let [w, h] = pending.image.size;
+        let bytes: Vec<u8> = pending
+            .image
+            .pixels
+            .iter()
+            .flat_map(egui::Color32::to_srgba_unmultiplied)
+            .collect();
+        let result = image::RgbaImage::from_raw(w as u32, h as u32, bytes)
+            .ok_or_else(|| "image size does not match its pixels".to_owned())
+            .and_then(|img| img.save(&path).map_err(|e| e.to_string()));
+        self.state.message = Some(match result {
+            Ok(()) => format!("Plot image saved to {}", path.display()),
+            Err(e) => format!("Could not write {}: {e}", path.display()),
+        });
+    }
+
+    /// Whether a panel is shown (for tests and the View menu).
+    pub fn panel_shown(&self, kind: PanelKind) -> bool {
+        match kind {
+            PanelKind::Tree => self.state.panels.tree,
+            PanelKind::Inspector => self.state.panels.inspector,
+            PanelKind::StatusBar => self.state.panels.status_bar,
+        }
+    }
+}
+
+impl eframe::App for OfftakeApp {
+    fn ui(&mut self, ui: &mut Ui, _frame: &mut eframe::Frame) {
+        OfftakeApp::ui(self, ui);
+    }
+
+    fn on_exit(&mut self) {
+        // A normal exit with everything saved leaves no recovery file.
+        if !self.document.as_ref().is_some_and(OpenDocument::is_dirty) {
+            self.clear_recovery();
+        }
+    }
+}
+
+/// `file` relative to the project file's folder when it is inside it, else as given.
+fn relative_to_project(file: &std::path::Path, project: Option<&std::path::Path>) -> String {
+    project
+        .and_then(std::path::Path::parent)
+        .and_then(|dir| file.strip_prefix(dir).ok())
+        .unwrap_or(file)
+        .display()
+        .to_string()
+}

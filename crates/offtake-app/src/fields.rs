@@ -1,0 +1,294 @@
+//! Inspector form fields with units and inline validation.
+//!
+//! Each field shows its label, a text box and its unit. The text the user
+//! types is kept while the box has focus; it is committed (returned to the
+//! caller, who turns it into an undoable edit) when the box loses focus or on
+//! Enter. Validation runs on every keystroke and its message sits under the
+//! field. A value outside its allowed range is **kept and shown** with the
+//! reason and the range ("Application efficiency must be between 1 % and
+//! 100 %"); text that is not a number is kept in the box and never reaches
+//! the document.
+
+use chrono::NaiveDate;
+use egui::{Id, RichText, TextEdit, Ui};
+
+/// The allowed range of a numeric field, in the units shown to the user.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Bounds {
+    /// What the value is, capitalised ("Application efficiency").
+    pub what: &'static str,
+    /// Unit shown after the field ("%", "ha", "l/s"); empty for none.
+    pub unit: &'static str,
+    /// Lowest allowed value (display units).
+    pub min: f64,
+    /// Highest allowed value (display units).
+    pub max: f64,
+    /// Display value = stored value × factor (100 for a fraction shown in %).
+    pub factor: f64,
+}
+
+impl Bounds {
+    /// A range in the stored units (factor 1).
+    pub const fn new(what: &'static str, unit: &'static str, min: f64, max: f64) -> Self {
+        Self {
+            what,
+            unit,
+            min,
+            max,
+            factor: 1.0,
+        }
+    }
+
+    /// The same range for a value stored as a fraction and shown in %.
+    #[must_use]
+    pub const fn percent_of_fraction(mut self) -> Self {
+        self.factor = 100.0;
+        self
+    }
+
+    fn with_unit(&self, v: f64) -> String {
+        let n = format_number(v, 6);
+        match self.unit {
+            "" => n,
+            "%" => format!("{n} %"),
+            u => format!("{n} {u}"),
+        }
+    }
+
+    /// Checks a value in display units; the error names the allowed range.
+    ///
+    /// # Errors
+    /// A message like "Application efficiency must be between 1 % and 100 %".
+    pub fn check(&self, display_value: f64) -> Result<(), String> {
+        if !display_value.is_finite() {
+            return Err(format!("{} must be a finite number", self.what));
+        }
+        if display_value < self.min || display_value > self.max {
+            return Err(format!(
+                "{} must be between {} and {}",
+                self.what,
+                self.with_unit(self.min),
+                self.with_unit(self.max)
+            ));
+        }
+        Ok(())
+    }
+}
+
+/// Formats a number with at most `decimals` decimals and no trailing zeros.
+pub fn format_number(v: f64, decimals: usize) -> String {
+    let s = format!("{v:.decimals$}");
+    if s.contains('.') {
+        let t = s.trim_end_matches('0').trim_end_matches('.');
+        if t == "-0" {
+            "0".to_owned()
+        } else {
+            t.to_owned()
+        }
+    } else {
+        s
+    }
+}
+
+/// Parses what the user typed as a number in display units.
+///
+/// # Errors
+/// "Not a number" with the text, for text that does not parse.
+pub fn parse_number(text: &str) -> Result<f64, String> {
+    let t = text.trim().replace(['\u{202f}', ' '], "");
+    t.parse::<f64>()
+        .ok()
+        .filter(|v| v.is_finite())
+        .ok_or_else(|| format!("“{}” is not a number", text.trim()))
+}
+
+/// Result of drawing a field this frame.
+#[derive(Debug, Clone, PartialEq)]
+pub struct FieldOutcome<T> {
+    /// A value to commit (the field lost focus or Enter was pressed with a new value).
+    pub committed: Option<T>,
+    /// The validation message shown under the field, if any.
+    pub error: Option<String>,
+}
+
+/// Draws `label`, a text box with `text`, and `unit`, with the in-progress
+/// text kept in egui's temporary memory under `id` while the box is focused.
+/// Returns the response and the current text.
+fn text_box(ui: &mut Ui, id: Id, label: &str, unit: &str, shown: &str) -> (egui::Response, String) {
+    let mut text = ui
+        .data(|d| d.get_temp::<String>(id))
+        .unwrap_or_else(|| shown.to_owned());
+    let response = ui
+        .horizontal(|ui| {
+            let label_resp = ui.label(label);
+            let r = ui
+                .add(
+                    TextEdit::singleline(&mut text)
+                        .id(id)
+                        .desired_width(if unit.is_empty() { 170.0 } else { 90.0 }),
+                )
+                .labelled_by(label_resp.id);
+            if !unit.is_empty() {
+                ui.label(unit);
+            }
+            r
+        })
+        .inner;
+    if response.has_focus() {
+        ui.data_mut(|d| d.insert_temp(id, text.clone()));
+    } else {
+        ui.data_mut(|d| d.remove::<String>(id));
+    }
+    (response, text)
+}
+
+fn error_line(ui: &mut Ui, error: Option<&String>) {
+    if let Some(e) = error {
+        ui.label(RichText::new(e).color(ui.visuals().error_fg_color));
+    }
+}
+
+/// A numeric field. `stored` is the document value (stored units).
+/// Returns the value to commit in stored units, and the validation message.
+pub fn number_field(
+    ui: &mut Ui,
+    id: Id,
+    label: &str,
+    stored: f64,
+    bounds: &Bounds,
+    decimals: usize,
+) -> FieldOutcome<f64> {
+    let display = stored * bounds.factor;
+    let (response, text) = text_box(
+        ui,
+        id,
+        label,
+        bounds.unit,
+        &format_number(display, decimals),
+    );
+    let parsed = parse_number(&text);
+    let error = match &parsed {
+        Ok(v) => bounds.check(*v).err(),
+        Err(e) => Some(e.clone()),
+    };
+    error_line(ui, error.as_ref());
+    let committed = match parsed {
+        Ok(v) if response.lost_focus() && format_number(v, 12) != format_number(display, 12) => {
+            Some(v / bounds.factor)
+        }
+        _ => None,
+    };
+    FieldOutcome { committed, error }
+}
+
+/// A text field (names). Empty names are an error, kept and shown.
+pub fn name_field(ui: &mut Ui, id: Id, label: &str, stored: &str) -> FieldOutcome<String> {
+    let (response, text) = text_box(ui, id, label, "", stored);
+    let error = text
+        .trim()
+        .is_empty()
+        .then(|| format!("{label} must not be empty"));
+    error_line(ui, error.as_ref());
+    let committed = (response.lost_focus() && text != stored).then_some(text);
+    FieldOutcome { committed, error }
+}
+
+/// A date field in ISO form (2031-04-15).
+pub fn date_field(ui: &mut Ui, id: Id, label: &str, stored: NaiveDate) -> FieldOutcome<NaiveDate> {
+    let (response, text) = text_box(ui, id, label, "(YYYY-MM-DD)", &stored.to_string());
+    let parsed = NaiveDate::parse_from_str(text.trim(), "%Y-%m-%d").map_err(|_| {
+        format!(
+            "“{}” is not a date; write it as YYYY-MM-DD, e.g. 2031-04-15",
+            text.trim()
+        )
+    });
+    let error = parsed.as_ref().err().cloned();
+    error_line(ui, error.as_ref());
+    let committed = match parsed {
+        Ok(d) if response.lost_focus() && d != stored => Some(d),
+        _ => None,
+    };
+    FieldOutcome { committed, error }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::{Bounds, format_number, parse_number};
+
+    #[test]
+    fn range_message_names_quantity_range_and_unit() {
+        let b = Bounds::new("Application efficiency", "%", 1.0, 100.0).percent_of_fraction();
+        assert_eq!(
+            b.check(120.0),
+            Err("Application efficiency must be between 1 % and 100 %".to_owned())
+        );
+        assert_eq!(b.check(65.0), Ok(()));
+        let area = Bounds::new("Area", "ha", 0.0, 1.0e6);
+        assert_eq!(
+            area.check(-2.0),
+            Err("Area must be between 0 ha and 1000000 ha".to_owned())
+        );
+    }
+
+    #[test]
+    fn numbers_parse_and_format_plainly() {
+        assert_eq!(parse_number(" 12.5 "), Ok(12.5));
+        assert!(parse_number("abc").is_err());
+        assert!(parse_number("NaN").is_err());
+        assert_eq!(format_number(0.650_000, 3), "0.65");
+        assert_eq!(format_number(12.0, 2), "12");
+        assert_eq!(format_number(-0.0001, 2), "0");
+    }
+}
+
+/// Parses a day of the year written `MM-DD` (04-15); 29 February is refused
+/// because a cropping plan must exist in every year.
+///
+/// # Errors
+/// A message naming the expected form.
+pub fn parse_month_day(text: &str) -> Result<(u32, u32), String> {
+    let bad = || {
+        format!(
+            "“{}” is not a day of the year; write it as MM-DD, e.g. 04-15 (29 February is not allowed)",
+            text.trim()
+        )
+    };
+    let (m, d) = text.trim().split_once('-').ok_or_else(bad)?;
+    let month: u32 = m.trim().parse().map_err(|_| bad())?;
+    let day: u32 = d.trim().parse().map_err(|_| bad())?;
+    // 2001 is not a leap year.
+    NaiveDate::from_ymd_opt(2001, month, day).ok_or_else(bad)?;
+    Ok((month, day))
+}
+
+/// A day-of-year field (`MM-DD`) for dates that repeat every year.
+pub fn date_free_month_day(
+    ui: &mut Ui,
+    id: Id,
+    label: &str,
+    stored: (u32, u32),
+) -> FieldOutcome<(u32, u32)> {
+    let shown = format!("{:02}-{:02}", stored.0, stored.1);
+    let (response, text) = text_box(ui, id, label, "(MM-DD, every year)", &shown);
+    let parsed = parse_month_day(&text);
+    let error = parsed.as_ref().err().cloned();
+    error_line(ui, error.as_ref());
+    let committed = match parsed {
+        Ok(md) if response.lost_focus() && md != stored => Some(md),
+        _ => None,
+    };
+    FieldOutcome { committed, error }
+}
+
+#[cfg(test)]
+mod month_day_tests {
+    use super::parse_month_day;
+
+    #[test]
+    fn month_day_parses_and_refuses_leap_day() {
+        assert_eq!(parse_month_day("04-15"), Ok((4, 15)));
+        assert!(parse_month_day("02-29").is_err());
+        assert!(parse_month_day("13-01").is_err());
+        assert!(parse_month_day("April").is_err());
+    }
+}

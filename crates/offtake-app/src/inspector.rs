@@ -1,0 +1,800 @@
+//! The right panel: every field of the selected item with its unit and
+//! inline validation (see [`crate::fields`]).
+//!
+//! Each committed field change becomes one undoable edit that replaces the
+//! touched record with an updated copy.
+
+use egui::{Id, RichText, Ui};
+use offtake_core::project::{
+    Block, Canal, CanalKind, DesignBasis, EffectiveRain, Et0Method, MonthDay, Options, Planting,
+    PlantingArea, Project, ReportingStep, Strategy,
+};
+
+use offtake_io::library::Libraries;
+
+use crate::command::{Command, ItemRef, Selection};
+use crate::edit::DocEdit;
+use crate::fields::{Bounds, date_free_month_day, name_field, number_field};
+
+/// Allowed ranges, in the units shown.
+pub mod bounds {
+    use crate::fields::Bounds;
+
+    /// Conveyance efficiency Ec of a canal reach.
+    pub const CONVEYANCE: Bounds =
+        Bounds::new("Conveyance efficiency", "%", 1.0, 100.0).percent_of_fraction();
+    /// Field application efficiency Ea.
+    pub const APPLICATION: Bounds =
+        Bounds::new("Application efficiency", "%", 1.0, 100.0).percent_of_fraction();
+    /// Field-canal efficiency Eb.
+    pub const FIELD_CANAL: Bounds =
+        Bounds::new("Field-canal efficiency", "%", 1.0, 100.0).percent_of_fraction();
+    /// Hours of canal operation per day.
+    pub const HOURS: Bounds = Bounds::new("Operating hours", "h/day", 0.1, 24.0);
+    /// Existing capacity of a canal.
+    pub const CAPACITY: Bounds = Bounds::new("Existing capacity", "m³/s", 0.0, 10_000.0);
+    /// Block area.
+    pub const AREA: Bounds = Bounds::new("Area", "ha", 0.0, 1.0e6);
+    /// Planting share of its block.
+    pub const SHARE: Bounds = Bounds::new("Share of block", "%", 0.0, 100.0);
+    /// Planting spread.
+    pub const SPREAD: Bounds = Bounds::new("Planting spread", "days", 0.0, 365.0);
+    /// Season length of a planting (FAO-56 stage lengths are scaled to it).
+    pub const SEASON: Bounds = Bounds::new("Season length", "days", 4.0, 365.0);
+    /// Latitude.
+    pub const LATITUDE: Bounds = Bounds::new("Latitude", "°", -90.0, 90.0);
+    /// Elevation.
+    pub const ELEVATION: Bounds = Bounds::new("Elevation", "m", -500.0, 9000.0);
+    /// Wind measurement height.
+    pub const WIND_HEIGHT: Bounds = Bounds::new("Wind measurement height", "m", 0.5, 100.0);
+    /// Design probability.
+    pub const DESIGN_PROBABILITY: Bounds = Bounds::new("Design probability", "%", 1.0, 99.0);
+    /// Percent of RAW that triggers irrigation.
+    pub const TRIGGER_RAW: Bounds = Bounds::new("Trigger", "% of RAW", 1.0, 100.0);
+    /// Days between irrigations.
+    pub const INTERVAL: Bounds = Bounds::new("Interval", "days", 1.0, 365.0);
+    /// Net depth per irrigation.
+    pub const DEPTH: Bounds = Bounds::new("Net depth", "mm", 0.1, 500.0);
+    /// Percent of TAW that triggers deficit irrigation.
+    pub const TRIGGER_TAW: Bounds = Bounds::new("Trigger", "% of TAW", 1.0, 100.0);
+    /// Share of depletion refilled.
+    pub const REFILL: Bounds = Bounds::new("Refill", "% of depletion", 1.0, 100.0);
+    /// Rotation period.
+    pub const ROTATION: Bounds = Bounds::new("Rotation period", "days", 1.0, 60.0);
+    /// Fixed share of rain that is effective.
+    pub const FIXED_RAIN: Bounds = Bounds::new("Effective share of rain", "%", 0.0, 100.0);
+}
+
+/// What the inspector reads beside the document.
+#[derive(Debug, Clone, Copy)]
+pub struct Context<'a> {
+    /// Crop and soil libraries for the pickers.
+    pub libraries: &'a Libraries,
+    /// Problems found by the last validation run.
+    pub problems: &'a [String],
+}
+
+/// Shows the problems that name this item's id.
+fn problems_of(ui: &mut Ui, ctx: &Context<'_>, id: &str) {
+    let quoted = format!("{id:?}");
+    let mine: Vec<&String> = ctx
+        .problems
+        .iter()
+        .filter(|p| p.contains(&quoted))
+        .collect();
+    if mine.is_empty() {
+        return;
+    }
+    ui.separator();
+    ui.label(RichText::new("Problems").strong());
+    for p in mine {
+        ui.label(RichText::new(p).color(ui.visuals().error_fg_color));
+    }
+}
+
+fn fid(item: &str, field: &str) -> Id {
+    Id::unique(("inspector", item, field))
+}
+
+/// Draws the inspector for the selection.
+pub fn ui(
+    ui: &mut Ui,
+    doc: Option<&Project>,
+    selection: &Selection,
+    ctx: &Context<'_>,
+    commands: &mut Vec<Command>,
+) {
+    ui.label(RichText::new("Inspector").strong());
+    ui.separator();
+    let Some(doc) = doc else {
+        ui.label("Nothing selected.");
+        return;
+    };
+    match selection {
+        Selection::None => {
+            ui.label("Select the scheme, a canal, block or planting in the scheme tree to see and edit its fields.");
+        }
+        Selection::Scheme => {
+            scheme_ui(ui, doc, commands);
+            if !ctx.problems.is_empty() {
+                ui.separator();
+                ui.label(RichText::new(format!("Problems ({})", ctx.problems.len())).strong());
+                for p in ctx.problems {
+                    ui.label(RichText::new(p).color(ui.visuals().error_fg_color));
+                }
+            }
+        }
+        Selection::Weather => weather_ui(ui, doc, commands),
+        Selection::Options => options_ui(ui, &doc.options, commands),
+        Selection::Item(ItemRef::Canal(id)) => match doc.canal(id) {
+            Some(c) => {
+                canal_ui(ui, doc, c, commands);
+                problems_of(ui, ctx, &c.id);
+            }
+            None => gone(ui),
+        },
+        Selection::Item(ItemRef::Block(id)) => match doc.block(id) {
+            Some(b) => {
+                block_ui(ui, doc, b, ctx, commands);
+                problems_of(ui, ctx, &b.id);
+            }
+            None => gone(ui),
+        },
+        Selection::Item(ItemRef::Planting(id)) => match doc.planting(id) {
+            Some(p) => {
+                planting_ui(ui, doc, p, ctx, commands);
+                problems_of(ui, ctx, &p.id);
+            }
+            None => gone(ui),
+        },
+    }
+}
+
+fn gone(ui: &mut Ui) {
+    ui.label("The selected item is no longer in the project.");
+}
+
+fn scheme_ui(ui: &mut Ui, doc: &Project, commands: &mut Vec<Command>) {
+    ui.label(RichText::new("Scheme").heading());
+    if let Some(name) =
+        name_field(ui, fid("scheme", "name"), "Scheme name", &doc.scheme.name).committed
+    {
+        let mut s = doc.scheme.clone();
+        s.name = name;
+        commands.push(Command::Edit(DocEdit::SetScheme(s)));
+    }
+    let notes_id = fid("scheme", "notes");
+    let mut notes = ui
+        .data(|d| d.get_temp::<String>(notes_id))
+        .unwrap_or_else(|| doc.scheme.notes.clone());
+    let label = ui.label("Notes (data sources, assumptions)");
+    let r = ui
+        .add(
+            egui::TextEdit::multiline(&mut notes)
+                .id(notes_id)
+                .desired_rows(3),
+        )
+        .labelled_by(label.id);
+    if r.has_focus() {
+        ui.data_mut(|d| d.insert_temp(notes_id, notes.clone()));
+    } else {
+        ui.data_mut(|d| d.remove::<String>(notes_id));
+    }
+    if r.lost_focus() && notes != doc.scheme.notes {
+        let mut s = doc.scheme.clone();
+        s.notes = notes;
+        commands.push(Command::Edit(DocEdit::SetScheme(s)));
+    }
+    ui.label(format!(
+        "{} canals, {} blocks, {} plantings; {} ha commanded",
+        doc.canals.len(),
+        doc.blocks.len(),
+        doc.plantings.len(),
+        crate::fields::format_number(doc.scheme_area_ha(), 1)
+    ));
+}
+
+fn set_canal(c: Canal) -> Command {
+    Command::Edit(DocEdit::SetCanal {
+        id: c.id.clone(),
+        canal: Box::new(c),
+    })
+}
+
+fn canal_ui(ui: &mut Ui, doc: &Project, c: &Canal, commands: &mut Vec<Command>) {
+    ui.label(RichText::new("Canal").heading());
+    ui.label(format!("Id: {}", c.id));
+    if let Some(name) = name_field(ui, fid(&c.id, "name"), "Name", &c.name).committed {
+        let mut n = c.clone();
+        n.name = name;
+        commands.push(set_canal(n));
+    }
+    let mut kind = c.kind;
+    egui::ComboBox::from_label("Role")
+        .selected_text(kind.label())
+        .show_ui(ui, |ui| {
+            for k in [
+                CanalKind::Main,
+                CanalKind::Branch,
+                CanalKind::Distributary,
+                CanalKind::Minor,
+            ] {
+                ui.selectable_value(&mut kind, k, k.label());
+            }
+        });
+    if kind != c.kind {
+        let mut n = c.clone();
+        n.kind = kind;
+        commands.push(set_canal(n));
+    }
+    let parent_name = c
+        .parent
+        .as_deref()
+        .and_then(|p| doc.canal(p))
+        .map_or_else(|| "Headworks".to_owned(), |p| p.name.clone());
+    ui.label(format!("Takes water from: {parent_name}"));
+    let out = number_field(
+        ui,
+        fid(&c.id, "ec"),
+        "Conveyance efficiency Ec",
+        c.conveyance_efficiency,
+        &bounds::CONVEYANCE,
+        1,
+    );
+    if let Some(v) = out.committed {
+        let mut n = c.clone();
+        n.conveyance_efficiency = v;
+        commands.push(set_canal(n));
+    }
+    ui.label(RichText::new("Water delivered to the children ÷ water entering the reach.").weak());
+    let out = number_field(
+        ui,
+        fid(&c.id, "hours"),
+        "Operating hours",
+        c.operating_hours_per_day,
+        &bounds::HOURS,
+        1,
+    );
+    if let Some(v) = out.committed {
+        let mut n = c.clone();
+        n.operating_hours_per_day = v;
+        commands.push(set_canal(n));
+    }
+    let mut has_capacity = c.existing_capacity_m3s.is_some();
+    if ui
+        .checkbox(&mut has_capacity, "Existing capacity known")
+        .changed()
+    {
+        let mut n = c.clone();
+        n.existing_capacity_m3s = has_capacity.then_some(0.0);
+        commands.push(set_canal(n));
+    }
+    if let Some(cap) = c.existing_capacity_m3s {
+        let out = number_field(
+            ui,
+            fid(&c.id, "cap"),
+            "Existing capacity",
+            cap,
+            &bounds::CAPACITY,
+            3,
+        );
+        if let Some(v) = out.committed {
+            let mut n = c.clone();
+            n.existing_capacity_m3s = Some(v);
+            commands.push(set_canal(n));
+        }
+    }
+    if let Ok(area) = doc.commanded_area_ha(&c.id) {
+        ui.label(format!(
+            "Command area: {} ha",
+            crate::fields::format_number(area, 1)
+        ));
+    }
+}
+
+fn set_block(b: Block) -> Command {
+    Command::Edit(DocEdit::SetBlock {
+        id: b.id.clone(),
+        block: Box::new(b),
+    })
+}
+
+fn block_ui(ui: &mut Ui, doc: &Project, b: &Block, ctx: &Context<'_>, commands: &mut Vec<Command>) {
+    ui.label(RichText::new("Block").heading());
+    ui.label(format!("Id: {}", b.id));
+    if let Some(name) = name_field(ui, fid(&b.id, "name"), "Name", &b.name).committed {
+        let mut n = b.clone();
+        n.name = name;
+        commands.push(set_block(n));
+    }
+    let canal = doc
+        .canal(&b.canal)
+        .map_or("(missing canal)", |c| c.name.as_str());
+    ui.label(format!("Outlet on: {canal}"));
+    let out = number_field(ui, fid(&b.id, "area"), "Area", b.area_ha, &bounds::AREA, 2);
+    if let Some(v) = out.committed {
+        let mut n = b.clone();
+        n.area_ha = v;
+        commands.push(set_block(n));
+    }
+    let soil_name = ctx.libraries.soil(&b.soil).map_or_else(
+        || format!("(not in library: {:?})", b.soil),
+        |s| s.name.clone(),
+    );
+    let mut soil = b.soil.clone();
+    egui::ComboBox::from_label("Soil")
+        .selected_text(soil_name)
+        .show_ui(ui, |ui| {
+            for s in &ctx.libraries.soils {
+                ui.selectable_value(&mut soil, s.id.clone(), &s.name);
+            }
+        });
+    if soil != b.soil {
+        let mut n = b.clone();
+        n.soil = soil;
+        commands.push(set_block(n));
+    }
+    if let Some(m) = name_field(
+        ui,
+        fid(&b.id, "method"),
+        "Irrigation method",
+        &b.method.name,
+    )
+    .committed
+    {
+        let mut n = b.clone();
+        n.method.name = m;
+        commands.push(set_block(n));
+    }
+    let out = number_field(
+        ui,
+        fid(&b.id, "ea"),
+        "Application efficiency Ea",
+        b.method.application_efficiency,
+        &bounds::APPLICATION,
+        1,
+    );
+    if let Some(v) = out.committed {
+        let mut n = b.clone();
+        n.method.application_efficiency = v;
+        commands.push(set_block(n));
+    }
+    let out = number_field(
+        ui,
+        fid(&b.id, "eb"),
+        "Field-canal efficiency Eb",
+        b.field_canal_efficiency,
+        &bounds::FIELD_CANAL,
+        1,
+    );
+    if let Some(v) = out.committed {
+        let mut n = b.clone();
+        n.field_canal_efficiency = v;
+        commands.push(set_block(n));
+    }
+    ui.label(RichText::new("Block GIR = NIR ÷ (Ea × Eb).").weak());
+}
+
+fn set_planting(p: Planting) -> Command {
+    Command::Edit(DocEdit::SetPlanting {
+        id: p.id.clone(),
+        planting: Box::new(p),
+    })
+}
+
+fn planting_ui(
+    ui: &mut Ui,
+    doc: &Project,
+    p: &Planting,
+    ctx: &Context<'_>,
+    commands: &mut Vec<Command>,
+) {
+    ui.label(RichText::new("Planting").heading());
+    ui.label(format!("Id: {}", p.id));
+    let block = doc
+        .block(&p.block)
+        .map_or("(missing block)", |b| b.name.as_str());
+    ui.label(format!("On block: {block}"));
+    let crop_name = ctx.libraries.crop(&p.crop).map_or_else(
+        || format!("(not in library: {:?})", p.crop),
+        |c| c.name.clone(),
+    );
+    let mut crop = p.crop.clone();
+    egui::ComboBox::from_label("Crop")
+        .selected_text(crop_name)
+        .show_ui(ui, |ui| {
+            for c in &ctx.libraries.crops {
+                ui.selectable_value(&mut crop, c.id.clone(), &c.name);
+            }
+        });
+    if crop != p.crop {
+        let mut n = p.clone();
+        n.crop = crop;
+        commands.push(set_planting(n));
+    }
+    // Area in ha or % of the block.
+    let mut in_percent = matches!(p.area, PlantingArea::PercentOfBlock(_));
+    ui.horizontal(|ui| {
+        let before = in_percent;
+        ui.radio_value(&mut in_percent, false, "Area in ha");
+        ui.radio_value(&mut in_percent, true, "Area in % of block");
+        if before != in_percent {
+            let block_ha = doc.block(&p.block).map_or(0.0, |b| b.area_ha);
+            let ha = p.area.hectares(block_ha);
+            let mut n = p.clone();
+            n.area = if in_percent {
+                let pct = if block_ha > 0.0 {
+                    100.0 * ha / block_ha
+                } else {
+                    100.0
+                };
+                PlantingArea::PercentOfBlock(pct)
+            } else {
+                PlantingArea::Hectares(ha)
+            };
+            commands.push(set_planting(n));
+        }
+    });
+    let (value, b) = match p.area {
+        PlantingArea::Hectares(ha) => (ha, bounds::AREA),
+        PlantingArea::PercentOfBlock(pct) => (pct, bounds::SHARE),
+    };
+    if let Some(v) = number_field(ui, fid(&p.id, "area"), "Planted", value, &b, 2).committed {
+        let mut n = p.clone();
+        n.area = match p.area {
+            PlantingArea::Hectares(_) => PlantingArea::Hectares(v),
+            PlantingArea::PercentOfBlock(_) => PlantingArea::PercentOfBlock(v),
+        };
+        commands.push(set_planting(n));
+    }
+    let out = date_free_month_day(
+        ui,
+        fid(&p.id, "first"),
+        "First planting",
+        (p.first_planting.month, p.first_planting.day),
+    );
+    if let Some((month, day)) = out.committed {
+        let mut n = p.clone();
+        n.first_planting = MonthDay { month, day };
+        commands.push(set_planting(n));
+    }
+    let out = number_field(
+        ui,
+        fid(&p.id, "spread"),
+        "Planting spread",
+        f64::from(p.spread_days),
+        &bounds::SPREAD,
+        0,
+    );
+    if let Some(v) = out.committed
+        && v >= 0.0
+        && v.fract() == 0.0
+    {
+        let mut n = p.clone();
+        n.spread_days = v as u32;
+        commands.push(set_planting(n));
+    }
+    if let Some(season) = name_field(ui, fid(&p.id, "season"), "Season", &p.season).committed {
+        let mut n = p.clone();
+        n.season = season;
+        commands.push(set_planting(n));
+    }
+    let library_days = ctx.libraries.crop(&p.crop).map(|c| c.stages.total_days());
+    let mut own = p.season_length_days.is_some();
+    let hint = library_days.map_or_else(String::new, |d| format!(" (library: {d} days)"));
+    if ui
+        .checkbox(&mut own, format!("Own season length{hint}"))
+        .changed()
+    {
+        let mut n = p.clone();
+        n.season_length_days = own.then(|| library_days.unwrap_or(120));
+        commands.push(set_planting(n));
+    }
+    if let Some(days) = p.season_length_days
+        && let Some(v) = number_field(
+            ui,
+            fid(&p.id, "season_len"),
+            "Season length",
+            f64::from(days),
+            &bounds::SEASON,
+            0,
+        )
+        .committed
+        && v >= 4.0
+        && v.fract() == 0.0
+    {
+        let mut n = p.clone();
+        n.season_length_days = Some(v as u32);
+        commands.push(set_planting(n));
+    }
+    strategy_ui(ui, p, commands);
+}
+
+fn strategy_name(s: &Strategy) -> &'static str {
+    match s {
+        Strategy::Refill { .. } => "Refill at a share of RAW",
+        Strategy::Interval { .. } => "Fixed interval",
+        Strategy::Depth { .. } => "Fixed depth",
+        Strategy::Deficit { .. } => "Deficit",
+        Strategy::Rainfed => "Rainfed",
+    }
+}
+
+fn strategy_ui(ui: &mut Ui, p: &Planting, commands: &mut Vec<Command>) {
+    let mut s = p.strategy;
+    egui::ComboBox::from_label("Irrigation strategy")
+        .selected_text(strategy_name(&s))
+        .show_ui(ui, |ui| {
+            for choice in [
+                Strategy::Refill {
+                    trigger_pct_of_raw: 100.0,
+                },
+                Strategy::Interval { days: 7 },
+                Strategy::Depth { net_mm: 50.0 },
+                Strategy::Deficit {
+                    trigger_pct_of_taw: 70.0,
+                    refill_pct_of_depletion: 100.0,
+                },
+                Strategy::Rainfed,
+            ] {
+                let same = std::mem::discriminant(&choice) == std::mem::discriminant(&s);
+                if ui.selectable_label(same, strategy_name(&choice)).clicked() && !same {
+                    s = choice;
+                }
+            }
+        });
+    let param = |ui: &mut Ui, field: &str, label: &str, v: f64, b: &Bounds| {
+        number_field(ui, fid(&p.id, field), label, v, b, 1).committed
+    };
+    match &mut s {
+        Strategy::Refill { trigger_pct_of_raw } => {
+            if let Some(v) = param(
+                ui,
+                "raw",
+                "Trigger",
+                *trigger_pct_of_raw,
+                &bounds::TRIGGER_RAW,
+            ) {
+                *trigger_pct_of_raw = v;
+            }
+        }
+        Strategy::Interval { days } => {
+            if let Some(v) = param(
+                ui,
+                "interval",
+                "Interval",
+                f64::from(*days),
+                &bounds::INTERVAL,
+            ) && v >= 1.0
+                && v.fract() == 0.0
+            {
+                *days = v as u32;
+            }
+        }
+        Strategy::Depth { net_mm } => {
+            if let Some(v) = param(ui, "depth", "Net depth", *net_mm, &bounds::DEPTH) {
+                *net_mm = v;
+            }
+        }
+        Strategy::Deficit {
+            trigger_pct_of_taw,
+            refill_pct_of_depletion,
+        } => {
+            if let Some(v) = param(
+                ui,
+                "taw",
+                "Trigger",
+                *trigger_pct_of_taw,
+                &bounds::TRIGGER_TAW,
+            ) {
+                *trigger_pct_of_taw = v;
+            }
+            if let Some(v) = param(
+                ui,
+                "refill",
+                "Refill",
+                *refill_pct_of_depletion,
+                &bounds::REFILL,
+            ) {
+                *refill_pct_of_depletion = v;
+            }
+        }
+        Strategy::Rainfed => {}
+    }
+    if s != p.strategy {
+        let mut n = p.clone();
+        n.strategy = s;
+        commands.push(set_planting(n));
+    }
+}
+
+fn weather_ui(ui: &mut Ui, doc: &Project, commands: &mut Vec<Command>) {
+    ui.label(RichText::new("Weather source").heading());
+    let w = &doc.weather;
+    if let Some(path) = name_field(ui, fid("weather", "path"), "Weather file", &w.path).committed {
+        let mut n = w.clone();
+        n.path = path;
+        commands.push(Command::Edit(DocEdit::SetWeather(n)));
+    }
+    let fields: [(&str, &str, f64, &Bounds, usize); 3] = [
+        ("lat", "Latitude", w.latitude_deg, &bounds::LATITUDE, 4),
+        ("elev", "Elevation", w.elevation_m, &bounds::ELEVATION, 1),
+        (
+            "wind",
+            "Wind measurement height",
+            w.wind_height_m,
+            &bounds::WIND_HEIGHT,
+            2,
+        ),
+    ];
+    for (key, label, value, b, decimals) in fields {
+        if let Some(v) = number_field(ui, fid("weather", key), label, value, b, decimals).committed
+        {
+            let mut n = w.clone();
+            match key {
+                "lat" => n.latitude_deg = v,
+                "elev" => n.elevation_m = v,
+                _ => n.wind_height_m = v,
+            }
+            commands.push(Command::Edit(DocEdit::SetWeather(n)));
+        }
+    }
+}
+
+fn options_ui(ui: &mut Ui, o: &Options, commands: &mut Vec<Command>) {
+    ui.label(RichText::new("Computation options").heading());
+    let mut n = o.clone();
+    egui::ComboBox::from_label("ET₀ method")
+        .selected_text(et0_name(n.et0_method))
+        .show_ui(ui, |ui| {
+            for m in [
+                Et0Method::PenmanMonteith,
+                Et0Method::Hargreaves,
+                Et0Method::AsceShort,
+                Et0Method::AsceTall,
+            ] {
+                ui.selectable_value(&mut n.et0_method, m, et0_name(m));
+            }
+        });
+    egui::ComboBox::from_label("Effective rainfall")
+        .selected_text(rain_name(n.effective_rain))
+        .show_ui(ui, |ui| {
+            for m in [
+                EffectiveRain::WaterBalance,
+                EffectiveRain::UsdaScs,
+                EffectiveRain::FixedPercent(70.0),
+                EffectiveRain::Dependable,
+            ] {
+                let same = std::mem::discriminant(&m) == std::mem::discriminant(&n.effective_rain);
+                if ui.selectable_label(same, rain_name(m)).clicked() && !same {
+                    n.effective_rain = m;
+                }
+            }
+        });
+    if let EffectiveRain::FixedPercent(pct) = n.effective_rain
+        && let Some(v) = number_field(
+            ui,
+            fid("options", "fixedrain"),
+            "Effective share",
+            pct,
+            &bounds::FIXED_RAIN,
+            1,
+        )
+        .committed
+    {
+        n.effective_rain = EffectiveRain::FixedPercent(v);
+    }
+    egui::ComboBox::from_label("Reporting step")
+        .selected_text(step_name(n.reporting_step))
+        .show_ui(ui, |ui| {
+            for m in [
+                ReportingStep::Daily,
+                ReportingStep::TenDay,
+                ReportingStep::Monthly,
+            ] {
+                ui.selectable_value(&mut n.reporting_step, m, step_name(m));
+            }
+        });
+    egui::ComboBox::from_label("Design basis")
+        .selected_text(basis_name(n.design_basis))
+        .show_ui(ui, |ui| {
+            for m in [
+                DesignBasis::TenDay,
+                DesignBasis::Monthly,
+                DesignBasis::Daily,
+            ] {
+                ui.selectable_value(&mut n.design_basis, m, basis_name(m));
+            }
+        });
+    if let Some(v) = number_field(
+        ui,
+        fid("options", "prob"),
+        "Design probability (non-exceedance)",
+        n.design_probability_pct,
+        &bounds::DESIGN_PROBABILITY,
+        1,
+    )
+    .committed
+    {
+        n.design_probability_pct = v;
+    }
+    if let Some(v) = number_field(
+        ui,
+        fid("options", "rotation"),
+        "Rotation period",
+        f64::from(n.rotation_period_days),
+        &bounds::ROTATION,
+        0,
+    )
+    .committed
+        && v >= 1.0
+        && v.fract() == 0.0
+    {
+        n.rotation_period_days = v as u32;
+    }
+    egui::ComboBox::from_label("Irrigation year starts in")
+        .selected_text(month_name(n.irrigation_year_start_month))
+        .show_ui(ui, |ui| {
+            for m in 1..=12 {
+                ui.selectable_value(&mut n.irrigation_year_start_month, m, month_name(m));
+            }
+        });
+    if &n != o {
+        commands.push(Command::Edit(DocEdit::SetOptions(n)));
+    }
+}
+
+fn et0_name(m: Et0Method) -> &'static str {
+    match m {
+        Et0Method::PenmanMonteith => "FAO-56 Penman–Monteith",
+        Et0Method::Hargreaves => "Hargreaves–Samani (1985)",
+        Et0Method::AsceShort => "ASCE-EWRI (2005) short reference",
+        Et0Method::AsceTall => "ASCE-EWRI (2005) tall reference",
+    }
+}
+
+fn rain_name(m: EffectiveRain) -> &'static str {
+    match m {
+        EffectiveRain::WaterBalance => "From the water balance",
+        EffectiveRain::UsdaScs => "USDA-SCS",
+        EffectiveRain::FixedPercent(_) => "Fixed percentage",
+        EffectiveRain::Dependable => "Dependable rain",
+    }
+}
+
+fn step_name(m: ReportingStep) -> &'static str {
+    match m {
+        ReportingStep::Daily => "Daily",
+        ReportingStep::TenDay => "10-day",
+        ReportingStep::Monthly => "Monthly",
+    }
+}
+
+fn basis_name(m: DesignBasis) -> &'static str {
+    match m {
+        DesignBasis::TenDay => "Peak 10-day mean flow",
+        DesignBasis::Monthly => "Peak monthly mean flow",
+        DesignBasis::Daily => "Peak daily flow",
+    }
+}
+
+fn month_name(m: u32) -> &'static str {
+    const NAMES: [&str; 12] = [
+        "January",
+        "February",
+        "March",
+        "April",
+        "May",
+        "June",
+        "July",
+        "August",
+        "September",
+        "October",
+        "November",
+        "December",
+    ];
+    NAMES
+        .get(m.wrapping_sub(1) as usize)
+        .copied()
+        .unwrap_or("(invalid month)")
+}

@@ -1,0 +1,121 @@
+//! The Crop curves tab: Kc curves of the plantings under the selection,
+//! from the crop library (FAO-56 eq. 66), stage ends marked.
+
+use egui::{RichText, Ui};
+use egui_plot::LineStyle;
+
+use super::{View, empty_state, no_project};
+use crate::command::{Command, ItemRef, Selection};
+use crate::palette::colour_for_id;
+use crate::plot::{self, PlotSpec, Series, SeriesKind, XAxis};
+
+/// View state of the Crop curves tab.
+#[derive(Debug, Default)]
+pub struct CropCurvesTab {}
+
+/// Ids of the plantings under the selection (all of them for the scheme).
+fn plantings_under(view: &View<'_>) -> Vec<String> {
+    let Some(p) = view.project else {
+        return Vec::new();
+    };
+    let on_blocks = |blocks: &[String]| -> Vec<String> {
+        p.plantings
+            .iter()
+            .filter(|x| blocks.contains(&x.block))
+            .map(|x| x.id.clone())
+            .collect()
+    };
+    match view.selection {
+        Selection::Item(ItemRef::Planting(id)) => vec![id.clone()],
+        Selection::Item(ItemRef::Block(id)) => on_blocks(std::slice::from_ref(id)),
+        Selection::Item(ItemRef::Canal(id)) => {
+            let canals = p.canals_below(id);
+            let blocks: Vec<String> = p
+                .blocks
+                .iter()
+                .filter(|b| canals.contains(&b.canal.as_str()))
+                .map(|b| b.id.clone())
+                .collect();
+            on_blocks(&blocks)
+        }
+        _ => p.plantings.iter().map(|x| x.id.clone()).collect(),
+    }
+}
+
+impl CropCurvesTab {
+    /// Draws the tab from the cached results.
+    pub fn ui(&mut self, ui: &mut Ui, view: &View<'_>, commands: &mut Vec<Command>) {
+        if !view.project_open {
+            no_project(
+                ui,
+                "This tab shows the Kc curve of each selected planting, growth stages marked.",
+            );
+            return;
+        }
+        let Some(computed) = view.computed else {
+            empty_state(
+                ui,
+                "Computing…",
+                "The Kc curves appear when the computation finishes.",
+            );
+            return;
+        };
+        let wanted = plantings_under(view);
+        let curves: Vec<_> = computed
+            .kc_curves
+            .iter()
+            .filter(|c| c.plantings.iter().any(|p| wanted.contains(p)))
+            .collect();
+        if curves.is_empty() {
+            empty_state(
+                ui,
+                "No plantings with a library crop here",
+                "Add a planting (right-click a block › Add planting) and pick its crop in the inspector.",
+            );
+            return;
+        }
+        ui.label(
+            RichText::new(
+                "Kc from the crop library (FAO-56 Table 12, stage lengths Table 11) by FAO-56 eq. 66, \
+                 before the climate adjustment of Kc mid and Kc end (eq. 62, 65).",
+            )
+            .weak(),
+        );
+        let mut series = Vec::new();
+        for c in &curves {
+            let name = format!("{} ({} d)", c.crop_name, c.season_days);
+            let points =
+                c.kc.iter()
+                    .enumerate()
+                    .map(|(i, kc)| [(i + 1) as f64, *kc])
+                    .collect();
+            series.push(Series::line(name, points, colour_for_id(&c.crop)));
+        }
+        if let [only] = curves[..] {
+            for (end, stage) in
+                only.stage_ends
+                    .iter()
+                    .zip(["initial", "development", "mid-season", "late season"])
+            {
+                series.push(Series {
+                    name: format!("End of {stage} stage"),
+                    points: vec![[f64::from(*end), 0.0]],
+                    colour: egui::Color32::GRAY,
+                    style: LineStyle::Dashed { length: 6.0 },
+                    kind: SeriesKind::Marker,
+                });
+            }
+        }
+        let spec = PlotSpec {
+            id: "kc-curves".to_owned(),
+            x: XAxis::Quantity {
+                title: "Days after planting (d)".to_owned(),
+                unit: "d".to_owned(),
+            },
+            y_title: "Kc (–)".to_owned(),
+            y_unit: String::new(),
+            series,
+        };
+        plot::show(ui, &spec, commands);
+    }
+}
