@@ -559,7 +559,7 @@ fn irrigation_years(
         }
         let next = anniversary(y + 1, m, d, &mut Vec::new())?;
         let hi = index_of(p.weather, next);
-        let complete = hi <= p.n as i64 && hi <= chain_end;
+        let complete = lo >= 0 && hi <= p.n as i64 && hi <= chain_end;
         years.push((
             y,
             lo.max(0) as usize,
