@@ -10,4 +10,3 @@ pub mod export;
 pub mod library;
 pub mod project_file;
 pub mod weather;
-
