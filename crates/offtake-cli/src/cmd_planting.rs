@@ -1,6 +1,7 @@
 //! `offtake planting --weather FILE.csv --lat DEG --elevation M
 //! [--wind-height M] --crop ID --plant YYYY-MM-DD [--every-year] [--soil ID]
-//! [--strategy refill|interval|depth|deficit|rainfed] [--out FILE.csv]`
+//! [--strategy refill|interval|depth|deficit|rainfed] [--dual-kc]
+//! [--wetting surface|sprinkler|furrow|drip] [--out FILE.csv]`
 //!
 //! Reads the weather file through the common importer, computes ET₀ (FAO-56
 //! Penman–Monteith with the missing-data procedures), u2 from the wind height
@@ -10,7 +11,10 @@
 //! season as CSV: `date,et0_mm,kc,etc_mm,etc_adj_mm,rain_mm,peff_mm,
 //! irrigation_mm,runoff_mm,deep_perc_mm,depletion_mm,taw_mm,raw_mm,ks,season`
 //! (depletion at the end of the day; `season` is the year of the season's
-//! first planting date).
+//! first planting date). With `--dual-kc` (FAO-56 dual coefficient Kcb + Ke
+//! with the soil evaporation layer; `--wetting` gives the FAO-56 Table 20
+//! fraction wetted by irrigation, default sprinkler) two columns follow:
+//! `kcb,ke` (`kc` is then Kcb + Ke).
 //!
 //! The balance needs every day: a missing day, a day whose ET₀ cannot be
 //! computed, or a blank rain stops the command with `file:line:column`.
@@ -28,7 +32,8 @@ use offtake_core::et0::wind::wind_2m_ms;
 use offtake_core::et0::{Et0Context, Et0Options};
 use offtake_core::gapfill::{GapFillOptions, repair_for_daily_balance};
 use offtake_core::planting::{
-    PlantingSpec, PlantingWarning, PlantingWeather, SeasonSummary, run_planting, season_detail,
+    CoefficientMode, PlantingSpec, PlantingWarning, PlantingWeather, SeasonSummary, Wetting,
+    run_planting, season_detail,
 };
 use offtake_io::library::Libraries;
 use offtake_io::weather::SourceLocation;
@@ -37,6 +42,9 @@ use crate::cmd_weather_check::{DateFormatArg, read_series, site_from_args, write
 
 /// Header of the daily table written by `--out` (a stable contract).
 pub const DAILY_HEADER: &str = "date,et0_mm,kc,etc_mm,etc_adj_mm,rain_mm,peff_mm,irrigation_mm,runoff_mm,deep_perc_mm,depletion_mm,taw_mm,raw_mm,ks,season";
+
+/// Columns appended to [`DAILY_HEADER`] with `--dual-kc`.
+pub const DUAL_COLUMNS: &str = "kcb,ke";
 
 /// Arguments of `offtake planting`.
 #[derive(Debug, ClapArgs)]
@@ -69,6 +77,15 @@ pub struct Args {
     /// Irrigation strategy: refill (at 100 % of RAW), interval, depth, deficit, rainfed.
     #[arg(long, default_value = "refill")]
     pub strategy: String,
+    /// Use the FAO-56 dual crop coefficient (Kcb + Ke, soil evaporation
+    /// layer) instead of the single Kc; adds the columns kcb,ke to --out.
+    #[arg(long)]
+    pub dual_kc: bool,
+    /// Fraction of the surface wetted by irrigation for --dual-kc (FAO-56
+    /// Table 20): surface, sprinkler, furrow, furrow-wide-bed,
+    /// alternate-furrow, drip.
+    #[arg(long, requires = "dual_kc")]
+    pub wetting: Option<String>,
     /// Output CSV file for the daily table (written atomically).
     #[arg(long)]
     pub out: Option<PathBuf>,
@@ -248,6 +265,15 @@ pub fn run(args: &Args) -> Result<()> {
         .strategy
         .parse()
         .map_err(|e| anyhow::anyhow!("--strategy: {e}"))?;
+    let coefficients = if args.dual_kc {
+        let wetting: Wetting = match &args.wetting {
+            Some(w) => w.parse().map_err(|e| anyhow::anyhow!("--wetting: {e}"))?,
+            None => Wetting::Sprinkler,
+        };
+        CoefficientMode::Dual { wetting }
+    } else {
+        CoefficientMode::Single
+    };
     let plant = parse_date(&args.plant)?;
     let series = read_weather(args)?;
     let weather = PlantingWeather {
@@ -259,6 +285,7 @@ pub fn run(args: &Args) -> Result<()> {
     };
     let spec = PlantingSpec {
         strategy,
+        coefficients,
         only_year: (!args.every_year).then_some(plant.year()),
         ..PlantingSpec::new(crop, soil, plant.month(), plant.day())
     };
@@ -285,7 +312,7 @@ pub fn run(args: &Args) -> Result<()> {
     let mut text = String::new();
     let _ = writeln!(
         text,
-        "planting: {} ({}) on {} ({}), strategy {}, {}",
+        "planting: {} ({}) on {} ({}), strategy {}, {}{}",
         crop.name,
         crop.id,
         soil.name,
@@ -295,6 +322,13 @@ pub fn run(args: &Args) -> Result<()> {
             format!("planted {:02}-{:02} every year", plant.month(), plant.day())
         } else {
             format!("planted {plant}")
+        },
+        match coefficients {
+            CoefficientMode::Dual { wetting } => format!(
+                ", dual crop coefficient (wetting {wetting}, fw {:.2})",
+                wetting.fw()
+            ),
+            CoefficientMode::Single => String::new(),
         }
     );
     let _ = writeln!(
@@ -322,6 +356,13 @@ pub fn run(args: &Args) -> Result<()> {
             mean(|s| s.nir_mm),
             100.0 * mean(|s| s.relative_yield_loss)
         );
+        if args.dual_kc {
+            let _ = writeln!(
+                text,
+                "mean soil evaporation E = Ke ET0: {:.1} mm per season",
+                mean(|s| s.evaporation_mm)
+            );
+        }
     }
     let _ = writeln!(
         text,
@@ -332,13 +373,17 @@ pub fn run(args: &Args) -> Result<()> {
     if let Some(path) = &args.out {
         let mut csv = String::with_capacity(160 * series.et0.len());
         csv.push_str(DAILY_HEADER);
+        if args.dual_kc {
+            csv.push(',');
+            csv.push_str(DUAL_COLUMNS);
+        }
         csv.push('\n');
         for s in &result.seasons {
             let year = s.year;
             let detail = season_detail(&spec, &weather, year).context("daily table")?;
             for (i, d) in detail.days.iter().enumerate() {
                 let date = detail.first_date + chrono::Days::new(i as u64);
-                let _ = writeln!(
+                let _ = write!(
                     csv,
                     "{date},{:.3},{:.4},{:.3},{:.3},{:.2},{:.3},{:.3},{:.3},{:.3},{:.3},{:.3},{:.3},{:.4},{year}",
                     d.et0_mm,
@@ -355,6 +400,16 @@ pub fn run(args: &Args) -> Result<()> {
                     d.raw_mm,
                     d.ks
                 );
+                if args.dual_kc {
+                    // Empty when the crop fell back to the single Kc (warned).
+                    match detail.evaporation.get(i) {
+                        Some(e) => {
+                            let _ = write!(csv, ",{:.4},{:.4}", e.kcb, e.ke);
+                        }
+                        None => csv.push_str(",,"),
+                    }
+                }
+                csv.push('\n');
             }
         }
         write_atomically(path, csv.as_bytes())?;
