@@ -309,6 +309,11 @@ pub fn run(args: &Args) -> Result<()> {
         }
     }
 
+    let dual_used = args.dual_kc
+        && !result
+            .warnings
+            .iter()
+            .any(|w| matches!(w, PlantingWarning::DualCoefficientNotUsed { .. }));
     let mut text = String::new();
     let _ = writeln!(
         text,
@@ -324,6 +329,9 @@ pub fn run(args: &Args) -> Result<()> {
             format!("planted {plant}")
         },
         match coefficients {
+            CoefficientMode::Dual { .. } if !dual_used => {
+                ", single Kc (dual coefficient not used: see the warning)".to_string()
+            }
             CoefficientMode::Dual { wetting } => format!(
                 ", dual crop coefficient (wetting {wetting}, fw {:.2})",
                 wetting.fw()
@@ -356,7 +364,7 @@ pub fn run(args: &Args) -> Result<()> {
             mean(|s| s.nir_mm),
             100.0 * mean(|s| s.relative_yield_loss)
         );
-        if args.dual_kc {
+        if dual_used {
             let _ = writeln!(
                 text,
                 "mean soil evaporation E = Ke ET0: {:.1} mm per season",

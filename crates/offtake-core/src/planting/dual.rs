@@ -289,6 +289,21 @@ mod tests {
         }
     }
 
+    /// Eq. 72 base: 1.1 for wetting daily or every 2 days, else 1.2.
+    #[test]
+    fn kc_max_base_by_strategy() {
+        use crate::balance::{IntervalDepth, Strategy};
+        let every = |days| Strategy::FixedInterval {
+            days,
+            first_day: 0,
+            depth: IntervalDepth::CurrentDepletion,
+        };
+        assert!((kc_max_base(&every(1)) - 1.1).abs() < 1e-12);
+        assert!((kc_max_base(&every(2)) - 1.1).abs() < 1e-12);
+        assert!((kc_max_base(&every(3)) - 1.2).abs() < 1e-12);
+        assert!((kc_max_base(&Strategy::default()) - 1.2).abs() < 1e-12);
+    }
+
     #[test]
     fn height_grows_over_development() {
         let l = StageLengths::new(10, 20, 30, 10);
