@@ -506,7 +506,10 @@ fn schema1_mapping_is_migrated_to_import_settings() {
     let path = dir.path().join("migrated.ron");
     save_project(&path, &p).unwrap();
     let text = std::fs::read_to_string(&path).unwrap();
-    assert!(text.contains("schema: 2,") && text.contains("import:"), "{text}");
+    assert!(
+        text.contains("schema: 2,") && text.contains("import:"),
+        "{text}"
+    );
     assert!(!text.contains("target:"), "{text}");
     assert_eq!(load_project(&path).unwrap(), p);
 }

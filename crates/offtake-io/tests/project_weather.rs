@@ -191,7 +191,13 @@ fn saved_import_settings_round_trip_and_are_applied() {
     assert_eq!(foreign.series.wind_height_m, Some(10.0));
     assert_eq!(own.series.days.len(), fx.days.len());
     assert_eq!(foreign.series.days.len(), own.series.days.len());
-    for ((f, o), g) in foreign.series.days.iter().zip(&own.series.days).zip(&fx.days) {
+    for ((f, o), g) in foreign
+        .series
+        .days
+        .iter()
+        .zip(&own.series.days)
+        .zip(&fx.days)
+    {
         assert_eq!(f.date, o.date);
         assert_eq!(o, g, "own format reads back exactly");
         for (a, b, what) in [
@@ -215,7 +221,10 @@ fn without_settings_a_foreign_file_asks_for_a_mapping() {
     project.weather.import = None;
     let err = load_project_weather(&fx.foreign, &project).unwrap_err();
     assert!(
-        matches!(err, ProjectWeatherError::Import(ImportError::NeedsMapping { .. })),
+        matches!(
+            err,
+            ProjectWeatherError::Import(ImportError::NeedsMapping { .. })
+        ),
         "{err}"
     );
 }

@@ -375,12 +375,7 @@ impl WeatherSource {
     /// The wind height stated by the import mapping when it differs from
     /// [`WeatherSource::wind_height_m`]: `(wind column header, stated height)`.
     pub fn wind_height_mismatch(&self) -> Option<(&str, f64)> {
-        let (header, stated) = self
-            .import
-            .as_ref()?
-            .mapping
-            .as_ref()?
-            .wind_column()?;
+        let (header, stated) = self.import.as_ref()?.mapping.as_ref()?.wind_column()?;
         let stated = stated?;
         // `set_import` / `set_wind_height_m` copy one into the other, so
         // equal heights are equal to the last bit; the tolerance (1 µm) only

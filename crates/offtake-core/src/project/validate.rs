@@ -23,8 +23,8 @@ use chrono::{Datelike, NaiveDate};
 use thiserror::Error;
 
 use super::tree::TreeError;
-use crate::weather_import::ImportSettingsProblem;
 use super::{AvailableSupply, EffectiveRain, HEADWORKS, Planting, Project, Strategy, SupplyFlow};
+use crate::weather_import::ImportSettingsProblem;
 
 /// Days in the cropping-plan year used for the occupancy check.
 const PLAN_YEAR_DAYS: usize = 365;

@@ -195,7 +195,9 @@ pub enum ImportSettingsProblem {
         field: &'static str,
     },
     /// A stated wind height is not a finite number > 0.
-    #[error("weather import: wind column {header:?} height {height_m} m must be a finite number > 0")]
+    #[error(
+        "weather import: wind column {header:?} height {height_m} m must be a finite number > 0"
+    )]
     BadWindHeight {
         /// The wind column.
         header: String,
@@ -284,8 +286,8 @@ mod tests {
     #[test]
     fn settings_round_trip_through_ron() {
         let s = foreign();
-        let text = ron::ser::to_string_pretty(&s, ron::ser::PrettyConfig::default())
-            .expect("serialise");
+        let text =
+            ron::ser::to_string_pretty(&s, ron::ser::PrettyConfig::default()).expect("serialise");
         let back: ImportSettings = ron::from_str(&text).expect("parse");
         assert_eq!(back, s);
         // Every field may be left out.

@@ -7,8 +7,8 @@ use std::path::Path;
 
 use chrono::NaiveDate;
 use offtake_core::weather::WeatherDay;
-pub use offtake_core::weather_import::{DecimalSeparator, Delimiter};
 use offtake_core::weather_import::ImportSettings;
+pub use offtake_core::weather_import::{DecimalSeparator, Delimiter};
 use serde::{Deserialize, Serialize};
 
 use super::date::{self, DateFormat, Evidence};
