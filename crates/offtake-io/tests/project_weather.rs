@@ -280,3 +280,18 @@ fn contradictory_settings_and_missing_files_are_typed_errors() {
         "{err}"
     );
 }
+
+#[test]
+fn import_options_carry_the_settings_both_ways() {
+    use offtake_io::weather::{DEFAULT_MAX_PROBLEMS, ImportOptions};
+    let s = foreign_settings();
+    let o = ImportOptions::from_settings(&s);
+    assert_eq!(o.max_problems, DEFAULT_MAX_PROBLEMS);
+    assert_eq!(o.date_format, Some(DateFormat::DayMonthYear));
+    assert_eq!(o.settings(), s);
+    assert_eq!(ImportOptions::from(&s), o);
+    assert_eq!(
+        ImportOptions::default().settings(),
+        ImportSettings::default()
+    );
+}

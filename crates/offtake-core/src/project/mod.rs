@@ -380,8 +380,12 @@ impl WeatherSource {
         // `set_import` / `set_wind_height_m` copy one into the other, so
         // equal heights are equal to the last bit; the tolerance (1 µm) only
         // forgives a decimal written out and read back.
-        let differs = !((stated - self.wind_height_m).abs() <= WIND_HEIGHT_TOLERANCE_M);
-        differs.then_some((header, stated))
+        // A NaN on either side counts as a mismatch.
+        let same = (stated - self.wind_height_m)
+            .abs()
+            .partial_cmp(&WIND_HEIGHT_TOLERANCE_M)
+            .is_some_and(std::cmp::Ordering::is_le);
+        (!same).then_some((header, stated))
     }
 }
 

@@ -584,7 +584,10 @@ fn attaching_import_settings_adopts_the_stated_wind_height() {
     assert_eq!(w.wind_height_mismatch(), None);
     // Changing the height keeps the mapping's stated height equal.
     w.set_wind_height_m(3.0);
-    let stated = w.import.as_ref().and_then(|i| i.stated_wind_height_m());
+    let stated = w
+        .import
+        .as_ref()
+        .and_then(crate::weather_import::ImportSettings::stated_wind_height_m);
     assert_eq!(stated, Some(3.0));
     assert_eq!(w.wind_height_mismatch(), None);
     // A mapping that states no height leaves the source's height alone.
@@ -592,7 +595,9 @@ fn attaching_import_settings_adopts_the_stated_wind_height() {
     assert!((w.wind_height_m - 3.0).abs() < 1e-12);
     w.set_wind_height_m(4.0);
     assert_eq!(
-        w.import.as_ref().and_then(|i| i.stated_wind_height_m()),
+        w.import
+            .as_ref()
+            .and_then(crate::weather_import::ImportSettings::stated_wind_height_m),
         None
     );
     assert_eq!(w.wind_height_mismatch(), None);
