@@ -15,6 +15,7 @@
 //! The balance needs every day: a missing day, a day whose ET₀ cannot be
 //! computed, or a blank rain stops the command with `file:line:column`.
 
+use std::collections::HashMap;
 use std::fmt::Write as _;
 use std::path::PathBuf;
 
@@ -25,6 +26,7 @@ use offtake_core::balance::Strategy;
 use offtake_core::crop::climate::{rhmin_from_dewpoint_pct, rhmin_from_tmin_pct};
 use offtake_core::et0::wind::wind_2m_ms;
 use offtake_core::et0::{Et0Context, Et0Options};
+use offtake_core::gapfill::{GapFillOptions, repair_for_daily_balance};
 use offtake_core::planting::{
     PlantingSpec, PlantingWarning, PlantingWeather, SeasonSummary, run_planting, season_detail,
 };
@@ -102,11 +104,39 @@ fn read_weather(args: &Args) -> Result<Series> {
         line,
         column: 1,
     };
-    let Some(first) = imported.days.first() else {
+    if imported.days.is_empty() {
         bail!("{}: no data rows", at(2));
-    };
-    let start = first.date;
-    let n = imported.days.len();
+    }
+    // Line of each imported date, for messages about days that were read.
+    let line_of: HashMap<NaiveDate, u64> = imported
+        .days
+        .iter()
+        .map(|d| d.date)
+        .zip(imported.lines.iter().copied())
+        .collect();
+    // The water balance needs every day: impossible days are blanked and, with
+    // the absent dates, filled as the engine does (interpolation up to 3 days,
+    // FAO-56 missing-data procedures beyond); each is reported.
+    let repaired = repair_for_daily_balance(&imported.days, &GapFillOptions::default(), |d| {
+        context.et0_mm_day(d).map(|_| ()).map_err(|e| e.to_string())
+    })
+    .context("filling the gaps of the weather record")?;
+    for (date, reason) in &repaired.rejected {
+        let line = line_of.get(date).copied().unwrap_or(1);
+        eprintln!(
+            "{}: warning: {date}: {reason}; the day is treated as missing and filled",
+            at(line)
+        );
+    }
+    if repaired.inserted_days > 0 || repaired.filled_days > 0 {
+        eprintln!(
+            "{file}: warning: {} absent date(s) added and values filled on {} day(s) (linear interpolation up to 3 days, FAO-56 missing-data procedures beyond)",
+            repaired.inserted_days, repaired.filled_days
+        );
+    }
+    let days = &repaired.filled.days;
+    let start = days[0].date;
+    let n = days.len();
     let mut s = Series {
         start,
         et0: Vec::with_capacity(n),
@@ -114,33 +144,25 @@ fn read_weather(args: &Args) -> Result<Series> {
         u2: Vec::with_capacity(n),
         rhmin: Vec::with_capacity(n),
     };
-    let mut expected = start;
-    for (day, &line) in imported.days.iter().zip(&imported.lines) {
-        if day.date != expected {
-            bail!(
-                "{}: date {} follows a gap (expected {expected}); the water balance needs every day: fill the gaps first",
-                at(line),
+    let mut blank_rain: Vec<NaiveDate> = Vec::new();
+    for day in days {
+        let where_ = line_of
+            .get(&day.date)
+            .map_or_else(|| format!("{file} (filled day)"), |&l| at(l).to_string());
+        let et0 = context
+            .et0_mm_day(day)
+            .map_err(|e| anyhow::anyhow!("{where_}: {}: ET0 cannot be computed: {e}", day.date))?;
+        let rain = match day.rain_mm {
+            Some(r) if r.is_finite() && r >= 0.0 => r,
+            Some(r) => bail!(
+                "{where_}: {}: rain_mm found {r}; expected a depth of 0 mm or more",
                 day.date
-            );
-        }
-        expected = day.date.succ_opt().context("date out of range")?;
-        let et0 = context.et0_mm_day(day).map_err(|e| {
-            anyhow::anyhow!("{}: {}: ET0 cannot be computed: {e}", at(line), day.date)
-        })?;
-        let Some(rain) = day.rain_mm else {
-            bail!(
-                "{}: {}: rain_mm is blank; expected a rain depth in mm (0 for a dry day)",
-                at(line),
-                day.date
-            );
+            ),
+            None => {
+                blank_rain.push(day.date);
+                0.0
+            }
         };
-        if !(rain.is_finite() && rain >= 0.0) {
-            bail!(
-                "{}: {}: rain_mm found {rain}; expected a depth of 0 mm or more",
-                at(line),
-                day.date
-            );
-        }
         let u2 = match day.wind_ms {
             Some(w) => wind_2m_ms(w, site.wind_height_m).unwrap_or(f64::NAN),
             None => f64::NAN,
@@ -157,6 +179,15 @@ fn read_weather(args: &Args) -> Result<Series> {
         s.rain.push(rain);
         s.u2.push(u2);
         s.rhmin.push(rhmin);
+    }
+    if let Some(first) = blank_rain.first() {
+        let place = line_of
+            .get(first)
+            .map_or_else(|| format!("{file} (filled day)"), |&l| at(l).to_string());
+        eprintln!(
+            "{place}: warning: rain_mm blank on {first}, taken as 0 mm ({} day(s) in all); rain is never interpolated",
+            blank_rain.len()
+        );
     }
     Ok(s)
 }
