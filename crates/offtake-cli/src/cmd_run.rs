@@ -11,7 +11,7 @@
 use std::fmt::Write as _;
 use std::path::{Path, PathBuf};
 
-use anyhow::{Context, Result, bail};
+use anyhow::{Context, Result};
 use clap::Args as ClapArgs;
 use offtake_core::engine::{self, Results};
 use offtake_core::project::Project;
@@ -23,8 +23,8 @@ use offtake_io::export::{
     Table,
 };
 use offtake_io::library::Libraries;
-use offtake_io::project_file::{load_project, weather_path};
-use offtake_io::weather::{ImportOptions, import_weather_file};
+use offtake_io::project_file::load_project;
+use offtake_io::weather::load_project_weather;
 
 /// 10-day table file.
 pub const DEMAND_10DAY_CSV: &str = "demand_10day.csv";
@@ -79,19 +79,14 @@ pub(crate) struct Loaded {
 pub(crate) fn load(path: &Path) -> Result<Loaded> {
     let project = load_project(path)?;
     let libraries = Libraries::builtin().context("built-in crop and soil libraries")?;
-    let wpath = weather_path(path, &project);
-    if project.weather.mapping.is_some() {
-        bail!(
-            "{}: the project's weather column mapping is not applied by `offtake run` yet; convert the file to Offtake's column names (see `offtake weather check --mapping`)",
-            path.display()
-        );
-    }
-    let series = import_weather_file(&wpath, &ImportOptions::default())
+    // The project's saved import settings (mapping, units, date format,
+    // delimiter, decimal separator) are applied by the one shared loader.
+    let weather = load_project_weather(path, &project)
         .with_context(|| format!("reading the weather series of {}", path.display()))?;
     Ok(Loaded {
         project,
         libraries,
-        weather: series.days,
+        weather: weather.series.days,
     })
 }
 

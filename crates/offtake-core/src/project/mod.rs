@@ -26,12 +26,21 @@ pub mod validate;
 use chrono::{Datelike, NaiveDate};
 use serde::{Deserialize, Serialize};
 
+use crate::weather_import::ImportSettings;
+
 pub use scenario::{Override, Scenario, ScenarioError, WeatherPerturbation};
 pub use validate::{CropSeasonLengths, ItemKind, ValidationContext, ValidationProblem};
 
 /// The schema version this build writes. Files with a lower version are
 /// migrated on load; files with a higher version are refused.
-pub const CURRENT_SCHEMA: u32 = 1;
+///
+/// * 2 — `weather.import` ([`ImportSettings`]: full column mapping with
+///   units, date format, delimiter, decimal separator, missing markers)
+///   replaces schema 1's minimal `weather.mapping`.
+/// * 1 — efficiencies as fractions, planting areas and month-day windows,
+///   reservoir, scenarios.
+/// * 0 — the first layout.
+pub const CURRENT_SCHEMA: u32 = 2;
 
 /// A whole project: what `offtake run` computes and what the app saves.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -299,30 +308,9 @@ impl Planting {
     }
 }
 
-/// A minimal serde form of the weather CSV column mapping (which source
-/// header holds which quantity, in which unit).
-///
-/// The weather importer owns the full mapping type; this document form keeps
-/// the user's choice in the project file until the two are reconciled.
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct WeatherMapping {
-    /// One entry per mapped column.
-    pub columns: Vec<ColumnMap>,
-}
-
-/// One mapped weather column.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct ColumnMap {
-    /// Header in the source file.
-    pub source: String,
-    /// Our column name (`tmax_c`, `rain_mm`, …, see DESIGN.md).
-    pub target: String,
-    /// Unit of the source column (e.g. "degF", "in"), if not our unit.
-    #[serde(default)]
-    pub unit: Option<String>,
-}
+/// Largest difference (m) between the project's wind height and the import
+/// mapping's stated wind height that still counts as the same height.
+pub const WIND_HEIGHT_TOLERANCE_M: f64 = 1e-6;
 
 /// Where the weather series comes from and where it was measured.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -335,11 +323,15 @@ pub struct WeatherSource {
     pub latitude_deg: f64,
     /// Station elevation above sea level in metres.
     pub elevation_m: f64,
-    /// Height of the wind measurement above ground in metres.
+    /// Height of the wind measurement above ground in metres. This is the
+    /// height the computation uses; a height stated by the import mapping's
+    /// wind column must equal it (see [`WeatherSource::set_import`]).
     pub wind_height_m: f64,
-    /// Column mapping for files that do not use our column names.
+    /// How to read the file (column mapping, units, date format, delimiter,
+    /// decimal separator, missing markers). `None`: the file uses Offtake's
+    /// own column names and everything else is detected.
     #[serde(default)]
-    pub mapping: Option<WeatherMapping>,
+    pub import: Option<ImportSettings>,
 }
 
 impl Default for WeatherSource {
@@ -349,8 +341,51 @@ impl Default for WeatherSource {
             latitude_deg: 0.0,
             elevation_m: 0.0,
             wind_height_m: 2.0,
-            mapping: None,
+            import: None,
         }
+    }
+}
+
+impl WeatherSource {
+    /// Attaches import settings (or clears them with `None`). When the
+    /// settings' wind column states a measurement height, that height wins:
+    /// it becomes [`WeatherSource::wind_height_m`], so the two never
+    /// contradict after this call.
+    pub fn set_import(&mut self, import: Option<ImportSettings>) {
+        if let Some(h) = import
+            .as_ref()
+            .and_then(ImportSettings::stated_wind_height_m)
+        {
+            self.wind_height_m = h;
+        }
+        self.import = import;
+    }
+
+    /// Sets the wind measurement height (m), also in the import mapping's
+    /// wind column if it states one, so the two stay equal.
+    pub fn set_wind_height_m(&mut self, height_m: f64) {
+        self.wind_height_m = height_m;
+        if let Some(m) = self.import.as_mut().and_then(|i| i.mapping.as_mut())
+            && m.wind_column().is_some_and(|(_, h)| h.is_some())
+        {
+            m.set_wind_height_m(Some(height_m));
+        }
+    }
+
+    /// The wind height stated by the import mapping when it differs from
+    /// [`WeatherSource::wind_height_m`]: `(wind column header, stated height)`.
+    pub fn wind_height_mismatch(&self) -> Option<(&str, f64)> {
+        let (header, stated) = self.import.as_ref()?.mapping.as_ref()?.wind_column()?;
+        let stated = stated?;
+        // `set_import` / `set_wind_height_m` copy one into the other, so
+        // equal heights are equal to the last bit; the tolerance (1 µm) only
+        // forgives a decimal written out and read back.
+        // A NaN on either side counts as a mismatch.
+        let same = (stated - self.wind_height_m)
+            .abs()
+            .partial_cmp(&WIND_HEIGHT_TOLERANCE_M)
+            .is_some_and(std::cmp::Ordering::is_le);
+        (!same).then_some((header, stated))
     }
 }
 

@@ -24,6 +24,7 @@ use thiserror::Error;
 
 use super::tree::TreeError;
 use super::{AvailableSupply, EffectiveRain, HEADWORKS, Planting, Project, Strategy, SupplyFlow};
+use crate::weather_import::ImportSettingsProblem;
 
 /// Days in the cropping-plan year used for the occupancy check.
 const PLAN_YEAR_DAYS: usize = 365;
@@ -257,6 +258,22 @@ pub enum ValidationProblem {
         value: String,
         /// What was expected.
         expected: &'static str,
+    },
+    /// The weather import settings contradict themselves.
+    #[error("{0}")]
+    WeatherImport(ImportSettingsProblem),
+    /// The import mapping's wind column states a measurement height other
+    /// than the weather source's `wind_height_m`.
+    #[error(
+        "weather: wind_height_m = {source_m} m but the import mapping's wind column {column:?} states {mapping_m} m; set one height (the computation uses wind_height_m)"
+    )]
+    WindHeightMismatch {
+        /// The weather source's wind height (m).
+        source_m: f64,
+        /// The wind column's header.
+        column: String,
+        /// The height the mapping states (m).
+        mapping_m: f64,
     },
     /// A scenario cannot be applied.
     #[error("{0}")]
@@ -624,6 +641,21 @@ impl Project {
             });
         }
         check_positive("weather", "wind_height_m", w.wind_height_m, out);
+        if let Some(import) = &w.import {
+            out.extend(
+                import
+                    .problems()
+                    .into_iter()
+                    .map(ValidationProblem::WeatherImport),
+            );
+        }
+        if let Some((column, mapping_m)) = w.wind_height_mismatch() {
+            out.push(ValidationProblem::WindHeightMismatch {
+                source_m: w.wind_height_m,
+                column: column.to_owned(),
+                mapping_m,
+            });
+        }
         if let Some(r) = &self.reservoir {
             let subject = format!("reservoir {:?}", r.name);
             for &a in &r.surface_area_ha {
