@@ -664,6 +664,7 @@ pub mod v0 {
                     season: p.season,
                     strategy: p.strategy,
                     season_length_days: None,
+                    paddy: None,
                 })
                 .collect(),
             weather: old.weather,

@@ -13,7 +13,11 @@
 //!    and memory stays bounded by one series per block and crop.
 //! 3. **Scheme** ([`crate::scheme`]): the project's canals and blocks become a
 //!    [`Network`] (Ea = the block method's application efficiency, Eb = the
-//!    block's field-canal efficiency, Ec, hours, capacities); demand up the
+//!    block's field-canal efficiency, Ec, hours, capacities). A paddy rice
+//!    planting's series carries its own Ea, the paddy field efficiency
+//!    (operational losses only, [`crate::project::PaddyInputs`]), because
+//!    its NIR already holds seepage, percolation and land preparation: the
+//!    block's GIR is Σ_series NIR ÷ (Ea_series × Eb). Demand up the
 //!    tree; design values over the complete irrigation years (start month,
 //!    probability and basis from the options); shortfall where an existing
 //!    capacity is given.

@@ -20,7 +20,7 @@ use crate::crop::{Crop, CropGroup};
 use crate::planting::{
     PlantingSpec, PlantingWarning, PlantingWeather, run_planting, run_planting_with_delivery,
 };
-use crate::project::{EffectiveRain, Planting, Strategy as PlanStrategy};
+use crate::project::{EffectiveRain, PaddyInputs, Planting, Strategy as PlanStrategy};
 use crate::rain::EffectiveRainMethod;
 use crate::soil::Soil;
 
@@ -113,6 +113,24 @@ pub fn effective_rain_method(e: EffectiveRain, crop: &Crop, soil: &Soil) -> Effe
     }
 }
 
+/// Whether the planting is computed by the paddy balance (a paddy rice crop).
+pub fn is_paddy(crop: &Crop) -> bool {
+    crop.group == CropGroup::PaddyRice
+}
+
+/// The field application efficiency that replaces the block's Ea for this
+/// planting, if any: for paddy rice the paddy field efficiency (operational
+/// losses only, because the paddy NIR already holds seepage, percolation and
+/// land preparation; [`PaddyInputs`], default 0.9), `None` for other crops.
+pub fn application_efficiency_override(crop: &Crop, planting: &Planting) -> Option<f64> {
+    is_paddy(crop).then(|| planting.paddy.unwrap_or_default().field_efficiency)
+}
+
+/// The paddy inputs used for a planting: its own, or the defaults.
+pub fn paddy_inputs(planting: &Planting) -> PaddyInputs {
+    planting.paddy.unwrap_or_default()
+}
+
 /// Simulates one planting over the whole weather record, per hectare.
 ///
 /// `delivered_net_mm`, when given, is the net depth (mm/day per hectare of
@@ -140,6 +158,9 @@ pub fn simulate_planting(
     spec.season_length_days = planting.season_length_days;
     spec.strategy = balance_strategy(planting.strategy, crop);
     spec.effective_rain = effective_rain_method(effective_rain, crop, soil);
+    if is_paddy(crop) {
+        spec.paddy = Some(paddy_inputs(planting).paddy_options());
+    }
     let weather = PlantingWeather {
         start: w.start,
         et0_mm: &w.et0_mm,
@@ -176,9 +197,11 @@ pub fn simulate_planting(
     for warning in &result.warnings {
         match warning {
             PlantingWarning::SeasonCut { .. } => {}
+            // Said once per crop (the engine removes repeats).
+            PlantingWarning::KyUnknown { .. } => out.warnings.push(warning.to_string()),
             other => out
                 .warnings
-                .push(format!("planting {}: {other:?}", planting.id)),
+                .push(format!("planting {}: {other}", planting.id)),
         }
     }
     Ok(out)

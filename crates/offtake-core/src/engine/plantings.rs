@@ -8,7 +8,9 @@
 use rayon::prelude::*;
 
 use super::EngineError;
-use super::planting_step::{PlantingOutcome, SeasonOutcome, simulate_planting};
+use super::planting_step::{
+    PlantingOutcome, SeasonOutcome, application_efficiency_override, simulate_planting,
+};
 use super::weather_prep::PreparedWeather;
 use crate::calendar::IrrigationYear;
 use crate::crop::Crop;
@@ -34,6 +36,10 @@ pub struct PlantingSummary {
     pub nir_m3_per_year: f64,
     /// Mean yearly volume at the headworks (m³): NIR ÷ (Ea × Eb × Π Ec).
     pub headworks_m3_per_year: f64,
+    /// Field application efficiency used for this planting's GIR: the
+    /// block method's Ea, or for paddy rice the paddy field efficiency
+    /// (operational losses only).
+    pub application_efficiency: f64,
     /// Seasons simulated (per hectare).
     pub seasons: Vec<SeasonOutcome>,
     /// Seasons left out because they do not fit inside the weather record.
@@ -74,6 +80,8 @@ struct Job {
     index: usize,
     block: usize,
     area_ha: f64,
+    /// Ea override of the planting (paddy field efficiency), if any.
+    ea_override: Option<f64>,
     /// Index of its distinct setting in the list of distinct plantings.
     distinct: usize,
 }
@@ -132,8 +140,14 @@ pub fn compute_plantings(
                     soil: b.soil.clone(),
                 })?;
         let key = format!(
-            "{}|{}|{:?}|{}|{:?}|{:?}",
-            p.crop, b.soil, p.first_planting, p.spread_days, p.season_length_days, p.strategy
+            "{}|{}|{:?}|{}|{:?}|{:?}|{:?}",
+            p.crop,
+            b.soil,
+            p.first_planting,
+            p.spread_days,
+            p.season_length_days,
+            p.strategy,
+            p.paddy
         );
         let next = distinct.len();
         let d = *keys.entry(key).or_insert(next);
@@ -148,6 +162,7 @@ pub fn compute_plantings(
             index,
             block,
             area_ha: p.area.hectares(b.area_ha),
+            ea_override: application_efficiency_override(crop, p),
             distinct: d,
         });
     }
@@ -167,7 +182,13 @@ pub fn compute_plantings(
         })
         .collect();
     let outcomes: Vec<PlantingOutcome> = outcomes.into_iter().collect::<Result<_, _>>()?;
-    let mut warnings: Vec<String> = outcomes.iter().flat_map(|o| o.warnings.clone()).collect();
+    // Each message once (e.g. an unknown Ky is said once per crop).
+    let mut warnings: Vec<String> = Vec::new();
+    for w in outcomes.iter().flat_map(|o| o.warnings.iter()) {
+        if !warnings.contains(w) {
+            warnings.push(w.clone());
+        }
+    }
 
     let per_block: Vec<Result<BlockOut, EngineError>> = by_block
         .par_iter()
@@ -182,17 +203,24 @@ pub fn compute_plantings(
                 let nir_mm_year: f64 = outcome.nir_mm[range.clone()].iter().sum::<f64>() / n_years;
                 let nir_m3_per_year = depth_mm_over_area_ha_to_m3(nir_mm_year, job.area_ha);
                 // Blocks are named by id in the network (see `network_of`).
+                let block_ea = project.blocks[job.block].method.application_efficiency;
+                let ea = job.ea_override.unwrap_or(block_ea);
                 let factor = network
                     .block_index(block_id)
-                    .and_then(|b| network.block_factor(b, Node::Headworks))
+                    .and_then(|b| network.block_factor_with_efficiency(b, Node::Headworks, ea))
                     .unwrap_or(0.0);
-                let target = if let Some(s) = series.iter_mut().find(|s| s.crop == p.crop) {
+                // One series per crop and efficiency override.
+                let target = if let Some(s) = series
+                    .iter_mut()
+                    .find(|s| s.crop == p.crop && s.application_efficiency == job.ea_override)
+                {
                     s
                 } else {
                     series.push(NirSeries {
                         block: block_id.clone(),
                         crop: p.crop.clone(),
                         nir_m3_day: vec![0.0; w.days()],
+                        application_efficiency: job.ea_override,
                     });
                     series.last_mut().ok_or_else(|| EngineError::Planting {
                         planting: p.id.clone(),
@@ -212,6 +240,7 @@ pub fn compute_plantings(
                         area_ha: job.area_ha,
                         nir_m3_per_year,
                         headworks_m3_per_year: nir_m3_per_year * factor,
+                        application_efficiency: ea,
                         seasons: outcome.seasons.clone(),
                         seasons_excluded: outcome.seasons_excluded,
                     },

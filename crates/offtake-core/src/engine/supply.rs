@@ -13,10 +13,12 @@
 //! - Water delivered to a child canal is shared among the blocks below it in
 //!   proportion to their demand each day
 //!   ([`crate::scheme::SchemeDemand::delivered_to_blocks_m3_day`]).
-//! - At a block, delivered outlet volume × Ea × Eb is the water reaching the
-//!   root zone; it is split among the block's plantings **in proportion to
-//!   their net requirement that day** (a planting that needs nothing that day
-//!   receives nothing) and turned into mm over each planting's area. Each
+//! - At a block, the delivered outlet volume is split among the block's
+//!   plantings **in proportion to their gross requirement that day** (a
+//!   planting that needs nothing that day receives nothing); × that
+//!   planting's Ea (the paddy field efficiency for paddy rice) × Eb it is the
+//!   water reaching the field, turned into mm over the planting's area. Each
+//!   planting thus receives its NIR × min(delivered ÷ block GIR, 1). Each
 //!   planting's balance is re-run on that water ([`simulate_planting`] with
 //!   the delivered depths), giving actual ET and the FAO-33 yield loss.
 //! - Relative irrigation supply (RIS) = delivered ÷ demand at the outlet.
@@ -300,10 +302,9 @@ pub fn supply_and_rerun(
             delivered_m3: del,
             relative_irrigation_supply: crate::rotation::relative_irrigation_supply(del, dem),
         });
-        // Root-zone water of the block, shared among its plantings in
-        // proportion to their requirement that day.
-        let k = block_net.application_efficiency * block_net.field_canal_efficiency;
-        let nir_block = demand.block_nir_m3_day(*b);
+        // Outlet water of the block, shared among its plantings in
+        // proportion to their gross requirement that day: each receives
+        // NIR × min(delivered ÷ GIR of the block, 1) at the root zone.
         for (pi, p) in project.plantings.iter().enumerate() {
             if p.block != block_net.name {
                 continue;
@@ -313,9 +314,9 @@ pub fn supply_and_rerun(
             };
             let mm: Vec<f64> = (0..w.days())
                 .map(|d| {
-                    let total = nir_block[d];
+                    let total = gir[d];
                     if total > 0.0 {
-                        nir[d] * (delivered[d] * k / total).min(1.0)
+                        nir[d] * (delivered[d] / total).min(1.0)
                     } else {
                         0.0
                     }
@@ -334,7 +335,7 @@ pub fn supply_and_rerun(
             let block = project.block(&p.block);
             let crop = crops.iter().find(|c| c.id == p.crop);
             let soil = block.and_then(|b| soils.iter().find(|s| s.id == b.soil));
-            let (Some(block), Some(crop), Some(soil)) = (block, crop, soil) else {
+            let (Some(_), Some(crop), Some(soil)) = (block, crop, soil) else {
                 return Err(EngineError::MissingCrop {
                     planting: p.id.clone(),
                     crop: p.crop.clone(),
@@ -345,7 +346,7 @@ pub fn supply_and_rerun(
                     planting: p.id.clone(),
                     cause,
                 })?;
-            let ea = block.method.application_efficiency;
+            let ea = summary.application_efficiency;
             let n = out.seasons.len();
             let losses: Vec<f64> = out
                 .seasons

@@ -292,6 +292,37 @@ pub enum PlantingWarning {
     },
 }
 
+impl std::fmt::Display for PlantingWarning {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            Self::SeasonCut { year, start, end } => write!(
+                f,
+                "the {year} season ({start} to {end}) runs past the ends of the weather record; it was simulated over the days inside and left out of statistics"
+            ),
+            Self::PaddySeasonNotComputed { year } => write!(
+                f,
+                "the {year} paddy season (land preparation to harvest) is not wholly inside the weather record and was not computed"
+            ),
+            Self::LeapDayPlantingMoved { year } => write!(
+                f,
+                "planting day 29 February moved to 28 February in {year} (not a leap year)"
+            ),
+            Self::SeasonsOverlap { season_days } => write!(
+                f,
+                "the season and planting window last {season_days} days, longer than a year: seasons of successive years overlap and their requirements add up"
+            ),
+            Self::KyUnknown { crop } => write!(
+                f,
+                "crop {crop} has no seasonal yield response factor Ky; Ky = 1 was used, as FAO-56 (p. 176) suggests where Ky is unknown"
+            ),
+            Self::DeliveryShortfall { days, shortfall_mm } => write!(
+                f,
+                "the water delivered was less than the requirement on {days} days ({shortfall_mm:.1} mm short in all; the shortfall is not carried over)"
+            ),
+        }
+    }
+}
+
 /// The result of one planting over the record.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct PlantingResult {

@@ -58,6 +58,7 @@ fn planting(
             trigger_pct_of_raw: 100.0,
         },
         season_length_days: None,
+        paddy: None,
     }
 }
 
@@ -543,4 +544,29 @@ fn month_day_rules() {
     assert!(MonthDay::new(13, 1).is_none());
     assert_eq!(MonthDay::new(3, 1).unwrap().day_of_year0(), Some(59));
     assert_eq!(PlantingArea::PercentOfBlock(25.0).hectares(80.0), 20.0);
+}
+
+#[test]
+fn paddy_inputs_out_of_range_are_listed() {
+    let mut p = fixture();
+    p.plantings[0].paddy = Some(super::PaddyInputs::default());
+    assert!(p.validate(&ctx()).is_empty());
+    p.plantings[0].paddy = Some(super::PaddyInputs {
+        field_efficiency: 1.2,
+        target_ponding_mm: 300.0,
+        percolation_seepage_mm_day: -1.0,
+        land_preparation_days: 0,
+        ..super::PaddyInputs::default()
+    });
+    let problems = p.validate(&ctx());
+    let text: Vec<String> = problems.iter().map(ToString::to_string).collect();
+    assert_eq!(problems.len(), 4, "{text:#?}");
+    for field in [
+        "field_efficiency",
+        "target_ponding_mm",
+        "percolation_seepage_mm_day",
+        "land_preparation_days",
+    ] {
+        assert!(text.iter().any(|t| t.contains(field)), "{field}: {text:#?}");
+    }
 }
