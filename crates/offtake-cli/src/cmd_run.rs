@@ -15,7 +15,7 @@ use anyhow::{Context, Result, bail};
 use clap::Args as ClapArgs;
 use offtake_core::engine::{self, Results};
 use offtake_core::project::Project;
-use offtake_core::scheme::{Node, PeriodStep};
+use offtake_core::scheme::{DesignBasis, Node, PeriodStep};
 use offtake_core::weather::WeatherDay;
 use offtake_io::export::{
     self, BLOCK_REQUIREMENTS_DAILY_CSV, BLOCK_REQUIREMENTS_DAILY_HEADERS, Cell, DESIGN_VALUES_CSV,
@@ -170,9 +170,9 @@ pub(crate) fn summary_text(r: &Results, project: &Project) -> String {
             h.design_flow_ls / 1000.0,
             h.non_exceedance * 100.0,
             match h.basis {
-                offtake_core::scheme::DesignBasis::TenDay => "10-day",
-                offtake_core::scheme::DesignBasis::Monthly => "monthly",
-                offtake_core::scheme::DesignBasis::Daily => "daily",
+                DesignBasis::TenDay => "10-day",
+                DesignBasis::Monthly => "monthly",
+                DesignBasis::Daily => "daily",
             },
             h.design_year.label()
         );
@@ -212,16 +212,17 @@ pub(crate) fn summary_text(r: &Results, project: &Project) -> String {
     if with_cap.is_empty() {
         let _ = writeln!(s, "No canal has an existing capacity.");
     } else {
-        let _ = writeln!(s, "Canals with an existing capacity:");
+        let basis = with_cap.first().map_or(DesignBasis::TenDay, |d| d.basis);
+        let _ = writeln!(
+            s,
+            "Canals with an existing capacity (shortfall on the design basis: a {} period is short when its mean flow exceeds the capacity):",
+            basis.label()
+        );
         for d in with_cap {
             let cap = d.existing_capacity_ls.unwrap_or(0.0);
-            let (days, vol) = d
-                .shortfall
-                .as_ref()
-                .map_or((0, 0.0), |f| (f.days.len(), f.volume_not_delivered_m3));
             let _ = writeln!(
                 s,
-                "  {}: capacity {} l/s, required {} l/s ({}); daily demand above capacity on {} days, {} m3 not delivered over the record",
+                "  {}: capacity {} l/s, required {} l/s ({})",
                 d.name,
                 fmt_int(cap),
                 fmt_int(d.required_capacity_ls),
@@ -230,9 +231,32 @@ pub(crate) fn summary_text(r: &Results, project: &Project) -> String {
                 } else {
                     "sufficient"
                 },
-                days,
-                fmt_int(vol)
             );
+            if let Some(f) = &d.shortfall {
+                let years: Vec<String> = f.years_short.iter().map(|y| y.label()).collect();
+                let _ = writeln!(
+                    s,
+                    "    {} mean flow above capacity in {} {}, in {} of {} complete years{}; {} m3 not delivered over the record",
+                    f.basis.label(),
+                    f.basis_periods.len(),
+                    f.basis.periods_noun(),
+                    f.years_short.len(),
+                    d.years.len(),
+                    if years.is_empty() || years.len() > 8 {
+                        String::new()
+                    } else {
+                        format!(" ({})", years.join(", "))
+                    },
+                    fmt_int(f.basis_volume_not_delivered_m3)
+                );
+                if f.basis != DesignBasis::Daily {
+                    let _ = writeln!(
+                        s,
+                        "    daily peaks (for information, not the design basis): daily demand above capacity on {} days",
+                        f.days.len()
+                    );
+                }
+            }
         }
     }
     if let Some(sp) = &r.supply {

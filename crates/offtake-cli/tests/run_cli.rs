@@ -39,6 +39,10 @@ fn run_writes_the_contract_tables() {
     );
     assert!(stdout.contains("Headworks design flow:"));
     assert!(stdout.contains("l/s/ha"));
+    // The shortfall is on the design basis, daily peaks labelled as such.
+    assert!(stdout.contains("shortfall on the design basis"), "{stdout}");
+    assert!(stdout.contains("10-day mean flow above capacity"), "{stdout}");
+    assert!(stdout.contains("daily peaks (for information"), "{stdout}");
     assert!(
         first_line(&dir.path().join("design_values.csv"))
             == "node,area_ha,design_flow_ls,required_capacity_ls,existing_capacity_ls,peak_daily_ls,peak_10day_ls,duty_ls_ha,seasonal_volume_m3,design_year"
@@ -113,4 +117,6 @@ fn compare_prints_one_column_per_scenario() {
         assert!(header.contains(name), "{header}");
     }
     assert!(text.contains("headworks design flow (l/s)"));
+    assert!(text.contains("capacity shortfall, design basis (m3/year)"));
+    assert!(text.contains("design basis (10-day mean flows)"), "{text}");
 }

@@ -486,13 +486,17 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     }
     for d in &design {
         if let Some(sf) = &d.shortfall
-            && !sf.days.is_empty()
+            && !sf.basis_periods.is_empty()
         {
             warnings.push(format!(
-                "canal {}: demand exceeds the existing capacity on {} days ({:.0} m³ not delivered over the record)",
+                "canal {}: the {} mean demand exceeds the existing capacity in {} {} of the record, in {} of {} complete irrigation years ({:.0} m³ not delivered over the record)",
                 d.name,
-                sf.days.len(),
-                sf.volume_not_delivered_m3
+                sf.basis.label(),
+                sf.basis_periods.len(),
+                sf.basis.periods_noun(),
+                sf.years_short.len(),
+                d.years.len(),
+                sf.basis_volume_not_delivered_m3
             ));
         }
     }
