@@ -18,7 +18,7 @@ use offtake_core::project::Project;
 use offtake_core::scheme::{DesignBasis, Node, PeriodStep};
 use offtake_core::weather::WeatherDay;
 use offtake_io::export::{
-    self, BLOCK_REQUIREMENTS_DAILY_CSV, BLOCK_REQUIREMENTS_DAILY_HEADERS, Cell, DESIGN_VALUES_CSV,
+    self, BLOCK_REQUIREMENTS_DAILY_CSV, decimals as dec, BLOCK_REQUIREMENTS_DAILY_HEADERS, Cell, DESIGN_VALUES_CSV,
     DESIGN_VALUES_HEADERS, NODE_DEMAND_DAILY_CSV, NODE_DEMAND_DAILY_HEADERS, RESULTS_WORKBOOK,
     Table,
 };
@@ -286,11 +286,11 @@ pub(crate) fn summary_text(r: &Results, project: &Project) -> String {
         }
     }
     let _ = writeln!(s, "Warnings: {}", r.warnings.len());
-    for w in r.warnings.iter().take(5) {
+    for w in r.warnings.iter().take(12) {
         let _ = writeln!(s, "  - {w}");
     }
-    if r.warnings.len() > 5 {
-        let _ = writeln!(s, "  ... {} more", r.warnings.len() - 5);
+    if r.warnings.len() > 12 {
+        let _ = writeln!(s, "  ... {} more", r.warnings.len() - 12);
     }
     let _ = writeln!(
         s,
@@ -318,14 +318,14 @@ pub(crate) fn tables(r: &Results, project: &Project) -> Vec<Table> {
     for d in &r.design {
         design.push_row(vec![
             Cell::Text(d.name.clone()),
-            Cell::Number(d.area_ha),
-            Cell::Number(d.design_flow_ls),
-            Cell::Number(d.required_capacity_ls),
-            Cell::from(d.existing_capacity_ls),
-            Cell::Number(d.peak_daily_ls),
-            Cell::Number(d.peak_10day_ls),
-            Cell::from(d.duty_ls_ha),
-            Cell::Number(d.seasonal_volume_m3),
+            Cell::rounded(d.area_ha, dec::AREA_HA),
+            Cell::rounded(d.design_flow_ls, dec::FLOW_LS),
+            Cell::rounded(d.required_capacity_ls, dec::FLOW_LS),
+            Cell::rounded_opt(d.existing_capacity_ls, dec::FLOW_LS),
+            Cell::rounded(d.peak_daily_ls, dec::FLOW_LS),
+            Cell::rounded(d.peak_10day_ls, dec::FLOW_LS),
+            Cell::rounded_opt(d.duty_ls_ha, dec::DUTY_LS_HA),
+            Cell::rounded(d.seasonal_volume_m3, dec::VOLUME_M3),
             Cell::Text(d.design_year.label()),
         ]);
     }
@@ -338,7 +338,7 @@ pub(crate) fn tables(r: &Results, project: &Project) -> Vec<Table> {
             node_daily.push_row(vec![
                 Cell::Date(date),
                 Cell::Text(net.node_name(n).to_owned()),
-                Cell::Number(flows[k][day]),
+                Cell::rounded(flows[k][day], dec::FLOW_LS),
             ]);
         }
     }
@@ -357,10 +357,10 @@ pub(crate) fn tables(r: &Results, project: &Project) -> Vec<Table> {
             blocks.push_row(vec![
                 Cell::Date(date),
                 Cell::Text(blk.name.clone()),
-                Cell::Number(nir_m3 / per_mm),
-                Cell::Number(gir[b][day] / per_mm),
-                Cell::Number(nir_m3),
-                Cell::Number(gir[b][day]),
+                Cell::rounded(nir_m3 / per_mm, dec::DEPTH_MM),
+                Cell::rounded(gir[b][day] / per_mm, dec::DEPTH_MM),
+                Cell::rounded(nir_m3, dec::VOLUME_M3),
+                Cell::rounded(gir[b][day], dec::VOLUME_M3),
             ]);
         }
     }
@@ -376,9 +376,9 @@ pub(crate) fn tables(r: &Results, project: &Project) -> Vec<Table> {
                     Cell::Text(net.node_name(n).to_owned()),
                     Cell::Date(p.start),
                     Cell::Integer(i64::from(p.period_days)),
-                    Cell::Number(p.mean_flow_ls),
-                    Cell::Number(p.mean_flow_ls * 86.4 * f64::from(p.covered_days)),
-                    Cell::Number(p.depth_mm),
+                    Cell::rounded(p.mean_flow_ls, dec::FLOW_LS),
+                    Cell::rounded(p.volume_m3, dec::VOLUME_M3),
+                    Cell::rounded(p.depth_mm, dec::DEPTH_MM),
                 ]);
             }
         }
@@ -393,8 +393,8 @@ pub(crate) fn tables(r: &Results, project: &Project) -> Vec<Table> {
                 Cell::Text(e.unit_name.clone()),
                 Cell::Text(e.start.format("%Y-%m-%d %H:%M").to_string()),
                 Cell::Text(e.end.format("%Y-%m-%d %H:%M").to_string()),
-                Cell::Number(e.flow_ls),
-                Cell::Number(e.volume_m3),
+                Cell::rounded(e.flow_ls, dec::FLOW_LS),
+                Cell::rounded(e.volume_m3, dec::VOLUME_M3),
             ]);
         }
         out.push(t);

@@ -504,3 +504,22 @@ fn paddy_inputs_are_optional_partial_and_strict() {
         assert_eq!(paddy.percolation_seepage_mm_day, 2.0);
     }
 }
+
+/// A saved project gets normal permissions (not the temporary file's
+/// owner-only mode) and keeps those of the file it replaces.
+#[cfg(unix)]
+#[test]
+fn saved_project_has_normal_permissions() {
+    use std::os::unix::fs::PermissionsExt;
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("p.ron");
+    let p = load_project(&corpus("minimal.ron")).unwrap();
+    save_project(&path, &p).unwrap();
+    let mode = std::fs::metadata(&path).unwrap().permissions().mode() & 0o777;
+    assert_ne!(mode & 0o044, 0, "mode {mode:o}");
+    std::fs::set_permissions(&path, std::fs::Permissions::from_mode(0o664)).unwrap();
+    save_project(&path, &p).unwrap();
+    let mode = std::fs::metadata(&path).unwrap().permissions().mode() & 0o777;
+    // 0o664 less the umask's bits at most.
+    assert_eq!(mode & 0o644, 0o644, "mode {mode:o}");
+}
