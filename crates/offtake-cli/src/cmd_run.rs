@@ -286,11 +286,11 @@ pub(crate) fn summary_text(r: &Results, project: &Project) -> String {
         }
     }
     let _ = writeln!(s, "Warnings: {}", r.warnings.len());
-    for w in r.warnings.iter().take(12) {
+    for w in r.warnings.iter().take(15) {
         let _ = writeln!(s, "  - {w}");
     }
-    if r.warnings.len() > 12 {
-        let _ = writeln!(s, "  ... {} more", r.warnings.len() - 12);
+    if r.warnings.len() > 15 {
+        let _ = writeln!(s, "  ... {} more", r.warnings.len() - 15);
     }
     let _ = writeln!(
         s,

@@ -237,3 +237,77 @@ fn ample_supply_needs_no_roster() {
     assert_eq!(s.short_days, 0);
     assert!(s.roster.is_none());
 }
+
+/// The rotation units carry RAW and ETc from the plantings (issue 5: warn
+/// when the rotation period is longer than the time a block's crop takes to
+/// use its readily available water, RAW ÷ ETc).
+///
+/// Each planting's RAW is checked against FAO-56 eqs. 82–83 with the Table
+/// 22 note (p = p_table + 0.04 (5 − ETc), 0.1 ≤ p ≤ 0.8) at its peak
+/// 10-day ETc, from the library's soil and crop values; paddy rice holds its
+/// pond instead. A unit's figure is the shortest RAW ÷ ETc below it.
+#[test]
+fn rotation_units_carry_raw_and_etc_from_the_plantings() {
+    let (project, libs, _) = demo();
+    let r = run(&project, None);
+    for p in &r.plantings {
+        let planting = project.planting(&p.id).unwrap();
+        let block = project.block(&p.block).unwrap();
+        let crop = libs.crops.iter().find(|c| c.id == p.crop).unwrap();
+        let soil = libs.soils.iter().find(|s| s.id == block.soil).unwrap();
+        match p.raw_and_etc {
+            None => assert!(
+                matches!(
+                    planting.strategy,
+                    offtake_core::project::Strategy::Rainfed
+                ),
+                "{}",
+                p.id
+            ),
+            Some((raw, rate)) if p.crop == "rice-paddy" => {
+                let paddy = planting.paddy.unwrap();
+                assert!((raw - paddy.target_ponding_mm).abs() < 1e-9);
+                assert!(rate > paddy.percolation_seepage_mm_day);
+            }
+            Some((raw, etc)) => {
+                let taw = 1000.0 * (soil.theta_fc - soil.theta_wp) * crop.root_depth_max_m;
+                let p_adj = (crop.depletion_p + 0.04 * (5.0 - etc)).clamp(0.1, 0.8);
+                assert!((raw - p_adj * taw).abs() < 1e-9, "{}: {raw}", p.id);
+                assert!(etc > 0.0 && etc < 20.0, "{}: {etc}", p.id);
+            }
+        }
+    }
+    // The rainfed sorghum is left out of the check.
+    assert!(
+        r.plantings
+            .iter()
+            .find(|p| p.id == "S3-sorghum")
+            .unwrap()
+            .raw_and_etc
+            .is_none()
+    );
+    // Block M1 takes water from the main canal, where the demo rotates:
+    // its unit's figure is the shortest RAW ÷ ETc of its plantings.
+    let m1 = r
+        .plantings
+        .iter()
+        .filter(|p| p.block == "M1")
+        .filter_map(|p| p.raw_and_etc.map(|(raw, etc)| raw / etc))
+        .fold(f64::INFINITY, f64::min);
+    assert!(m1 < 7.0);
+    let expected = format!("`M1`: rotation period 7 days is longer than RAW ÷ ETc = {m1:.1} days");
+    assert!(
+        r.warnings.iter().any(|w| w.contains(&expected)),
+        "{expected}\n{:#?}",
+        r.warnings
+    );
+    // A 1-day rotation is shorter than every unit's RAW ÷ ETc: no warning.
+    let mut daily = project.clone();
+    daily.options.rotation_period_days = 1;
+    let r1 = run(&daily, None);
+    assert!(
+        !r1.warnings.iter().any(|w| w.contains("longer than RAW")),
+        "{:#?}",
+        r1.warnings
+    );
+}

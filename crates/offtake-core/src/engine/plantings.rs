@@ -9,7 +9,8 @@ use rayon::prelude::*;
 
 use super::EngineError;
 use super::planting_step::{
-    PlantingOutcome, SeasonOutcome, application_efficiency_override, simulate_planting,
+    PlantingOutcome, SeasonOutcome, application_efficiency_override, raw_and_peak_etc,
+    simulate_planting,
 };
 use super::weather_prep::PreparedWeather;
 use crate::calendar::IrrigationYear;
@@ -44,6 +45,14 @@ pub struct PlantingSummary {
     pub seasons: Vec<SeasonOutcome>,
     /// Seasons left out because they do not fit inside the weather record.
     pub seasons_excluded: usize,
+    /// Readily available water (mm) and the peak 10-day ETc (mm/day) it is
+    /// used at, for the rotation-period check
+    /// ([`super::planting_step::raw_and_peak_etc`]); `None` for rainfed
+    /// plantings.
+    pub raw_and_etc: Option<(f64, f64)>,
+    /// Whether the planting is paddy rice (its RAW is the pond, its rate
+    /// ETc + seepage and percolation).
+    pub is_paddy: bool,
 }
 
 /// Plantings computed for the scheme.
@@ -76,9 +85,10 @@ pub fn complete_range(w: &PreparedWeather, years: &[IrrigationYear]) -> std::ops
 type BlockOut = (Vec<NirSeries>, Vec<(usize, PlantingSummary, Vec<f64>)>);
 
 /// Resolved inputs of one planting.
-struct Job {
+struct Job<'a> {
     index: usize,
     block: usize,
+    soil: &'a Soil,
     area_ha: f64,
     /// Ea override of the planting (paddy field efficiency), if any.
     ea_override: Option<f64>,
@@ -110,7 +120,7 @@ pub fn compute_plantings(
     years: &[IrrigationYear],
     keep_daily: bool,
 ) -> Result<ComputedPlantings, EngineError> {
-    let mut by_block: Vec<Vec<Job>> = (0..project.blocks.len()).map(|_| Vec::new()).collect();
+    let mut by_block: Vec<Vec<Job<'_>>> = (0..project.blocks.len()).map(|_| Vec::new()).collect();
     let mut keys: std::collections::HashMap<String, usize> = std::collections::HashMap::new();
     let mut distinct: Vec<Distinct<'_>> = Vec::new();
     for (index, p) in project.plantings.iter().enumerate() {
@@ -161,6 +171,7 @@ pub fn compute_plantings(
         by_block[block].push(Job {
             index,
             block,
+            soil,
             area_ha: p.area.hectares(b.area_ha),
             ea_override: application_efficiency_override(crop, p),
             distinct: d,
@@ -243,6 +254,13 @@ pub fn compute_plantings(
                         application_efficiency: ea,
                         seasons: outcome.seasons.clone(),
                         seasons_excluded: outcome.seasons_excluded,
+                        raw_and_etc: raw_and_peak_etc(
+                            distinct[job.distinct].crop,
+                            job.soil,
+                            p,
+                            outcome.peak_etc_10day_mm_day,
+                        ),
+                        is_paddy: job.ea_override.is_some(),
                     },
                     if keep_daily {
                         outcome.nir_mm.clone()

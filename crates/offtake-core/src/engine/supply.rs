@@ -164,6 +164,48 @@ fn limit_to_capacities(
     lowered
 }
 
+/// Fills each rotation unit's RAW and ETc from the plantings below it, for
+/// the rotation-period warning (RAW ÷ ETc, [`crate::rotation`]): a block
+/// takes the planting whose RAW ÷ peak ETc is shortest (the crop that runs
+/// out of readily available water first), a child canal the shortest over
+/// every block below it. Rainfed plantings are left out. Returns, per unit
+/// filled, a description of the limiting planting.
+pub fn fill_raw_and_etc(
+    units: &mut [crate::rotation::RotationUnit],
+    demand: &SchemeDemand,
+    summaries: &[PlantingSummary],
+) -> Vec<(String, String)> {
+    let network = demand.network();
+    let mut out = Vec::new();
+    for u in units.iter_mut() {
+        let below = |block: &str| -> bool {
+            if u.name == block {
+                return true;
+            }
+            match (network.canal_index(&u.name), network.block_index(block)) {
+                (Some(c), Some(b)) => network.block_is_below(b, Node::Canal(c)),
+                _ => false,
+            }
+        };
+        let best = summaries
+            .iter()
+            .filter(|p| below(&p.block))
+            .filter_map(|p| p.raw_and_etc.map(|(raw, etc)| (p, raw, etc)))
+            .min_by(|a, b| (a.1 / a.2).total_cmp(&(b.1 / b.2)));
+        if let Some((p, raw, etc)) = best {
+            u.raw_mm = Some(raw);
+            u.etc_mm_day = Some(etc);
+            let what = if p.is_paddy {
+                format!("pond {raw:.0} mm used at ETc + seepage and percolation {etc:.1} mm/day")
+            } else {
+                format!("RAW {raw:.0} mm used at a peak 10-day ETc of {etc:.1} mm/day")
+            };
+            out.push((u.name.clone(), format!("{} on block {}, {what}", p.crop, p.block)));
+        }
+    }
+    out
+}
+
 fn weighted(items: impl Iterator<Item = (f64, Option<f64>)>) -> Option<f64> {
     let (mut s, mut a) = (0.0, 0.0);
     for (area, v) in items {
@@ -250,7 +292,8 @@ pub fn supply_and_rerun(
     if short_days == 0 {
         return Ok(result);
     }
-    let units = units_at_node(demand, node, 0..w.days());
+    let mut units = units_at_node(demand, node, 0..w.days());
+    let limiting = fill_raw_and_etc(&mut units, demand, summaries);
     let reduced = limit_to_capacities(&units, &mut avail, project.options.rotation_period_days);
     if reduced > 0 {
         result.warnings.push(format!(
@@ -266,7 +309,15 @@ pub fn supply_and_rerun(
     )
     .map_err(|e| EngineError::Rotation(e.to_string()))?;
     for warning in &roster.warnings {
-        result.warnings.push(format!("roster: {warning}"));
+        let detail = match warning {
+            crate::rotation::RosterWarning::RotationLongerThanRaw { unit, .. } => limiting
+                .iter()
+                .find(|(u, _)| u == unit)
+                .map(|(_, l)| format!(" (limiting: {l})"))
+                .unwrap_or_default(),
+            _ => String::new(),
+        };
+        result.warnings.push(format!("roster: {warning}{detail}"));
     }
     let ec_node = match node {
         Node::Headworks => 1.0,
