@@ -135,6 +135,25 @@ fn fmt_int(v: f64) -> String {
     if v < -0.5 { format!("-{out}") } else { out }
 }
 
+/// A value to 3 significant figures, with thousands separators
+/// (5,575.2 → "5,580"; 638.8 → "639"; 1.9159 → "1.92").
+pub(crate) fn fmt_sig3(v: f64) -> String {
+    if v == 0.0 || !v.is_finite() {
+        return format!("{v}");
+    }
+    let digits_of = |x: f64| x.abs().log10().floor() as i32 + 1;
+    let unit = 10_f64.powi(digits_of(v) - 3);
+    let v = (v / unit).round() * unit;
+    // Rounding may add a digit (99.96 → 100).
+    let digits = digits_of(v);
+    if digits >= 3 {
+        fmt_int(v)
+    } else {
+        let decimals = usize::try_from(3 - digits).unwrap_or(0);
+        format!("{v:.decimals$}")
+    }
+}
+
 fn fmt_opt(v: Option<f64>, decimals: usize) -> String {
     v.map_or_else(|| "-".to_owned(), |x| format!("{x:.decimals$}"))
 }
@@ -185,6 +204,7 @@ pub(crate) fn summary_text(r: &Results, project: &Project) -> String {
             fmt_int(h.peak_daily_ls)
         );
     }
+    design_table(&mut s, r);
     let _ = writeln!(s, "Seasonal volume (mean per irrigation year):");
     for v in &r.season_volumes {
         let _ = writeln!(
@@ -298,6 +318,70 @@ pub(crate) fn summary_text(r: &Results, project: &Project) -> String {
         r.timing.total.as_secs_f64()
     );
     s
+}
+
+/// The per-canal design flow table of the summary: every canal and the
+/// headworks, design flow and capacities to 3 significant figures.
+fn design_table(s: &mut String, r: &Results) {
+    let Some(first) = r.design.first() else {
+        return;
+    };
+    let _ = writeln!(
+        s,
+        "Design flows per canal ({:.0} % non-exceedance of the yearly peak {} mean flow over {} complete irrigation years; flows to 3 significant figures):",
+        first.non_exceedance * 100.0,
+        first.basis.label(),
+        first.years.len()
+    );
+    let head = [
+        "node",
+        "area ha",
+        "design l/s",
+        "duty l/s/ha",
+        "required l/s",
+        "existing l/s",
+        "design year",
+    ];
+    let rows: Vec<[String; 7]> = r
+        .design
+        .iter()
+        .map(|d| {
+            [
+                d.name.clone(),
+                fmt_int(d.area_ha),
+                fmt_sig3(d.design_flow_ls),
+                fmt_opt(d.duty_ls_ha, 2),
+                fmt_sig3(d.required_capacity_ls),
+                d.existing_capacity_ls.map_or_else(|| "-".into(), fmt_int),
+                d.design_year.label(),
+            ]
+        })
+        .collect();
+    let widths: Vec<usize> = (0..head.len())
+        .map(|i| {
+            rows.iter()
+                .map(|row| row[i].chars().count())
+                .chain(std::iter::once(head[i].chars().count()))
+                .max()
+                .unwrap_or(0)
+        })
+        .collect();
+    let line = |cells: &[&str]| {
+        let mut out = String::from(" ");
+        for (i, (c, w)) in cells.iter().zip(&widths).enumerate() {
+            if i == 0 {
+                let _ = write!(out, " {c:<w$}");
+            } else {
+                let _ = write!(out, "  {c:>w$}");
+            }
+        }
+        out
+    };
+    let _ = writeln!(s, "{}", line(&head));
+    for row in &rows {
+        let cells: Vec<&str> = row.iter().map(String::as_str).collect();
+        let _ = writeln!(s, "{}", line(&cells));
+    }
 }
 
 fn node_order(r: &Results) -> Vec<Node> {
@@ -432,4 +516,22 @@ fn write_tables(r: &Results, project: &Project, out: &Path) -> Result<()> {
     book.extend(roster);
     export::write_workbook(&book, &out.join(RESULTS_WORKBOOK)).context("writing results.xlsx")?;
     Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::fmt_sig3;
+
+    #[test]
+    fn three_significant_figures() {
+        assert_eq!(fmt_sig3(5575.22), "5,580");
+        assert_eq!(fmt_sig3(638.797), "639");
+        assert_eq!(fmt_sig3(1277.6), "1,280");
+        assert_eq!(fmt_sig3(99.96), "100");
+        assert_eq!(fmt_sig3(12.345), "12.3");
+        assert_eq!(fmt_sig3(1.9159), "1.92");
+        assert_eq!(fmt_sig3(0.012_34), "0.0123");
+        assert_eq!(fmt_sig3(0.0), "0");
+        assert_eq!(fmt_sig3(19_354.9), "19,400");
+    }
 }

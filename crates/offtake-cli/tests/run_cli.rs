@@ -80,6 +80,27 @@ fn run_writes_the_contract_tables() {
             assert_ne!(mode & 0o044, 0, "{name}: mode {mode:o}");
         }
     }
+    // The per-canal design flow table lists every canal and the headworks,
+    // with the complete years used.
+    assert!(
+        stdout.contains("Design flows per canal (80 % non-exceedance of the yearly peak 10-day mean flow over 24 complete irrigation years"),
+        "{stdout}"
+    );
+    for node in ["main", "upper-dy", "middle-dy", "lower-dy", "lower-minor-1", "headworks"] {
+        assert!(
+            stdout.lines().any(|l| l.starts_with(&format!("  {node} "))),
+            "{node}\n{stdout}"
+        );
+    }
+    let middle_row = stdout
+        .lines()
+        .find(|l| l.starts_with("  middle-dy "))
+        .unwrap();
+    // area, design flow (3 s.f.), duty, required, existing, design year
+    let cells: Vec<&str> = middle_row.split_whitespace().collect();
+    assert_eq!(cells.len(), 7, "{middle_row}");
+    assert_eq!(cells[1], "990");
+    assert_eq!(cells[5], "2,000");
     // The shortfall is on the design basis, daily peaks labelled as such.
     assert!(stdout.contains("shortfall on the design basis"), "{stdout}");
     assert!(stdout.contains("10-day mean flow above capacity"), "{stdout}");
