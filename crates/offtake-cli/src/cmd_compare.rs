@@ -30,7 +30,7 @@ pub fn run(args: &Args) -> Result<()> {
         &loaded.weather,
     )
     .with_context(|| format!("comparing the scenarios of {}", args.project.display()))?;
-    print!("{}", comparison_text(&cmp));
+    crate::cmd_run::print_text(&comparison_text(&cmp))?;
     Ok(())
 }
 

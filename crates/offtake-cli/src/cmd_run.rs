@@ -18,9 +18,9 @@ use offtake_core::project::Project;
 use offtake_core::scheme::{DesignBasis, Node, PeriodStep};
 use offtake_core::weather::WeatherDay;
 use offtake_io::export::{
-    self, BLOCK_REQUIREMENTS_DAILY_CSV, decimals as dec, BLOCK_REQUIREMENTS_DAILY_HEADERS, Cell, DESIGN_VALUES_CSV,
+    self, BLOCK_REQUIREMENTS_DAILY_CSV, BLOCK_REQUIREMENTS_DAILY_HEADERS, Cell, DESIGN_VALUES_CSV,
     DESIGN_VALUES_HEADERS, NODE_DEMAND_DAILY_CSV, NODE_DEMAND_DAILY_HEADERS, RESULTS_WORKBOOK,
-    Table,
+    Table, decimals as dec,
 };
 use offtake_io::library::Libraries;
 use offtake_io::project_file::{load_project, weather_path};
@@ -118,9 +118,28 @@ pub fn run(args: &Args) -> Result<()> {
     std::fs::create_dir_all(&out)
         .with_context(|| format!("creating the output folder {}", out.display()))?;
     write_tables(&results, &loaded.project, &out)?;
-    print!("{}", summary_text(&results, &loaded.project));
-    println!("Results written to {}", out.display());
-    Ok(())
+    let text = format!(
+        "{}Results written to {}\n",
+        summary_text(&results, &loaded.project),
+        out.display()
+    );
+    print_text(&text)
+}
+
+/// Writes text to standard output; a closed pipe (`offtake run … | head`)
+/// ends the output quietly instead of panicking.
+///
+/// # Errors
+/// Any other write error.
+pub(crate) fn print_text(text: &str) -> Result<()> {
+    use std::io::Write as _;
+    let mut out = std::io::stdout().lock();
+    match out.write_all(text.as_bytes()).and_then(|()| out.flush()) {
+        Err(e) if e.kind() != std::io::ErrorKind::BrokenPipe => {
+            Err(e).context("writing to standard output")
+        }
+        _ => Ok(()),
+    }
 }
 
 fn fmt_int(v: f64) -> String {

@@ -132,11 +132,9 @@ fn demo_runs_end_to_end_with_finite_values_and_conserves_water() {
             rice_blocks += 1;
             // The rice blocks' GIR is less than NIR ÷ (method Ea × Eb):
             // percolation is not counted twice.
-            let nir_year: f64 =
-                r.demand.block_nir_m3_day(bi)[i0..i1].iter().sum::<f64>() / n_years;
+            let nir_year: f64 = r.demand.block_nir_m3_day(bi)[i0..i1].iter().sum::<f64>() / n_years;
             assert!(
-                gir_year
-                    < nir_year / (b.method.application_efficiency * b.field_canal_efficiency)
+                gir_year < nir_year / (b.method.application_efficiency * b.field_canal_efficiency)
             );
         }
     }
@@ -257,10 +255,7 @@ fn rotation_units_carry_raw_and_etc_from_the_plantings() {
         let soil = libs.soils.iter().find(|s| s.id == block.soil).unwrap();
         match p.raw_and_etc {
             None => assert!(
-                matches!(
-                    planting.strategy,
-                    offtake_core::project::Strategy::Rainfed
-                ),
+                matches!(planting.strategy, offtake_core::project::Strategy::Rainfed),
                 "{}",
                 p.id
             ),

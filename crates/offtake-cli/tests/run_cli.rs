@@ -86,7 +86,14 @@ fn run_writes_the_contract_tables() {
         stdout.contains("Design flows per canal (80 % non-exceedance of the yearly peak 10-day mean flow over 24 complete irrigation years"),
         "{stdout}"
     );
-    for node in ["main", "upper-dy", "middle-dy", "lower-dy", "lower-minor-1", "headworks"] {
+    for node in [
+        "main",
+        "upper-dy",
+        "middle-dy",
+        "lower-dy",
+        "lower-minor-1",
+        "headworks",
+    ] {
         assert!(
             stdout.lines().any(|l| l.starts_with(&format!("  {node} "))),
             "{node}\n{stdout}"
@@ -103,7 +110,10 @@ fn run_writes_the_contract_tables() {
     assert_eq!(cells[5], "2,000");
     // The shortfall is on the design basis, daily peaks labelled as such.
     assert!(stdout.contains("shortfall on the design basis"), "{stdout}");
-    assert!(stdout.contains("10-day mean flow above capacity"), "{stdout}");
+    assert!(
+        stdout.contains("10-day mean flow above capacity"),
+        "{stdout}"
+    );
     assert!(stdout.contains("daily peaks (for information"), "{stdout}");
     assert!(
         first_line(&dir.path().join("design_values.csv"))

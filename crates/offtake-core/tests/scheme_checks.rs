@@ -6,8 +6,8 @@
 use chrono::NaiveDate;
 use offtake_core::scheme::design::{design_flow_from_depth_ls, duty_ls_ha, required_capacity_ls};
 use offtake_core::scheme::{
-    Block, Canal, DesignBasis, DesignOptions, Network, NirSeries, Node, SchemeDemand,
-    SchemeError, capacity_shortfall, capacity_shortfall_on_basis, design_values, storage_losses_m3_day,
+    Block, Canal, DesignBasis, DesignOptions, Network, NirSeries, Node, SchemeDemand, SchemeError,
+    capacity_shortfall, capacity_shortfall_on_basis, design_values, storage_losses_m3_day,
 };
 
 fn assert_close(found: f64, expected: f64, tol: f64, what: &str) {
@@ -175,8 +175,8 @@ fn capacity_shortfall_follows_the_design_basis() {
     demand.extend(second);
     demand.extend([200.0; 11]);
     demand.extend([300.0; 3]);
-    let ten = capacity_shortfall_on_basis(start, &demand, 0.002, 24.0, DesignBasis::TenDay)
-        .unwrap();
+    let ten =
+        capacity_shortfall_on_basis(start, &demand, 0.002, 24.0, DesignBasis::TenDay).unwrap();
     assert_eq!(ten.basis, DesignBasis::TenDay);
     let starts: Vec<String> = ten
         .basis_periods
@@ -195,24 +195,37 @@ fn capacity_shortfall_follows_the_design_basis() {
         1e-12,
         "mean l/s",
     );
-    assert_close(ten.basis_volume_not_delivered_m3, 852.8, 1e-9, "10-day total");
+    assert_close(
+        ten.basis_volume_not_delivered_m3,
+        852.8,
+        1e-9,
+        "10-day total",
+    );
     // Daily peaks beside it.
     assert_eq!(ten.days.len(), 16);
     assert_close(ten.volume_not_delivered_m3, 2335.2, 1e-9, "daily peaks");
 
-    let month = capacity_shortfall_on_basis(start, &demand, 0.002, 24.0, DesignBasis::Monthly)
-        .unwrap();
+    let month =
+        capacity_shortfall_on_basis(start, &demand, 0.002, 24.0, DesignBasis::Monthly).unwrap();
     assert_eq!(month.basis_periods.len(), 2);
     assert_close(month.basis_periods[0].deficit_m3, 193.2, 1e-9, "January");
-    assert_close(month.basis_volume_not_delivered_m3, 574.8, 1e-9, "monthly total");
+    assert_close(
+        month.basis_volume_not_delivered_m3,
+        574.8,
+        1e-9,
+        "monthly total",
+    );
 
     let daily =
         capacity_shortfall_on_basis(start, &demand, 0.002, 24.0, DesignBasis::Daily).unwrap();
     assert_eq!(daily.basis_periods.len(), 16);
-    assert_close(daily.basis_volume_not_delivered_m3, 2335.2, 1e-9, "daily total");
-    assert!(
-        capacity_shortfall_on_basis(start, &demand, -1.0, 24.0, DesignBasis::TenDay).is_err()
+    assert_close(
+        daily.basis_volume_not_delivered_m3,
+        2335.2,
+        1e-9,
+        "daily total",
     );
+    assert!(capacity_shortfall_on_basis(start, &demand, -1.0, 24.0, DesignBasis::TenDay).is_err());
 }
 
 /// Reservoir losses: 5 mm/day over 200 ha = 5 × 200 × 10 = 10 000 m³/day

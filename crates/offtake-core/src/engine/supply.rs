@@ -200,7 +200,10 @@ pub fn fill_raw_and_etc(
             } else {
                 format!("RAW {raw:.0} mm used at a peak 10-day ETc of {etc:.1} mm/day")
             };
-            out.push((u.name.clone(), format!("{} on block {}, {what}", p.crop, p.block)));
+            out.push((
+                u.name.clone(),
+                format!("{} on block {}, {what}", p.crop, p.block),
+            ));
         }
     }
     out

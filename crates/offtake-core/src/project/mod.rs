@@ -381,8 +381,7 @@ impl Default for PaddyInputs {
             land_preparation_days: u32::try_from(prep.duration_days).unwrap_or(30),
             nursery_share: 0.0,
             nursery_days: 25,
-            drain_days_before_harvest: u32::try_from(field.drain_days_before_harvest)
-                .unwrap_or(10),
+            drain_days_before_harvest: u32::try_from(field.drain_days_before_harvest).unwrap_or(10),
             field_efficiency: DEFAULT_PADDY_FIELD_EFFICIENCY,
         }
     }
@@ -408,7 +407,7 @@ impl PaddyInputs {
                 ponding_mm: self.target_ponding_mm,
                 prep_kc,
             },
-            nursery: (self.nursery_share > 0.0).then(|| crate::paddy::Nursery {
+            nursery: (self.nursery_share > 0.0).then_some(crate::paddy::Nursery {
                 area_share: self.nursery_share,
                 duration_days: self.nursery_days as usize,
                 kc: prep_kc,

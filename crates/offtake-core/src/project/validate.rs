@@ -783,12 +783,7 @@ fn check_id_list<'a>(
 
 /// Ranges of the paddy inputs (the paddy balance refuses the same values;
 /// listing them here names every one at once).
-fn check_paddy(
-    subject: &str,
-    id: &str,
-    p: &super::PaddyInputs,
-    out: &mut Vec<ValidationProblem>,
-) {
+fn check_paddy(subject: &str, id: &str, p: &super::PaddyInputs, out: &mut Vec<ValidationProblem>) {
     check_efficiency(
         ItemKind::Planting,
         id,

@@ -585,8 +585,8 @@ pub fn design_values(
             existing_capacity_ls: capacity_m3s.map(|c| c * 1000.0),
             shortfall: capacity_m3s
                 .map(|c| {
-                    capacity_shortfall_on_basis(first, series, c, hours_per_day, options.basis)
-                        .map(|mut s| {
+                    capacity_shortfall_on_basis(first, series, c, hours_per_day, options.basis).map(
+                        |mut s| {
                             // A complete year is short when its peak on the
                             // basis exceeds the continuous-flow capacity.
                             let capacity_ls = c * 1000.0 * hours_per_day / 24.0;
@@ -596,7 +596,8 @@ pub fn design_values(
                                 .map(|y| y.year)
                                 .collect();
                             s
-                        })
+                        },
+                    )
                 })
                 .transpose()?,
             years,
