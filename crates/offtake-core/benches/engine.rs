@@ -121,6 +121,7 @@ fn project(blocks: usize) -> Project {
                 trigger_pct_of_raw: 100.0,
             },
             season_length_days: None,
+            paddy: None,
         };
         p.plantings
             .push(plant("wet", wet[b % 4], (6, 15), 60.0, "wet"));

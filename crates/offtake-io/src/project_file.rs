@@ -24,7 +24,8 @@
 //! # Saving
 //! [`save_project`] writes a temporary file in the same folder, flushes and
 //! syncs it, copies the previous file to `NAME.ron.bak`, then renames the
-//! temporary file over the target. A failure at any step before the rename
+//! temporary file over the target. The saved file keeps the permissions of
+//! the file it replaces (`rw-r--r--` for a new file on Unix). A failure at any step before the rename
 //! leaves the existing file untouched.
 
 use std::fs::File;
@@ -475,11 +476,14 @@ where
         Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
         _ => PathBuf::from("."),
     };
-    let mut tmp = tempfile::Builder::new()
-        .prefix(".offtake-save-")
-        .suffix(".tmp")
-        .tempfile_in(&dir)
-        .map_err(io_err(&dir))?;
+    // The saved file keeps the permissions of the file it replaces (0o644
+    // for a new file on Unix), not the owner-only mode of a temporary file.
+    let mut builder = tempfile::Builder::new();
+    builder.prefix(".offtake-save-").suffix(".tmp");
+    if let Some(p) = crate::export::permissions_for(path) {
+        builder.permissions(p);
+    }
+    let mut tmp = builder.tempfile_in(&dir).map_err(io_err(&dir))?;
     {
         let mut writer = wrap(tmp.as_file_mut());
         writer.write_all(text.as_bytes()).map_err(io_err(path))?;
@@ -695,6 +699,7 @@ pub mod v0 {
                     season: p.season,
                     strategy: p.strategy,
                     season_length_days: None,
+                    paddy: None,
                 })
                 .collect(),
             weather: old.weather,

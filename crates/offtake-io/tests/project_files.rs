@@ -551,3 +551,71 @@ fn schema1_unknown_target_is_a_migration_error() {
         "{err}"
     );
 }
+
+/// Paddy inputs are optional and backward compatible: files without them
+/// load with `paddy: None`; a file may give only the inputs it changes (the
+/// rest take the documented defaults); a misspelt input is an error at its
+/// position; a project with paddy inputs round-trips.
+#[test]
+fn paddy_inputs_are_optional_partial_and_strict() {
+    use offtake_core::project::{DEFAULT_PADDY_FIELD_EFFICIENCY, PaddyInputs};
+    let minimal = load_project(&corpus("minimal.ron")).unwrap();
+    assert!(minimal.plantings[0].paddy.is_none());
+    let text = std::fs::read_to_string(corpus("minimal.ron")).unwrap();
+    let with = text.replace(
+        "strategy: Refill(trigger_pct_of_raw: 100.0),",
+        "strategy: Refill(trigger_pct_of_raw: 100.0),\n            paddy: (percolation_seepage_mm_day: 2.0, field_efficiency: 0.85),",
+    );
+    let p = parse_project(&with, Path::new("paddy.ron")).unwrap();
+    let paddy = p.plantings[0].paddy.unwrap();
+    assert_eq!(paddy.percolation_seepage_mm_day, 2.0);
+    assert_eq!(paddy.field_efficiency, 0.85);
+    let d = PaddyInputs::default();
+    assert_eq!(paddy.target_ponding_mm, d.target_ponding_mm);
+    assert_eq!(paddy.land_preparation_days, d.land_preparation_days);
+    assert_eq!(d.field_efficiency, DEFAULT_PADDY_FIELD_EFFICIENCY);
+    // Round trip keeps the inputs.
+    let again = parse_project(&project_to_string(&p).unwrap(), Path::new("again.ron")).unwrap();
+    assert_eq!(again, p);
+    // Unknown field inside the paddy inputs.
+    let bad = with.replace("field_efficiency: 0.85", "field_eficiency: 0.85");
+    match parse_project(&bad, Path::new("bad.ron")) {
+        Err(ProjectFileError::Parse { message, line, .. }) => {
+            assert!(message.contains("field_eficiency"), "{message}");
+            assert!(line > 1);
+        }
+        other => panic!("expected a parse error, got {other:?}"),
+    }
+    // The demo's rice plantings carry their paddy inputs.
+    let demo = load_project(&demo()).unwrap();
+    let rice: Vec<_> = demo
+        .plantings
+        .iter()
+        .filter(|p| p.crop == "rice-paddy")
+        .collect();
+    assert_eq!(rice.len(), 4);
+    for p in rice {
+        let paddy = p.paddy.expect("demo rice has paddy inputs");
+        assert_eq!(paddy.field_efficiency, 0.9);
+        assert_eq!(paddy.percolation_seepage_mm_day, 2.0);
+    }
+}
+
+/// A saved project gets normal permissions (not the temporary file's
+/// owner-only mode) and keeps those of the file it replaces.
+#[cfg(unix)]
+#[test]
+fn saved_project_has_normal_permissions() {
+    use std::os::unix::fs::PermissionsExt;
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("p.ron");
+    let p = load_project(&corpus("minimal.ron")).unwrap();
+    save_project(&path, &p).unwrap();
+    let mode = std::fs::metadata(&path).unwrap().permissions().mode() & 0o777;
+    assert_ne!(mode & 0o044, 0, "mode {mode:o}");
+    std::fs::set_permissions(&path, std::fs::Permissions::from_mode(0o664)).unwrap();
+    save_project(&path, &p).unwrap();
+    let mode = std::fs::metadata(&path).unwrap().permissions().mode() & 0o777;
+    // 0o664 less the umask's bits at most.
+    assert_eq!(mode & 0o644, 0o644, "mode {mode:o}");
+}

@@ -13,7 +13,11 @@
 //!    and memory stays bounded by one series per block and crop.
 //! 3. **Scheme** ([`crate::scheme`]): the project's canals and blocks become a
 //!    [`Network`] (Ea = the block method's application efficiency, Eb = the
-//!    block's field-canal efficiency, Ec, hours, capacities); demand up the
+//!    block's field-canal efficiency, Ec, hours, capacities). A paddy rice
+//!    planting's series carries its own Ea, the paddy field efficiency
+//!    (operational losses only, [`crate::project::PaddyInputs`]), because
+//!    its NIR already holds seepage, percolation and land preparation: the
+//!    block's GIR is Σ_series NIR ÷ (Ea_series × Eb). Demand up the
 //!    tree; design values over the complete irrigation years (start month,
 //!    probability and basis from the options); shortfall where an existing
 //!    capacity is given.
@@ -482,13 +486,17 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     }
     for d in &design {
         if let Some(sf) = &d.shortfall
-            && !sf.days.is_empty()
+            && !sf.basis_periods.is_empty()
         {
             warnings.push(format!(
-                "canal {}: demand exceeds the existing capacity on {} days ({:.0} m³ not delivered over the record)",
+                "canal {}: the {} mean demand exceeds the existing capacity in {} {} of the record, in {} of {} complete irrigation years ({:.0} m³ not delivered over the record)",
                 d.name,
-                sf.days.len(),
-                sf.volume_not_delivered_m3
+                sf.basis.label(),
+                sf.basis_periods.len(),
+                sf.basis.periods_noun(),
+                sf.years_short.len(),
+                d.years.len(),
+                sf.basis_volume_not_delivered_m3
             ));
         }
     }

@@ -333,36 +333,34 @@ impl std::fmt::Display for PlantingWarning {
         match self {
             Self::SeasonCut { year, start, end } => write!(
                 f,
-                "season {year} ({start} to {end}) runs past the start or end of the weather record: simulated over the days inside, left out of statistics"
+                "the {year} season ({start} to {end}) runs past the ends of the weather record; it was simulated over the days inside and left out of statistics"
             ),
             Self::PaddySeasonNotComputed { year } => write!(
                 f,
-                "paddy season {year}: land preparation to harvest is not wholly inside the weather record; not computed"
+                "the {year} paddy season (land preparation to harvest) is not wholly inside the weather record and was not computed"
             ),
-            Self::LeapDayPlantingMoved { year } => {
-                write!(
-                    f,
-                    "{year} is not a leap year: planting on 28 February instead of 29"
-                )
-            }
+            Self::LeapDayPlantingMoved { year } => write!(
+                f,
+                "planting day 29 February moved to 28 February in {year} (not a leap year)"
+            ),
             Self::SeasonsOverlap { season_days } => write!(
                 f,
-                "first planting to last harvest takes {season_days} days, more than a year: seasons of successive years overlap and their requirements add up"
+                "the season and planting window last {season_days} days, longer than a year: seasons of successive years overlap and their requirements add up"
             ),
             Self::KyUnknown { crop } => write!(
                 f,
-                "crop `{crop}` has no seasonal yield response factor: Ky = 1 used (FAO-56 p. 176)"
+                "crop {crop} has no seasonal yield response factor Ky; Ky = 1 was used, as FAO-56 (p. 176) suggests where Ky is unknown"
             ),
             Self::LeachingNotForPaddy => f.write_str(
-                "leaching not applied to paddy rice: its seepage and percolation already leach the root zone"
+                "leaching was not applied to paddy rice: its seepage and percolation already leach the root zone"
             ),
             Self::DualCoefficientNotUsed { crop, reason } => write!(
                 f,
-                "crop `{crop}`: dual crop coefficient not used ({reason}); single Kc used"
+                "crop {crop}: the dual crop coefficient was not used ({reason}); single Kc was used"
             ),
             Self::DeliveryShortfall { days, shortfall_mm } => write!(
                 f,
-                "delivery below the requirement on {days} day(s), {shortfall_mm:.1} mm in all; the shortfall is not carried forward"
+                "the water delivered was less than the requirement on {days} days ({shortfall_mm:.1} mm short in all; the shortfall is not carried over)"
             ),
         }
     }

@@ -58,6 +58,7 @@ fn planting(
             trigger_pct_of_raw: 100.0,
         },
         season_length_days: None,
+        paddy: None,
     }
 }
 
@@ -638,4 +639,28 @@ fn contradictory_import_settings_are_reported_by_validation() {
         )),
         "{problems:?}"
     );
+}
+#[test]
+fn paddy_inputs_out_of_range_are_listed() {
+    let mut p = fixture();
+    p.plantings[0].paddy = Some(super::PaddyInputs::default());
+    assert!(p.validate(&ctx()).is_empty());
+    p.plantings[0].paddy = Some(super::PaddyInputs {
+        field_efficiency: 1.2,
+        target_ponding_mm: 300.0,
+        percolation_seepage_mm_day: -1.0,
+        land_preparation_days: 0,
+        ..super::PaddyInputs::default()
+    });
+    let problems = p.validate(&ctx());
+    let text: Vec<String> = problems.iter().map(ToString::to_string).collect();
+    assert_eq!(problems.len(), 4, "{text:#?}");
+    for field in [
+        "field_efficiency",
+        "target_ponding_mm",
+        "percolation_seepage_mm_day",
+        "land_preparation_days",
+    ] {
+        assert!(text.iter().any(|t| t.contains(field)), "{field}: {text:#?}");
+    }
 }

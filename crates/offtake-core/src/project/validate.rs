@@ -501,6 +501,9 @@ impl Project {
                 }
             }
             check_strategy(&subject, &p.strategy, out);
+            if let Some(paddy) = &p.paddy {
+                check_paddy(&subject, &p.id, paddy, out);
+            }
             let day_ok = p.first_planting.is_valid();
             if !day_ok {
                 out.push(ValidationProblem::InvalidPlantingDay {
@@ -808,6 +811,70 @@ fn check_id_list<'a>(
             });
         }
     }
+}
+
+/// Ranges of the paddy inputs (the paddy balance refuses the same values;
+/// listing them here names every one at once).
+fn check_paddy(subject: &str, id: &str, p: &super::PaddyInputs, out: &mut Vec<ValidationProblem>) {
+    check_efficiency(
+        ItemKind::Planting,
+        id,
+        "paddy field_efficiency",
+        p.field_efficiency,
+        out,
+    );
+    let mut bad = |field: &'static str, value: f64, ok: bool, expected: &'static str| {
+        if !(value.is_finite() && ok) {
+            out.push(ValidationProblem::BadValue {
+                subject: subject.to_owned(),
+                field,
+                value,
+                expected,
+            });
+        }
+    };
+    bad(
+        "paddy bund_height_mm",
+        p.bund_height_mm,
+        p.bund_height_mm > 0.0,
+        "a height > 0 mm",
+    );
+    bad(
+        "paddy target_ponding_mm",
+        p.target_ponding_mm,
+        p.target_ponding_mm >= 0.0 && p.target_ponding_mm <= p.bund_height_mm,
+        "0 ≤ pond depth ≤ bund height (mm)",
+    );
+    bad(
+        "paddy percolation_seepage_mm_day",
+        p.percolation_seepage_mm_day,
+        p.percolation_seepage_mm_day >= 0.0,
+        "a rate ≥ 0 mm/day",
+    );
+    bad(
+        "paddy land_preparation_mm",
+        p.land_preparation_mm,
+        p.land_preparation_mm >= 0.0,
+        "a depth ≥ 0 mm",
+    );
+    bad(
+        "paddy land_preparation_days",
+        f64::from(p.land_preparation_days),
+        p.land_preparation_days >= 1,
+        "at least 1 day",
+    );
+    bad(
+        "paddy nursery_share",
+        p.nursery_share,
+        (0.0..=1.0).contains(&p.nursery_share),
+        "a share 0 to 1",
+    );
+    bad(
+        "paddy nursery_days",
+        f64::from(p.nursery_days),
+        p.nursery_share == 0.0 || p.nursery_days >= 1,
+        "at least 1 day when a nursery is given",
+    );
 }
 
 fn check_efficiency(
