@@ -368,6 +368,7 @@ pub fn new_planting(doc: &Project, block: &str) -> Planting {
         },
         season_length_days: None,
         paddy: None,
+        coefficients: offtake_core::project::CoefficientChoice::Single,
     }
 }
 

@@ -122,6 +122,7 @@ fn project(blocks: usize) -> Project {
             },
             season_length_days: None,
             paddy: None,
+            coefficients: offtake_core::project::CoefficientChoice::Single,
         };
         p.plantings
             .push(plant("wet", wet[b % 4], (6, 15), 60.0, "wet"));

@@ -700,6 +700,7 @@ pub mod v0 {
                     strategy: p.strategy,
                     season_length_days: None,
                     paddy: None,
+                    coefficients: offtake_core::project::CoefficientChoice::Single,
                 })
                 .collect(),
             weather: old.weather,

@@ -18,9 +18,12 @@ use super::weather_prep::PreparedWeather;
 use crate::balance::{self, RefillTarget, strategy::IntervalDepth};
 use crate::crop::{Crop, CropGroup};
 use crate::planting::{
-    PlantingSpec, PlantingWarning, PlantingWeather, run_planting, run_planting_with_delivery,
+    CoefficientMode, PlantingSpec, PlantingWarning, PlantingWeather, Wetting, run_planting,
+    run_planting_with_delivery,
 };
-use crate::project::{EffectiveRain, PaddyInputs, Planting, Strategy as PlanStrategy};
+use crate::project::{
+    Block, CoefficientChoice, EffectiveRain, PaddyInputs, Planting, Strategy as PlanStrategy,
+};
 use crate::rain::EffectiveRainMethod;
 use crate::soil::Soil;
 
@@ -180,6 +183,39 @@ pub fn raw_and_peak_etc(
     (raw.is_finite() && raw > 0.0).then_some((raw, peak_etc_mm_day))
 }
 
+/// The crop coefficient mode of a planting on its block: single Kc, or dual
+/// Kcb + Ke with the wetted fraction fw given in the planting or read from
+/// the block's irrigation method name (FAO-56 Table 20). An unrecognised
+/// method name falls back to full wetting (fw = 1, as sprinkler and basin)
+/// and returns a warning.
+pub fn coefficient_mode(planting: &Planting, block: &Block) -> (CoefficientMode, Option<String>) {
+    match planting.coefficients {
+        CoefficientChoice::Single => (CoefficientMode::Single, None),
+        CoefficientChoice::Dual {
+            wetted_fraction: Some(fw),
+        } => (
+            CoefficientMode::Dual {
+                wetting: Wetting::Fraction(fw),
+            },
+            None,
+        ),
+        CoefficientChoice::Dual {
+            wetted_fraction: None,
+        } => match Wetting::from_method_name(&block.method.name) {
+            Some(wetting) => (CoefficientMode::Dual { wetting }, None),
+            None => (
+                CoefficientMode::Dual {
+                    wetting: Wetting::Sprinkler,
+                },
+                Some(format!(
+                    "planting {}: irrigation method \"{}\" of block {} does not say how much of the surface it wets; fw = 1 (full wetting, FAO-56 Table 20) was used for the dual crop coefficient",
+                    planting.id, block.method.name, block.id
+                )),
+            ),
+        },
+    }
+}
+
 /// Simulates one planting over the whole weather record, per hectare.
 ///
 /// `delivered_net_mm`, when given, is the net depth (mm/day per hectare of
@@ -194,6 +230,7 @@ pub fn simulate_planting(
     soil: &Soil,
     planting: &Planting,
     effective_rain: EffectiveRain,
+    coefficients: CoefficientMode,
     w: &PreparedWeather,
     delivered_net_mm: Option<&[f64]>,
 ) -> Result<PlantingOutcome, String> {
@@ -207,6 +244,7 @@ pub fn simulate_planting(
     spec.season_length_days = planting.season_length_days;
     spec.strategy = balance_strategy(planting.strategy, crop);
     spec.effective_rain = effective_rain_method(effective_rain, crop, soil);
+    spec.coefficients = coefficients;
     if is_paddy(crop) {
         spec.paddy = Some(paddy_inputs(planting).paddy_options());
     }

@@ -9,12 +9,13 @@ use rayon::prelude::*;
 
 use super::EngineError;
 use super::planting_step::{
-    PlantingOutcome, SeasonOutcome, application_efficiency_override, raw_and_peak_etc,
-    simulate_planting,
+    PlantingOutcome, SeasonOutcome, application_efficiency_override, coefficient_mode,
+    raw_and_peak_etc, simulate_planting,
 };
 use super::weather_prep::PreparedWeather;
 use crate::calendar::IrrigationYear;
 use crate::crop::Crop;
+use crate::planting::CoefficientMode;
 use crate::project::Project;
 use crate::scheme::{Network, NirSeries, Node};
 use crate::soil::Soil;
@@ -103,6 +104,7 @@ struct Distinct<'a> {
     planting: usize,
     crop: &'a Crop,
     soil: &'a Soil,
+    mode: CoefficientMode,
 }
 
 /// Runs every planting and sums their NIR by block and crop.
@@ -123,6 +125,7 @@ pub fn compute_plantings(
     let mut by_block: Vec<Vec<Job<'_>>> = (0..project.blocks.len()).map(|_| Vec::new()).collect();
     let mut keys: std::collections::HashMap<String, usize> = std::collections::HashMap::new();
     let mut distinct: Vec<Distinct<'_>> = Vec::new();
+    let mut mode_warnings: Vec<String> = Vec::new();
     for (index, p) in project.plantings.iter().enumerate() {
         let block = project
             .blocks
@@ -149,15 +152,20 @@ pub fn compute_plantings(
                     block: b.id.clone(),
                     soil: b.soil.clone(),
                 })?;
+        let (mode, mode_warning) = coefficient_mode(p, b);
+        if let Some(w) = mode_warning {
+            mode_warnings.push(w);
+        }
         let key = format!(
-            "{}|{}|{:?}|{}|{:?}|{:?}|{:?}",
+            "{}|{}|{:?}|{}|{:?}|{:?}|{:?}|{:?}",
             p.crop,
             b.soil,
             p.first_planting,
             p.spread_days,
             p.season_length_days,
             p.strategy,
-            p.paddy
+            p.paddy,
+            mode
         );
         let next = distinct.len();
         let d = *keys.entry(key).or_insert(next);
@@ -166,6 +174,7 @@ pub fn compute_plantings(
                 planting: index,
                 crop,
                 soil,
+                mode,
             });
         }
         by_block[block].push(Job {
@@ -184,17 +193,24 @@ pub fn compute_plantings(
         .par_iter()
         .map(|d| {
             let p = &project.plantings[d.planting];
-            simulate_planting(d.crop, d.soil, p, project.options.effective_rain, w, None).map_err(
-                |cause| EngineError::Planting {
-                    planting: p.id.clone(),
-                    cause,
-                },
+            simulate_planting(
+                d.crop,
+                d.soil,
+                p,
+                project.options.effective_rain,
+                d.mode,
+                w,
+                None,
             )
+            .map_err(|cause| EngineError::Planting {
+                planting: p.id.clone(),
+                cause,
+            })
         })
         .collect();
     let outcomes: Vec<PlantingOutcome> = outcomes.into_iter().collect::<Result<_, _>>()?;
     // Each message once (e.g. an unknown Ky is said once per crop).
-    let mut warnings: Vec<String> = Vec::new();
+    let mut warnings: Vec<String> = mode_warnings;
     for w in outcomes.iter().flat_map(|o| o.warnings.iter()) {
         if !warnings.contains(w) {
             warnings.push(w.clone());

@@ -31,7 +31,7 @@ use rayon::prelude::*;
 use chrono::Datelike;
 
 use super::EngineError;
-use super::planting_step::simulate_planting;
+use super::planting_step::{coefficient_mode, simulate_planting};
 use super::plantings::{PlantingSummary, complete_range};
 use super::weather_prep::PreparedWeather;
 use crate::calendar::IrrigationYear;
@@ -389,17 +389,26 @@ pub fn supply_and_rerun(
             let block = project.block(&p.block);
             let crop = crops.iter().find(|c| c.id == p.crop);
             let soil = block.and_then(|b| soils.iter().find(|s| s.id == b.soil));
-            let (Some(_), Some(crop), Some(soil)) = (block, crop, soil) else {
+            let (Some(block), Some(crop), Some(soil)) = (block, crop, soil) else {
                 return Err(EngineError::MissingCrop {
                     planting: p.id.clone(),
                     crop: p.crop.clone(),
                 });
             };
-            let out = simulate_planting(crop, soil, p, project.options.effective_rain, w, Some(mm))
-                .map_err(|cause| EngineError::Planting {
-                    planting: p.id.clone(),
-                    cause,
-                })?;
+            let (mode, _) = coefficient_mode(p, block);
+            let out = simulate_planting(
+                crop,
+                soil,
+                p,
+                project.options.effective_rain,
+                mode,
+                w,
+                Some(mm),
+            )
+            .map_err(|cause| EngineError::Planting {
+                planting: p.id.clone(),
+                cause,
+            })?;
             let ea = summary.application_efficiency;
             let n = out.seasons.len();
             let losses: Vec<f64> = out

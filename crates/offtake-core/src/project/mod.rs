@@ -305,6 +305,34 @@ pub struct Planting {
     /// `None`.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub paddy: Option<PaddyInputs>,
+    /// Crop coefficient approach: single Kc (default) or dual Kcb + Ke.
+    /// Older files without the field load as single Kc.
+    #[serde(default, skip_serializing_if = "CoefficientChoice::is_single")]
+    pub coefficients: CoefficientChoice,
+}
+
+/// The crop coefficient approach of a planting.
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize, Deserialize)]
+pub enum CoefficientChoice {
+    /// Single time-averaged Kc (FAO-56 Chapter 6), the default.
+    #[default]
+    Single,
+    /// Dual coefficient Kcb + Ke with the soil evaporation layer (FAO-56
+    /// Chapter 7), for row crops, drip and frequent wetting.
+    Dual {
+        /// Fraction of the surface wetted by irrigation, fw (FAO-56
+        /// Table 20), in (0, 1]; `None` takes it from the block's
+        /// irrigation method name (basin, furrow, sprinkler, drip…).
+        #[serde(default)]
+        wetted_fraction: Option<f64>,
+    },
+}
+
+impl CoefficientChoice {
+    /// True for the default single-Kc approach.
+    pub fn is_single(&self) -> bool {
+        matches!(self, Self::Single)
+    }
 }
 
 /// Inputs of a paddy rice planting (see [`crate::paddy`] for the balance).

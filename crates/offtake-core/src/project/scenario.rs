@@ -396,6 +396,8 @@ fn shift_crop_share(
             // The share moves to another crop: the paddy inputs stay with
             // the rice (a paddy crop shifted to takes the paddy defaults).
             paddy: None,
+            // The coefficient approach belongs to how the block is farmed.
+            coefficients: pl.coefficients,
         });
     }
     if added.is_empty() {

@@ -59,6 +59,7 @@ fn planting(
         },
         season_length_days: None,
         paddy: None,
+        coefficients: crate::project::CoefficientChoice::Single,
     }
 }
 

@@ -504,6 +504,18 @@ impl Project {
             if let Some(paddy) = &p.paddy {
                 check_paddy(&subject, &p.id, paddy, out);
             }
+            if let super::CoefficientChoice::Dual {
+                wetted_fraction: Some(fw),
+            } = p.coefficients
+                && !(fw > 0.0 && fw <= 1.0)
+            {
+                out.push(ValidationProblem::BadValue {
+                    subject: subject.clone(),
+                    field: "coefficients wetted_fraction",
+                    value: fw,
+                    expected: "a fraction of the surface wetted in (0, 1] (FAO-56 Table 20)",
+                });
+            }
             let day_ok = p.first_planting.is_valid();
             if !day_ok {
                 out.push(ValidationProblem::InvalidPlantingDay {
