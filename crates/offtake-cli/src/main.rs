@@ -9,7 +9,9 @@ use std::process::ExitCode;
 
 use clap::{Parser, Subcommand};
 
+mod cmd_compare;
 mod cmd_et0;
+mod cmd_run;
 mod cmd_weather_check;
 mod cmd_weather_stats;
 
@@ -25,6 +27,10 @@ struct Cli {
 enum Command {
     /// Reference evapotranspiration (ET0) of each day of a weather file.
     Et0(cmd_et0::Args),
+    /// Compute a project: demand, design values, roster; write the tables.
+    Run(cmd_run::Args),
+    /// Compare the scenarios of a project side by side.
+    Compare(cmd_compare::Args),
     /// Weather series: quality checks and multi-year statistics.
     Weather {
         #[command(subcommand)]
@@ -44,6 +50,8 @@ fn main() -> ExitCode {
     let cli = Cli::parse();
     let result = match &cli.command {
         Command::Et0(args) => cmd_et0::run(args),
+        Command::Run(args) => cmd_run::run(args),
+        Command::Compare(args) => cmd_compare::run(args),
         Command::Weather {
             command: WeatherCommand::Check(args),
         } => cmd_weather_check::run(args),

@@ -1,0 +1,116 @@
+//! `offtake run` and `offtake compare` on the invented demo scheme: the exact
+//! contract headers (DESIGN.md / issue 5), the files written, and errors.
+
+#![allow(clippy::unwrap_used, clippy::expect_used)]
+
+use std::process::Command;
+
+const DEMO: &str = concat!(
+    env!("CARGO_MANIFEST_DIR"),
+    "/../../demo-projects/demo-scheme/scheme.ron"
+);
+
+fn offtake() -> Command {
+    Command::new(env!("CARGO_BIN_EXE_offtake"))
+}
+
+fn first_line(path: &std::path::Path) -> String {
+    std::fs::read_to_string(path)
+        .unwrap()
+        .lines()
+        .next()
+        .unwrap()
+        .to_owned()
+}
+
+#[test]
+fn run_writes_the_contract_tables() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = offtake()
+        .args(["run", DEMO, "--out"])
+        .arg(dir.path())
+        .output()
+        .unwrap();
+    let stdout = String::from_utf8_lossy(&out.stdout);
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    assert!(stdout.contains("Headworks design flow:"));
+    assert!(stdout.contains("l/s/ha"));
+    assert!(
+        first_line(&dir.path().join("design_values.csv"))
+            == "node,area_ha,design_flow_ls,required_capacity_ls,existing_capacity_ls,peak_daily_ls,peak_10day_ls,duty_ls_ha,seasonal_volume_m3,design_year"
+    );
+    assert_eq!(
+        first_line(&dir.path().join("node_demand_daily.csv")),
+        "date,node,demand_ls"
+    );
+    assert_eq!(
+        first_line(&dir.path().join("block_requirements_daily.csv")),
+        "date,block,nir_mm,gir_mm,nir_m3,gir_m3"
+    );
+    assert_eq!(
+        first_line(&dir.path().join("roster.csv")),
+        "cycle,turn,unit,start,end,flow_ls,volume_m3"
+    );
+    assert!(dir.path().join("demand_10day.csv").exists());
+    assert!(dir.path().join("demand_monthly.csv").exists());
+    assert!(dir.path().join("results.xlsx").metadata().unwrap().len() > 0);
+    // One row per canal plus `headworks`; existing capacity blank where none.
+    let design = std::fs::read_to_string(dir.path().join("design_values.csv")).unwrap();
+    let rows: Vec<Vec<&str>> = design
+        .lines()
+        .skip(1)
+        .map(|l| l.split(',').collect())
+        .collect();
+    assert_eq!(rows.len(), 6);
+    let head = rows.iter().find(|r| r[0] == "headworks").unwrap();
+    assert_eq!(head[4], "");
+    let middle = rows.iter().find(|r| r[0] == "middle-dy").unwrap();
+    assert!((middle[4].parse::<f64>().unwrap() - 1200.0).abs() < 1e-6);
+}
+
+#[test]
+fn run_with_unknown_scenario_fails_with_the_names() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = offtake()
+        .args(["run", DEMO, "--scenario", "nope", "--out"])
+        .arg(dir.path())
+        .output()
+        .unwrap();
+    assert!(!out.status.success());
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(
+        err.contains("nope") && err.contains("shift-to-maize"),
+        "{err}"
+    );
+}
+
+#[test]
+fn run_on_a_malformed_project_names_the_position() {
+    let dir = tempfile::tempdir().unwrap();
+    let bad = dir.path().join("bad.ron");
+    std::fs::write(&bad, "(\n    schema: 1,\n    scheme: (name: 3),\n)\n").unwrap();
+    let out = offtake().arg("run").arg(&bad).output().unwrap();
+    assert!(!out.status.success());
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(err.contains("bad.ron:3:"), "{err}");
+}
+
+#[test]
+fn compare_prints_one_column_per_scenario() {
+    let out = offtake().args(["compare", DEMO]).output().unwrap();
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let text = String::from_utf8_lossy(&out.stdout);
+    let header = text.lines().next().unwrap();
+    for name in ["current", "shift-to-maize", "warmer-drier"] {
+        assert!(header.contains(name), "{header}");
+    }
+    assert!(text.contains("headworks design flow (l/s)"));
+}

@@ -1,0 +1,134 @@
+//! Scenario comparison: every scenario of a project run side by side.
+
+use super::{EngineError, Results, SeasonVolume, run_scenario};
+use crate::crop::Crop;
+use crate::project::Project;
+use crate::soil::Soil;
+use crate::weather::WeatherDay;
+
+/// One scenario's figures.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ScenarioColumn {
+    /// Scenario name (`base` when the project has none).
+    pub name: String,
+    /// Area planted per crop (ha), summed over plantings.
+    pub area_by_crop: Vec<(String, f64)>,
+    /// Mean yearly volumes per season label.
+    pub season_volumes: Vec<SeasonVolume>,
+    /// Mean yearly volume at the headworks, all seasons (m³).
+    pub headworks_volume_m3: f64,
+    /// Headworks design flow (l/s).
+    pub design_flow_ls: f64,
+    /// Design year of the headworks (label).
+    pub design_year: String,
+    /// Headworks duty (l/s/ha).
+    pub duty_ls_ha: Option<f64>,
+    /// Volume not delivered by canals with an existing capacity, mean per
+    /// year of record (m³).
+    pub shortfall_m3_per_year: f64,
+    /// Days of shortfall summed over those canals.
+    pub shortfall_days: usize,
+    /// Mean yearly reservoir evaporation (m³), if any.
+    pub storage_loss_m3: Option<f64>,
+    /// Relative irrigation supply under the given supply.
+    pub relative_irrigation_supply: Option<f64>,
+    /// Relative water supply (Levine 1982) under the given supply.
+    pub relative_water_supply: Option<f64>,
+    /// Area-weighted FAO-33 yield loss where water is short (%).
+    pub mean_yield_loss_pct: Option<f64>,
+}
+
+/// All scenarios side by side.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Comparison {
+    /// One column per scenario.
+    pub columns: Vec<ScenarioColumn>,
+    /// Every crop of any column, in first-seen order.
+    pub crops: Vec<String>,
+    /// Every season label of any column, in first-seen order.
+    pub seasons: Vec<String>,
+}
+
+impl ScenarioColumn {
+    /// The figures of one run.
+    pub fn from_results(name: &str, r: &Results) -> Self {
+        let head = r.headworks();
+        let record_years = r.days as f64 / 365.25;
+        let (mut sf_m3, mut sf_days) = (0.0, 0);
+        for d in &r.design {
+            if d.node != crate::scheme::Node::Headworks
+                && let Some(s) = &d.shortfall
+            {
+                sf_m3 += s.volume_not_delivered_m3;
+                sf_days += s.days.len();
+            }
+        }
+        Self {
+            name: name.to_owned(),
+            area_by_crop: r.area_by_crop(),
+            season_volumes: r.season_volumes.clone(),
+            headworks_volume_m3: r.season_volumes.iter().map(|s| s.headworks_m3).sum(),
+            design_flow_ls: head.map_or(0.0, |h| h.design_flow_ls),
+            design_year: head.map(|h| h.design_year.label()).unwrap_or_default(),
+            duty_ls_ha: head.and_then(|h| h.duty_ls_ha),
+            shortfall_m3_per_year: if record_years > 0.0 {
+                sf_m3 / record_years
+            } else {
+                0.0
+            },
+            shortfall_days: sf_days,
+            storage_loss_m3: r.storage.as_ref().map(|s| s.mean_yearly_m3),
+            relative_irrigation_supply: r
+                .supply
+                .as_ref()
+                .and_then(|s| s.relative_irrigation_supply),
+            relative_water_supply: r.supply.as_ref().and_then(|s| s.relative_water_supply),
+            mean_yield_loss_pct: r.supply.as_ref().and_then(|s| s.mean_yield_loss_pct),
+        }
+    }
+}
+
+/// Runs every scenario of the project (the base case when there is none).
+///
+/// # Errors
+/// The first scenario's [`EngineError`], which names the step.
+pub fn compare_scenarios(
+    project: &Project,
+    crops: &[Crop],
+    soils: &[Soil],
+    weather: &[WeatherDay],
+) -> Result<Comparison, EngineError> {
+    let names: Vec<Option<&str>> = if project.scenarios.is_empty() {
+        vec![None]
+    } else {
+        project
+            .scenarios
+            .iter()
+            .map(|s| Some(s.name.as_str()))
+            .collect()
+    };
+    let mut columns = Vec::with_capacity(names.len());
+    for name in names {
+        let r = run_scenario(project, name, crops, soils, weather)?;
+        columns.push(ScenarioColumn::from_results(name.unwrap_or("base"), &r));
+    }
+    let mut crops_seen: Vec<String> = Vec::new();
+    let mut seasons: Vec<String> = Vec::new();
+    for c in &columns {
+        for (crop, _) in &c.area_by_crop {
+            if !crops_seen.contains(crop) {
+                crops_seen.push(crop.clone());
+            }
+        }
+        for s in &c.season_volumes {
+            if !seasons.contains(&s.season) {
+                seasons.push(s.season.clone());
+            }
+        }
+    }
+    Ok(Comparison {
+        columns,
+        crops: crops_seen,
+        seasons,
+    })
+}

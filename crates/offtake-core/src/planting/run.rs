@@ -1,0 +1,778 @@
+//! The computation behind [`run_planting`] (see the module documentation of
+//! [`super`] for the rules).
+
+use chrono::{Datelike, Days, NaiveDate};
+
+use super::layout::{SeasonPlan, anniversary, cohort_offsets, is_chain, seasons};
+use super::{
+    PaddyOptions, PlantingError, PlantingIrrigation, PlantingResult, PlantingSpec, PlantingWarning,
+    PlantingWeather, SeasonDetail, SeasonSummary,
+};
+use crate::balance::{
+    BalanceDay, BalanceParams, CropCoefficients, DailySeries, IrrigationEvent, RunoffRule,
+    Strategy, simulate,
+};
+use crate::crop::climate::DayClimate;
+use crate::crop::{ClimateInput, CropGroup, CropSeries, SeasonSpec, crop_season_series};
+use crate::paddy::{PaddyDay, PaddyPlanting, paddy_planting_requirement};
+use crate::rain::{EffectiveRainMethod, effective_rain_period_mm, period_totals};
+use crate::salinity::leaching_requirement;
+use crate::yield_response::{KY_UNKNOWN, relative_yield_loss};
+
+/// Validated inputs shared by every season.
+struct Prepared<'s, 'w> {
+    spec: &'s PlantingSpec<'s>,
+    weather: &'w PlantingWeather<'w>,
+    n: usize,
+    climate: Vec<DayClimate>,
+    runoff: RunoffRule,
+    lr: f64,
+    ky: f64,
+    warnings: Vec<PlantingWarning>,
+}
+
+/// One cohort's days inside the record.
+struct CohortOut {
+    index: usize,
+    share: f64,
+    /// Weather index of `days[0]`.
+    first: usize,
+    days: Vec<BalanceDay>,
+    /// (weather index, net mm at the root zone).
+    events: Vec<(usize, f64)>,
+    complete: bool,
+}
+
+/// One season (or chain) and its cohorts.
+struct PlanOut {
+    plan: SeasonPlan,
+    span_start: NaiveDate,
+    /// Inclusive.
+    span_end: NaiveDate,
+    complete: bool,
+    cohorts: Vec<CohortOut>,
+}
+
+fn setting(
+    name: &'static str,
+    value: f64,
+    ok: bool,
+    expected: &'static str,
+) -> Result<(), PlantingError> {
+    if value.is_finite() && ok {
+        Ok(())
+    } else {
+        Err(PlantingError::BadSetting {
+            name,
+            value,
+            expected,
+        })
+    }
+}
+
+fn prepare<'s, 'w>(
+    spec: &'s PlantingSpec<'s>,
+    weather: &'w PlantingWeather<'w>,
+) -> Result<Prepared<'s, 'w>, PlantingError> {
+    let n = weather.et0_mm.len();
+    for (series, s) in [
+        ("rain_mm", weather.rain_mm),
+        ("wind_2m_ms", weather.wind_2m_ms),
+        ("rhmin_pct", weather.rhmin_pct),
+    ] {
+        if s.len() != n {
+            return Err(PlantingError::WeatherLength {
+                series,
+                expected: n,
+                found: s.len(),
+            });
+        }
+    }
+    for (series, s) in [("et0_mm", weather.et0_mm), ("rain_mm", weather.rain_mm)] {
+        if let Some(i) = s.iter().position(|v| !(v.is_finite() && *v >= 0.0)) {
+            return Err(PlantingError::BadWeather {
+                series,
+                date: weather.start + Days::new(i as u64),
+                value: s[i],
+            });
+        }
+    }
+    spec.crop.validate()?;
+    spec.soil.validate()?;
+    setting(
+        "initial_depletion_pct_of_taw",
+        spec.initial_depletion_pct_of_taw,
+        (0.0..=100.0).contains(&spec.initial_depletion_pct_of_taw),
+        "0 to 100 % of TAW",
+    )?;
+    setting(
+        "spread_days",
+        f64::from(spec.spread_days),
+        spec.spread_days <= 366,
+        "0 to 366 days",
+    )?;
+    if let Some(l) = spec.season_length_days {
+        setting(
+            "season_length_days",
+            f64::from(l),
+            (4..=36_600).contains(&l),
+            "4 to 36600 days",
+        )?;
+    }
+    let mut warnings = Vec::new();
+    let lr = match spec.leaching {
+        None => 0.0,
+        Some(l) => {
+            let ece = match (l.ece_ds_m, spec.crop.salinity) {
+                (Some(e), _) => e,
+                (None, Some(s)) => s.ece_threshold_ds_m,
+                (None, None) => {
+                    return Err(PlantingError::NoSalinityThreshold {
+                        crop: spec.crop.id.clone(),
+                    });
+                }
+            };
+            leaching_requirement(l.ecw_ds_m, ece)?
+        }
+    };
+    let ky = if let Some(k) = spec.crop.ky_seasonal {
+        k
+    } else {
+        warnings.push(PlantingWarning::KyUnknown {
+            crop: spec.crop.id.clone(),
+        });
+        KY_UNKNOWN
+    };
+    let runoff = spec.runoff.unwrap_or(RunoffRule {
+        curve_number: Some(spec.soil.curve_number),
+        max_infiltration_mm_day: Some(spec.soil.max_infiltration_mm_day),
+    });
+    let climate = weather
+        .wind_2m_ms
+        .iter()
+        .zip(weather.rhmin_pct)
+        .map(|(&u2_ms, &rhmin_pct)| DayClimate { u2_ms, rhmin_pct })
+        .collect();
+    Ok(Prepared {
+        spec,
+        weather,
+        n,
+        climate,
+        runoff,
+        lr,
+        ky,
+        warnings,
+    })
+}
+
+fn index_of(weather: &PlantingWeather<'_>, date: NaiveDate) -> i64 {
+    (date - weather.start).num_days()
+}
+
+fn date_of(weather: &PlantingWeather<'_>, index: usize) -> NaiveDate {
+    weather.start + Days::new(index as u64)
+}
+
+/// The crop series of a cohort planted on `start`, with the climate of its
+/// own days (days before the record are missing to the adjustment).
+fn crop_series(
+    p: &Prepared<'_, '_>,
+    start: NaiveDate,
+    length: Option<u32>,
+) -> Result<CropSeries, PlantingError> {
+    let s = index_of(p.weather, start);
+    let padded;
+    let climate = if s >= 0 {
+        &p.climate[(s as usize).min(p.n)..]
+    } else {
+        let missing = DayClimate {
+            u2_ms: f64::NAN,
+            rhmin_pct: f64::NAN,
+        };
+        padded = std::iter::repeat_n(missing, (-s) as usize)
+            .chain(p.climate.iter().copied())
+            .collect::<Vec<_>>();
+        &padded[..]
+    };
+    let season = SeasonSpec {
+        length_days: length,
+        climate: ClimateInput::Daily(climate),
+        ..SeasonSpec::new(start)
+    };
+    Ok(crop_season_series(p.spec.crop, &season)?)
+}
+
+/// Range of weather indices covered by crop days starting at index `s`.
+fn in_record(s: i64, len: usize, n: usize) -> (usize, usize) {
+    let a = s.max(0) as usize;
+    let b = (s + len as i64).clamp(0, n as i64) as usize;
+    (a.min(b), b)
+}
+
+/// Root-zone balance of one cohort over its days inside the record.
+fn balance_cohort(
+    p: &Prepared<'_, '_>,
+    index: usize,
+    start: NaiveDate,
+    share: f64,
+    length: Option<u32>,
+    delivery: Option<&[f64]>,
+) -> Result<CohortOut, PlantingError> {
+    let series = crop_series(p, start, length)?;
+    let s = index_of(p.weather, start);
+    let len = series.days.len();
+    let (a, b) = in_record(s, len, p.n);
+    let complete = s >= 0 && s + len as i64 <= p.n as i64;
+    let mut out = CohortOut {
+        index,
+        share,
+        first: a,
+        days: Vec::new(),
+        events: Vec::new(),
+        complete,
+    };
+    if a >= b {
+        return Ok(out);
+    }
+    let local = (a as i64 - s) as usize..(b as i64 - s) as usize;
+    let crop_days = &series.days[local];
+    let kc: Vec<f64> = crop_days.iter().map(|d| d.kc).collect();
+    let root: Vec<f64> = crop_days.iter().map(|d| d.root_depth_m).collect();
+    let et0 = &p.weather.et0_mm[a..b];
+    let rain = &p.weather.rain_mm[a..b];
+    let taw_per_m = p.spec.soil.taw_per_m_mm();
+
+    if let EffectiveRainMethod::WaterBalance = p.spec.effective_rain {
+        let strategy = match delivery {
+            None => p.spec.strategy.clone(),
+            Some(d) => Strategy::Scheduled(
+                d[a..b]
+                    .iter()
+                    .enumerate()
+                    .filter(|(_, v)| **v > 0.0)
+                    .map(|(day, v)| IrrigationEvent {
+                        day,
+                        net_mm: v * (1.0 - p.lr),
+                    })
+                    .collect(),
+            ),
+        };
+        let params = BalanceParams {
+            taw_mm_per_m: taw_per_m,
+            p_table: p.spec.crop.depletion_p,
+            adjust_p_for_etc: true,
+            initial_depletion_mm: p.spec.initial_depletion_pct_of_taw / 100.0 * taw_per_m * root[0],
+            runoff: p.runoff,
+            strategy,
+        };
+        let run = simulate(
+            &DailySeries {
+                et0_mm: et0,
+                rain_mm: rain,
+                crop: CropCoefficients::Single { kc: &kc },
+                root_depth_m: &root,
+                capillary_rise_mm: None,
+            },
+            &params,
+        )?;
+        out.events = run.events.iter().map(|e| (a + e.day, e.net_mm)).collect();
+        out.days = run.days;
+        return Ok(out);
+    }
+
+    // Period-total effective rain: NIR = max(0, ETc − Pe) per period, spread evenly.
+    let etc: Vec<f64> = kc.iter().zip(et0).map(|(k, e)| k * e).collect();
+    let periods = period_totals(date_of(p.weather, a), rain, &etc, p.spec.rain_period)?;
+    let nir = crate::rain::daily_nir_from_periods(p.spec.effective_rain, &periods)?;
+    let mut peff = Vec::with_capacity(etc.len());
+    for period in &periods {
+        let pe = effective_rain_period_mm(p.spec.effective_rain, period)?;
+        peff.extend(std::iter::repeat_n(
+            pe / f64::from(period.days),
+            period.days as usize,
+        ));
+    }
+    out.days = (0..etc.len())
+        .map(|i| {
+            let taw = taw_per_m * root[i];
+            let mut irrigation = nir[i];
+            let mut etc_adj = etc[i];
+            if let Some(d) = delivery {
+                let got = d[a + i] * (1.0 - p.lr);
+                if got < irrigation {
+                    etc_adj = (etc_adj - (irrigation - got)).max(0.0);
+                    irrigation = got;
+                }
+            }
+            BalanceDay {
+                et0_mm: et0[i],
+                kc: kc[i],
+                etc_mm: etc[i],
+                etc_adj_mm: etc_adj,
+                rain_mm: rain[i],
+                peff_mm: peff[i],
+                irrigation_mm: irrigation,
+                taw_mm: taw,
+                raw_mm: p.spec.crop.depletion_p * taw,
+                p: p.spec.crop.depletion_p,
+                ks: 1.0,
+                ..BalanceDay::default()
+            }
+        })
+        .collect();
+    Ok(out)
+}
+
+/// A paddy season: land preparation, nursery and main field of every
+/// group, as one area-weighted pseudo-cohort over the paddy calendar.
+fn paddy_season(
+    p: &mut Prepared<'_, '_>,
+    plan: &SeasonPlan,
+    first: NaiveDate,
+    delivery: Option<&[f64]>,
+) -> Result<PlanOut, PlantingError> {
+    let opts: PaddyOptions = p.spec.paddy.unwrap_or_default();
+    let groups = cohort_offsets(p.spec.spread_days).len();
+    let planting = PaddyPlanting {
+        field: opts.field,
+        land_prep: opts.land_prep,
+        nursery: opts.nursery,
+        window_days: p.spec.spread_days.saturating_sub(1) as usize,
+        groups,
+    };
+    let series = crop_series(p, first, p.spec.season_length_days)?;
+    let kc = series.kc();
+    let lead = planting.lead_days();
+    let total = planting.calendar_days(kc.len());
+    let cal_start = first - Days::new(lead as u64);
+    let span_end = cal_start + Days::new(total as u64 - 1);
+    let s = index_of(p.weather, cal_start);
+    let mut out = PlanOut {
+        plan: plan.clone(),
+        span_start: cal_start,
+        span_end,
+        complete: false,
+        cohorts: Vec::new(),
+    };
+    if s < 0 || s as usize + total > p.n {
+        p.warnings
+            .push(PlantingWarning::PaddySeasonNotComputed { year: plan.year });
+        return Ok(out);
+    }
+    let a = s as usize;
+    let days: Vec<PaddyDay> = paddy_planting_requirement(
+        &p.weather.et0_mm[a..a + total],
+        &p.weather.rain_mm[a..a + total],
+        &kc,
+        &planting,
+    )?;
+    let mut shortfall = (0usize, 0.0);
+    let mut events = Vec::new();
+    let balance_days = days
+        .iter()
+        .enumerate()
+        .map(|(i, d)| {
+            let mut irrigation = d.nir_mm;
+            if let Some(del) = delivery {
+                let got = del[a + i] * (1.0 - p.lr);
+                if got < irrigation {
+                    shortfall.0 += 1;
+                    shortfall.1 += irrigation - got;
+                    irrigation = got;
+                }
+            }
+            if irrigation > 0.0 {
+                events.push((a + i, irrigation));
+            }
+            let rain = p.weather.rain_mm[a + i];
+            BalanceDay {
+                et0_mm: p.weather.et0_mm[a + i],
+                kc: if p.weather.et0_mm[a + i] > 0.0 {
+                    d.etc_mm / p.weather.et0_mm[a + i]
+                } else {
+                    0.0
+                },
+                etc_mm: d.etc_mm,
+                etc_adj_mm: d.etc_mm,
+                rain_mm: rain,
+                runoff_mm: (d.field_share * rain - d.peff_mm).max(0.0),
+                peff_mm: d.peff_mm,
+                irrigation_mm: irrigation,
+                deep_perc_mm: d.percolation_mm,
+                ks: 1.0,
+                ..BalanceDay::default()
+            }
+        })
+        .collect();
+    if shortfall.0 > 0 {
+        p.warnings.push(PlantingWarning::DeliveryShortfall {
+            days: shortfall.0,
+            shortfall_mm: shortfall.1,
+        });
+    }
+    out.complete = true;
+    out.cohorts.push(CohortOut {
+        index: 0,
+        share: 1.0,
+        first: a,
+        days: balance_days,
+        events,
+        complete: true,
+    });
+    Ok(out)
+}
+
+/// Computes every season of the planting.
+fn compute_plans(
+    p: &mut Prepared<'_, '_>,
+    delivery: Option<&[f64]>,
+) -> Result<Vec<PlanOut>, PlantingError> {
+    let plans = seasons(p.spec, p.weather.start, p.n, &mut p.warnings)?;
+    let paddy = p.spec.crop.group == CropGroup::PaddyRice && !is_chain(p.spec);
+    let mut outs = Vec::with_capacity(plans.len());
+    for plan in plans {
+        if paddy {
+            outs.push(paddy_season(p, &plan, plan.first, delivery)?);
+            continue;
+        }
+        let length = if is_chain(p.spec) {
+            Some(plan.length_days)
+        } else {
+            p.spec.season_length_days
+        };
+        let mut cohorts = Vec::with_capacity(plan.cohorts.len());
+        for (k, c) in plan.cohorts.iter().enumerate() {
+            cohorts.push(balance_cohort(
+                p,
+                k,
+                c.start,
+                c.area_share,
+                length,
+                delivery,
+            )?);
+        }
+        let span_start = plan.cohorts[0].start;
+        let last = plan.cohorts[plan.cohorts.len() - 1].start;
+        let span_end = last + Days::new(u64::from(plan.length_days) - 1);
+        let complete = cohorts.iter().all(|c| c.complete);
+        if !complete && !is_chain(p.spec) {
+            p.warnings.push(PlantingWarning::SeasonCut {
+                year: plan.year,
+                start: span_start,
+                end: span_end,
+            });
+        }
+        outs.push(PlanOut {
+            plan,
+            span_start,
+            span_end,
+            complete,
+            cohorts,
+        });
+    }
+    Ok(outs)
+}
+
+/// Totals of the cohort days whose weather index is in `lo..hi`.
+fn summarise(
+    p: &Prepared<'_, '_>,
+    cohorts: &[CohortOut],
+    lo: usize,
+    hi: usize,
+) -> Result<SeasonSummary, PlantingError> {
+    let mut s = SeasonSummary {
+        year: 0,
+        start: p.weather.start,
+        end: p.weather.start,
+        complete: false,
+        et0_mm: 0.0,
+        etc_mm: 0.0,
+        etc_adj_mm: 0.0,
+        rain_mm: 0.0,
+        peff_mm: 0.0,
+        nir_mm: 0.0,
+        net_irrigation_mm: 0.0,
+        irrigation_count: 0.0,
+        deep_perc_mm: 0.0,
+        runoff_mm: 0.0,
+        relative_yield_loss: 0.0,
+        leaching_requirement: p.lr,
+        irrigations: Vec::new(),
+    };
+    for c in cohorts {
+        let w = c.share;
+        let (mut etc, mut etc_adj) = (0.0, 0.0);
+        for (i, d) in c.days.iter().enumerate() {
+            let g = c.first + i;
+            if g < lo || g >= hi {
+                continue;
+            }
+            s.et0_mm += w * d.et0_mm;
+            etc += d.etc_mm;
+            etc_adj += d.etc_adj_mm;
+            s.rain_mm += w * d.rain_mm;
+            s.peff_mm += w * d.peff_mm;
+            s.net_irrigation_mm += w * d.irrigation_mm;
+            s.deep_perc_mm += w * d.deep_perc_mm;
+            s.runoff_mm += w * d.runoff_mm;
+        }
+        s.etc_mm += w * etc;
+        s.etc_adj_mm += w * etc_adj;
+        s.relative_yield_loss += w * relative_yield_loss(p.ky, etc_adj, etc)?;
+        for &(g, net_mm) in &c.events {
+            if g >= lo && g < hi {
+                s.irrigation_count += w;
+                s.irrigations.push(PlantingIrrigation {
+                    date: date_of(p.weather, g),
+                    cohort: c.index,
+                    area_share: w,
+                    net_mm,
+                });
+            }
+        }
+    }
+    s.irrigations.sort_by_key(|e| (e.date, e.cohort));
+    s.nir_mm = s.net_irrigation_mm / (1.0 - p.lr);
+    Ok(s)
+}
+
+/// One irrigation year of a chain: (year, first weather index, end index
+/// exclusive, start date, complete).
+type IrrigationYear = (i32, usize, usize, NaiveDate, bool);
+
+/// Irrigation years of a chain, from the first planting date to the chain's end.
+fn irrigation_years(
+    p: &Prepared<'_, '_>,
+    out: &PlanOut,
+) -> Result<Vec<IrrigationYear>, PlantingError> {
+    let (m, d) = (p.spec.first_planting_month, p.spec.first_planting_day);
+    let first = out.plan.first;
+    let chain_end = index_of(p.weather, out.span_end) + 1;
+    let mut years = Vec::new();
+    let mut y = first.year();
+    let mut start = first;
+    loop {
+        let lo = index_of(p.weather, start);
+        if lo >= chain_end {
+            break;
+        }
+        let next = anniversary(y + 1, m, d, &mut Vec::new())?;
+        let hi = index_of(p.weather, next);
+        let complete = hi <= p.n as i64 && hi <= chain_end;
+        years.push((
+            y,
+            lo.max(0) as usize,
+            hi.clamp(0, p.n as i64) as usize,
+            start,
+            complete,
+        ));
+        y += 1;
+        start = next;
+    }
+    Ok(years)
+}
+
+fn run_common(
+    spec: &PlantingSpec<'_>,
+    weather: &PlantingWeather<'_>,
+    delivery: Option<&[f64]>,
+) -> Result<PlantingResult, PlantingError> {
+    let mut p = prepare(spec, weather)?;
+    if let Some(d) = delivery {
+        if d.len() != p.n {
+            return Err(PlantingError::WeatherLength {
+                series: "delivered_net_mm",
+                expected: p.n,
+                found: d.len(),
+            });
+        }
+        if let Some(i) = d.iter().position(|v| !(v.is_finite() && *v >= 0.0)) {
+            return Err(PlantingError::BadWeather {
+                series: "delivered_net_mm",
+                date: date_of(weather, i),
+                value: d[i],
+            });
+        }
+    }
+    let outs = compute_plans(&mut p, delivery)?;
+    let n = p.n;
+    let mut result = PlantingResult {
+        nir_mm: vec![0.0; n],
+        etc_mm: vec![0.0; n],
+        etc_adj_mm: vec![0.0; n],
+        peff_mm: vec![0.0; n],
+        seasons: Vec::new(),
+        warnings: Vec::new(),
+    };
+    let to_nir = 1.0 / (1.0 - p.lr);
+    for out in &outs {
+        for c in &out.cohorts {
+            let w = c.share;
+            for (i, d) in c.days.iter().enumerate() {
+                let g = c.first + i;
+                result.nir_mm[g] += w * d.irrigation_mm * to_nir;
+                result.etc_mm[g] += w * d.etc_mm;
+                result.etc_adj_mm[g] += w * d.etc_adj_mm;
+                result.peff_mm[g] += w * d.peff_mm;
+            }
+        }
+        if is_chain(spec) {
+            for (year, lo, hi, start, complete) in irrigation_years(&p, out)? {
+                let mut s = summarise(&p, &out.cohorts, lo, hi)?;
+                s.year = year;
+                s.start = start;
+                s.end = anniversary(
+                    year + 1,
+                    spec.first_planting_month,
+                    spec.first_planting_day,
+                    &mut Vec::new(),
+                )?
+                .pred_opt()
+                .unwrap_or(start);
+                s.complete = complete;
+                result.seasons.push(s);
+            }
+        } else {
+            let mut s = summarise(&p, &out.cohorts, 0, n)?;
+            s.year = out.plan.year;
+            s.start = out.span_start;
+            s.end = out.span_end;
+            s.complete = out.complete;
+            result.seasons.push(s);
+        }
+    }
+    result.warnings = p.warnings;
+    Ok(result)
+}
+
+/// Runs one planting over the whole weather record (see the module
+/// documentation for seasons, cohorts, perennials, effective-rain methods,
+/// paddy rice and leaching).
+///
+/// # Errors
+/// [`PlantingError`] for weather series of unequal length or with a missing
+/// ET₀ or rain value, an invalid crop or soil entry, a setting out of range,
+/// or an error of the crop, balance, paddy, rain or salinity computations.
+pub fn run_planting(
+    spec: &PlantingSpec<'_>,
+    weather: &PlantingWeather<'_>,
+) -> Result<PlantingResult, PlantingError> {
+    run_common(spec, weather, None)
+}
+
+/// As [`run_planting`], but each cohort receives the given daily delivered
+/// net depth (mm at the field per ha of planting area, one value per weather
+/// day) instead of following the strategy — for rotation-limited supply.
+/// With leaching, (1 − LR) of the delivered depth reaches the root-zone
+/// balance. Paddy and period-method plantings take min(requirement,
+/// delivered) each day; the shortfall is not carried forward (warning) and,
+/// for the period methods, lowers ETc adj by the same depth.
+///
+/// # Errors
+/// As [`run_planting`], and a delivery series of the wrong length or with a
+/// negative or non-finite value.
+pub fn run_planting_with_delivery(
+    spec: &PlantingSpec<'_>,
+    weather: &PlantingWeather<'_>,
+    delivered_net_mm: &[f64],
+) -> Result<PlantingResult, PlantingError> {
+    run_common(spec, weather, Some(delivered_net_mm))
+}
+
+/// The daily table of the season whose first planting date is in
+/// `season_start_year` (perennials: the irrigation year starting on the
+/// planting anniversary in that year), area-weighted over cohorts, over the
+/// season's days inside the record. Cohorts not in the field on a day count
+/// as zero depths there.
+///
+/// # Errors
+/// As [`run_planting`]; [`PlantingError::NoSuchSeason`] when no season
+/// starts in that year within the record.
+pub fn season_detail(
+    spec: &PlantingSpec<'_>,
+    weather: &PlantingWeather<'_>,
+    season_start_year: i32,
+) -> Result<SeasonDetail, PlantingError> {
+    let chain = is_chain(spec);
+    let mut p = prepare(spec, weather)?;
+    let outs = compute_plans(&mut p, None)?;
+    let missing = PlantingError::NoSuchSeason {
+        year: season_start_year,
+    };
+    let (out, lo, hi, complete) = if chain {
+        let out = outs.first().ok_or(missing.clone())?;
+        let (_, lo, hi, _, complete) = irrigation_years(&p, out)?
+            .into_iter()
+            .find(|y| y.0 == season_start_year)
+            .ok_or(missing)?;
+        (out, lo, hi, complete)
+    } else {
+        let out = outs
+            .iter()
+            .find(|o| o.plan.year == season_start_year)
+            .ok_or(missing.clone())?;
+        let lo = out.cohorts.iter().map(|c| c.first).min().unwrap_or(0);
+        let hi = out
+            .cohorts
+            .iter()
+            .map(|c| c.first + c.days.len())
+            .max()
+            .unwrap_or(0);
+        (out, lo, hi, out.complete)
+    };
+    if lo >= hi {
+        return Err(PlantingError::NoSuchSeason {
+            year: season_start_year,
+        });
+    }
+    let mut days = vec![BalanceDay::default(); hi - lo];
+    for (g, day) in days.iter_mut().enumerate() {
+        day.et0_mm = weather.et0_mm[lo + g];
+        day.rain_mm = weather.rain_mm[lo + g];
+    }
+    for c in &out.cohorts {
+        let w = c.share;
+        for (i, d) in c.days.iter().enumerate() {
+            let g = c.first + i;
+            if g < lo || g >= hi {
+                continue;
+            }
+            let t = &mut days[g - lo];
+            t.kc += w * d.kc;
+            t.etc_mm += w * d.etc_mm;
+            t.etc_adj_mm += w * d.etc_adj_mm;
+            t.runoff_mm += w * d.runoff_mm;
+            t.peff_mm += w * d.peff_mm;
+            t.irrigation_mm += w * d.irrigation_mm;
+            t.capillary_rise_mm += w * d.capillary_rise_mm;
+            t.deep_perc_mm += w * d.deep_perc_mm;
+            t.depletion_mm += w * d.depletion_mm;
+            t.taw_mm += w * d.taw_mm;
+            t.raw_mm += w * d.raw_mm;
+            t.p += w * d.p;
+            t.ks += w * (d.ks - 1.0);
+        }
+    }
+    for t in &mut days {
+        // Ks: cohorts out of the field count as unstressed.
+        t.ks += 1.0;
+    }
+    Ok(SeasonDetail {
+        first_date: date_of(weather, lo),
+        complete,
+        days,
+    })
+}
+
+/// One season's daily balance table (see [`season_detail`], which also
+/// gives the date of the first row).
+///
+/// # Errors
+/// As [`season_detail`].
+pub fn daily_detail(
+    spec: &PlantingSpec<'_>,
+    weather: &PlantingWeather<'_>,
+    season_start_year: i32,
+) -> Result<Vec<BalanceDay>, PlantingError> {
+    season_detail(spec, weather, season_start_year).map(|d| d.days)
+}
