@@ -14,7 +14,7 @@ use offtake_core::project::Project;
 use offtake_io::library::Libraries;
 
 use crate::command::{Command, HelpWindow, ItemRef, PanelKind, Selection};
-use crate::compute::{ComputeFn, Computed, Snapshot};
+use crate::compute::{ComputeFn, Computed, SeasonRequest, Snapshot};
 use crate::document::OpenDocument;
 use crate::edit::DocEdit;
 use crate::history::History;
@@ -95,6 +95,8 @@ pub struct OfftakeApp {
     offer_recovery: bool,
     /// The weather import window, while open.
     pub import: Option<crate::import::ImportJob>,
+    /// The season asked of the worker with the last request.
+    requested_season: Option<SeasonRequest>,
 }
 
 impl std::fmt::Debug for OfftakeApp {
@@ -161,6 +163,7 @@ impl OfftakeApp {
             recovery: None,
             offer_recovery: false,
             import: None,
+            requested_season: None,
         }
     }
 
@@ -284,7 +287,9 @@ impl OfftakeApp {
             let snapshot = Snapshot {
                 project: doc.project.clone(),
                 project_path: doc.path.clone(),
+                season: self.season_request(),
             };
+            self.requested_season = snapshot.season.clone();
             self.worker.request(snapshot, Instant::now());
             self.state.recompute = RecomputeStatus::Running;
         }
@@ -422,6 +427,11 @@ impl OfftakeApp {
         for command in commands {
             self.apply(command, ui.ctx());
         }
+        // A new selection or season year: ask the worker for that season's
+        // balance (the engine results are reused from its cache).
+        if self.season_request() != self.requested_season {
+            self.request_recompute();
+        }
         self.autosave(false);
     }
 
@@ -523,7 +533,34 @@ impl OfftakeApp {
             Command::ExportPlotImage { file_name, rect } => {
                 self.request_plot_image(ctx, file_name, rect);
             }
+            Command::SetSeasonYear(year) => self.state.season_year = Some(year),
         }
+    }
+
+    /// The season the Water balance and Crop curves tabs show: the selected
+    /// planting (a block: its first planting; otherwise the project's first)
+    /// in the chosen year, by default the headworks design year.
+    pub fn season_request(&self) -> Option<SeasonRequest> {
+        let project = &self.document.as_ref()?.project;
+        let planting = match &self.state.selection {
+            Selection::Item(ItemRef::Planting(id)) => project.plantings.iter().find(|p| p.id == *id),
+            Selection::Item(ItemRef::Block(id)) => {
+                project.plantings.iter().find(|p| p.block == *id)
+            }
+            _ => None,
+        }
+        .or_else(|| project.plantings.first())?;
+        let design_year = self
+            .computed
+            .as_ref()
+            .and_then(|c| c.engine.as_ref())
+            .and_then(|e| e.as_ref().ok())
+            .and_then(|r| r.results.headworks().map(|h| h.design_year.start_year()));
+        let year = self.state.season_year.or(design_year)?;
+        Some(SeasonRequest {
+            planting: planting.id.clone(),
+            year,
+        })
     }
 
     /// Opens the invented demo scheme shipped in `demo-projects/` (first start).

@@ -5,8 +5,11 @@
 //! [`Computed`] of the last finished run; nothing is computed in a frame.
 
 use std::path::PathBuf;
+use std::sync::Arc;
 
 use chrono::NaiveDate;
+use offtake_core::balance::BalanceDay;
+use offtake_core::engine::{self, Comparison, PreparedWeather, Results};
 use offtake_core::project::{Project, ValidationContext};
 use offtake_core::weather::WeatherDay;
 use offtake_io::library::Libraries;
@@ -28,6 +31,62 @@ pub struct Computed {
     pub scheme_area_ha: f64,
     /// Area commanded by each canal (ha), by canal id, in document order.
     pub canal_area_ha: Vec<(String, f64)>,
+    /// The whole chain (offtake-core `engine::run`): demand at every node,
+    /// design values, plantings, roster. `None` without weather; the error
+    /// text when the engine cannot compute the project.
+    pub engine: Option<Result<EngineRun, String>>,
+    /// The daily balance of one planting's season, when a tab asked for it.
+    pub season: Option<Result<SeasonView, String>>,
+    /// Every scenario side by side (offtake-core `engine::compare`), when the
+    /// project has scenarios.
+    pub comparison: Option<Result<Comparison, String>>,
+}
+
+/// One engine run, shared without copying between the worker and the tabs.
+#[derive(Clone)]
+pub struct EngineRun {
+    /// Everything the engine computed.
+    pub results: Arc<Results>,
+}
+
+impl PartialEq for EngineRun {
+    fn eq(&self, other: &Self) -> bool {
+        Arc::ptr_eq(&self.results, &other.results)
+    }
+}
+
+impl std::fmt::Debug for EngineRun {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.debug_struct("EngineRun")
+            .field("scheme", &self.results.scheme_name)
+            .field("days", &self.results.days)
+            .finish_non_exhaustive()
+    }
+}
+
+/// A planting and the year its season starts, asked for by the Water
+/// balance and Crop curves tabs.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct SeasonRequest {
+    /// Planting id.
+    pub planting: String,
+    /// Calendar year of the season's first planting day.
+    pub year: i32,
+}
+
+/// The daily balance of one season of one planting (area-weighted over its
+/// cohorts), from offtake-core `planting::season_detail`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SeasonView {
+    /// What was asked.
+    pub request: SeasonRequest,
+    /// Date of `days[0]`.
+    pub first_date: NaiveDate,
+    /// Whether the whole season is inside the weather record.
+    pub complete: bool,
+    /// One row per day: ET₀, Kc (climate-adjusted), ETc, rain, irrigation,
+    /// depletion, TAW, RAW, Ks.
+    pub days: Vec<BalanceDay>,
 }
 
 /// The library Kc curve of one crop over one season length.
@@ -103,6 +162,8 @@ pub struct Snapshot {
     pub project: Project,
     /// The project file, if the project was opened or saved.
     pub project_path: Option<PathBuf>,
+    /// The season whose daily balance a tab shows, if any.
+    pub season: Option<SeasonRequest>,
 }
 
 /// The compute function the worker runs: a snapshot in, results out.
@@ -171,6 +232,7 @@ pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
         warnings: Vec::new(),
         et0: None,
     };
+    let mut engine_cache = EngineCache::default();
     Box::new(move |snap: Snapshot| {
         let mut out = summarize(&snap.project, &libraries);
         if let Some(w) = weather(&snap, &mut cache) {
@@ -182,7 +244,175 @@ pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
                 Err(e) => out.warnings.push(e),
             }
         }
+        if let (Some(_), Ok(days)) = (&out.weather, &cache.days) {
+            let key = cache.key.clone();
+            engine_cache.update(&snap, key, days, &libraries);
+            out.engine = engine_cache.run.clone();
+            out.comparison = engine_cache.comparison.clone();
+            if let Some(Ok(run)) = &out.engine {
+                out.warnings.extend(run.results.warnings.iter().cloned());
+            } else if let Some(Err(e)) = &out.engine {
+                out.warnings.push(format!("computation: {e}"));
+            }
+            if let Some(req) = &snap.season {
+                out.season = Some(engine_cache.season(&snap.project, days, &libraries, req));
+            }
+        }
+        out.warnings.dedup();
         out
+    })
+}
+
+/// Engine results kept while the project and the weather file stay the same
+/// (a selection change asks only for a season's balance).
+#[derive(Default)]
+struct EngineCache {
+    key: Option<(Project, Option<(PathBuf, Option<std::time::SystemTime>)>)>,
+    run: Option<Result<EngineRun, String>>,
+    comparison: Option<Result<Comparison, String>>,
+    /// Weather prepared as the engine prepares it (gaps filled), for season
+    /// details; keyed like `key`.
+    prepared: Option<Result<Arc<PreparedWeather>, String>>,
+}
+
+impl EngineCache {
+    fn update(
+        &mut self,
+        snap: &Snapshot,
+        weather_key: Option<(PathBuf, Option<std::time::SystemTime>)>,
+        days: &[WeatherDay],
+        libraries: &Libraries,
+    ) {
+        let key = (snap.project.clone(), weather_key);
+        if self.key.as_ref() == Some(&key) {
+            return;
+        }
+        self.key = Some(key);
+        self.prepared = None;
+        let results = engine::run_scenario(
+            &snap.project,
+            None,
+            &libraries.crops,
+            &libraries.soils,
+            days,
+        );
+        self.run = Some(
+            results
+                .map(|r| EngineRun {
+                    results: Arc::new(r),
+                })
+                .map_err(|e| e.to_string()),
+        );
+        self.comparison = if snap.project.scenarios.is_empty() {
+            None
+        } else {
+            Some(
+                engine::compare_scenarios(
+                    &snap.project,
+                    &libraries.crops,
+                    &libraries.soils,
+                    days,
+                )
+                .map_err(|e| e.to_string()),
+            )
+        };
+    }
+
+    fn season(
+        &mut self,
+        project: &Project,
+        days: &[WeatherDay],
+        libraries: &Libraries,
+        req: &SeasonRequest,
+    ) -> Result<SeasonView, String> {
+        let prepared = self
+            .prepared
+            .get_or_insert_with(|| prepared_weather(project, days).map(Arc::new))
+            .clone()?;
+        season_view(project, libraries, &prepared, req)
+    }
+}
+
+/// The weather as the engine prepares it for the plantings: days that the
+/// ET₀ checks reject become gaps (rain kept), gaps are filled (offtake-core
+/// `gapfill`, default options), then ET₀, u2 and RHmin per day.
+///
+/// # Errors
+/// The engine's error text.
+pub fn prepared_weather(project: &Project, days: &[WeatherDay]) -> Result<PreparedWeather, String> {
+    use offtake_core::et0::{Et0Context, Et0Options};
+    use offtake_core::gapfill::{GapFillOptions, fill_gaps};
+    let site = engine::site_of(project);
+    let checker = Et0Context::new(&site, &Et0Options::default()).map_err(|e| e.to_string())?;
+    let cleaned: Vec<WeatherDay> = days
+        .iter()
+        .map(|d| match checker.et0_mm_day(d) {
+            Err(_) if d.tmax_c.is_some() && d.tmin_c.is_some() => WeatherDay {
+                rain_mm: d.rain_mm,
+                ..WeatherDay::empty(d.date)
+            },
+            _ => *d,
+        })
+        .collect();
+    let filled =
+        fill_gaps(&cleaned, &GapFillOptions::default(), &[]).map_err(|e| e.to_string())?;
+    engine::weather_prep::prepare_weather(
+        &filled.days,
+        &site,
+        project.options.et0_method,
+        &offtake_core::project::WeatherPerturbation::default(),
+    )
+    .map_err(|e| e.to_string())
+}
+
+/// One season's daily balance of a planting, set up exactly as the engine
+/// sets up its planting step (`engine::planting_step::simulate_planting`).
+///
+/// # Errors
+/// A text naming the missing planting, block, crop or soil, or the planting
+/// module's error (e.g. no season starts in that year).
+pub fn season_view(
+    project: &Project,
+    libraries: &Libraries,
+    w: &PreparedWeather,
+    req: &SeasonRequest,
+) -> Result<SeasonView, String> {
+    use offtake_core::engine::planting_step::{balance_strategy, effective_rain_method};
+    use offtake_core::planting::{PlantingSpec, PlantingWeather, season_detail};
+    let p = project
+        .plantings
+        .iter()
+        .find(|p| p.id == req.planting)
+        .ok_or_else(|| format!("planting {:?} is not in the project", req.planting))?;
+    let b = project
+        .blocks
+        .iter()
+        .find(|b| b.id == p.block)
+        .ok_or_else(|| format!("planting {:?}: block {:?} does not exist", p.id, p.block))?;
+    let crop = libraries
+        .crop(&p.crop)
+        .ok_or_else(|| format!("crop {:?} is not in the crop library", p.crop))?;
+    let soil = libraries
+        .soil(&b.soil)
+        .ok_or_else(|| format!("soil {:?} is not in the soil library", b.soil))?;
+    let mut spec = PlantingSpec::new(crop, soil, p.first_planting.month, p.first_planting.day);
+    spec.spread_days = p.spread_days;
+    spec.season_length_days = p.season_length_days;
+    spec.strategy = balance_strategy(p.strategy, crop);
+    spec.effective_rain = effective_rain_method(project.options.effective_rain, crop, soil);
+    let weather = PlantingWeather {
+        start: w.start,
+        et0_mm: &w.et0_mm,
+        rain_mm: &w.rain_mm,
+        wind_2m_ms: &w.wind_2m_ms,
+        rhmin_pct: &w.rhmin_pct,
+    };
+    let detail = season_detail(&spec, &weather, req.year).map_err(|e| e.to_string())?;
+    Ok(SeasonView {
+        request: req.clone(),
+        first_date: detail.first_date,
+        complete: detail.complete,
+        days: detail.days,
     })
 }
 
@@ -339,5 +569,8 @@ pub fn summarize(project: &Project, libraries: &Libraries) -> Computed {
         kc_curves,
         scheme_area_ha: project.scheme_area_ha(),
         canal_area_ha,
+        engine: None,
+        season: None,
+        comparison: None,
     }
 }

@@ -38,6 +38,22 @@ pub enum SeriesKind {
     Level,
     /// A vertical marker at the first point's x (stage ends, design year).
     Marker,
+    /// A line shaded down (or up) to a level: the area between the points
+    /// and `base` is filled (shortfall above a capacity).
+    Shaded {
+        /// The level the fill reaches (y units).
+        base: f64,
+    },
+    /// Bars stacked on the bars of the earlier `StackedBars` series of the
+    /// same plot at the same x (demand by crop or block).
+    StackedBars {
+        /// Bar width in x units.
+        width: f64,
+    },
+    /// A band of x ranges shaded over the whole height: each pair of
+    /// consecutive points is one `[x_start, x_end]` range (crop stages, the
+    /// design year).
+    Spans,
 }
 
 /// One named series of a plot.
@@ -265,6 +281,7 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
     let response = plot.show(ui, |plot_ui| {
         let bounds = plot_ui.plot_bounds();
         let auto = plot_ui.auto_bounds();
+        let mut stack: std::collections::HashMap<u64, f64> = std::collections::HashMap::new();
         for s in &spec.series {
             match s.kind {
                 SeriesKind::Line => {
@@ -296,6 +313,45 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
                                 .style(s.style),
                         );
                     }
+                }
+                SeriesKind::Shaded { base } => {
+                    let pts = decimate_min_max(&s.points, width_px);
+                    plot_ui.line(
+                        Line::new(s.name.clone(), PlotPoints::from(pts))
+                            .color(s.colour)
+                            .style(s.style)
+                            .fill(base as f32)
+                            .fill_alpha(0.45),
+                    );
+                }
+                SeriesKind::StackedBars { width } => {
+                    let bars = s
+                        .points
+                        .iter()
+                        .map(|p| {
+                            let key = p[0].to_bits();
+                            let base = stack.get(&key).copied().unwrap_or(0.0);
+                            stack.insert(key, base + p[1]);
+                            Bar::new(p[0], p[1]).width(width).base_offset(base)
+                        })
+                        .collect();
+                    plot_ui.bar_chart(BarChart::new(s.name.clone(), bars).color(s.colour));
+                }
+                SeriesKind::Spans => {
+                    let bars = s
+                        .points
+                        .chunks_exact(2)
+                        .map(|r| {
+                            let (a, b) = (r[0][0], r[1][0]);
+                            Bar::new(0.5 * (a + b), r[0][1])
+                                .width((b - a).abs())
+                                .base_offset(r[1][1])
+                        })
+                        .collect();
+                    plot_ui.bar_chart(
+                        BarChart::new(s.name.clone(), bars)
+                            .color(s.colour.gamma_multiply(0.25)),
+                    );
                 }
                 SeriesKind::Level => {
                     if let Some(p) = s.points.first() {

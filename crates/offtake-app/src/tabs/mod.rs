@@ -81,6 +81,39 @@ pub fn empty_state(ui: &mut Ui, headline: &str, next_step: &str) {
     });
 }
 
+/// The engine results for a tab, or an empty state saying why there are
+/// none (no weather, still computing, or the engine's error).
+pub fn engine_results<'a>(
+    ui: &mut Ui,
+    view: &View<'a>,
+    what_this_tab_shows: &str,
+) -> Option<(&'a crate::compute::EngineRun, &'a offtake_core::engine::Results)> {
+    let project = view.project?;
+    if project.weather.path.trim().is_empty() {
+        empty_state(
+            ui,
+            "No weather yet — File › Import weather…",
+            what_this_tab_shows,
+        );
+        return None;
+    }
+    match view.computed.and_then(|c| c.engine.as_ref()) {
+        Some(Ok(run)) => Some((run, &run.results)),
+        Some(Err(e)) => {
+            empty_state(ui, "The scheme cannot be computed yet", e);
+            None
+        }
+        None => {
+            empty_state(
+                ui,
+                "Computing…",
+                "Results appear here when the background computation finishes (see the status bar).",
+            );
+            None
+        }
+    }
+}
+
 /// The empty state shared by every tab when no project is open.
 pub fn no_project(ui: &mut Ui, what_this_tab_shows: &str) {
     empty_state(
