@@ -97,6 +97,8 @@ pub struct OfftakeApp {
     pub import: Option<crate::import::ImportJob>,
     /// The season asked of the worker with the last request.
     requested_season: Option<SeasonRequest>,
+    /// Whether the last request asked for the scenario comparison.
+    requested_compare: bool,
 }
 
 impl std::fmt::Debug for OfftakeApp {
@@ -164,6 +166,7 @@ impl OfftakeApp {
             offer_recovery: false,
             import: None,
             requested_season: None,
+            requested_compare: false,
         }
     }
 
@@ -288,8 +291,11 @@ impl OfftakeApp {
                 project: doc.project.clone(),
                 project_path: doc.path.clone(),
                 season: self.season_request(),
+                scenario: self.state.scenario.clone(),
+                compare: self.state.tab == crate::command::Tab::Compare,
             };
             self.requested_season = snapshot.season.clone();
+            self.requested_compare = snapshot.compare;
             self.worker.request(snapshot, Instant::now());
             self.state.recompute = RecomputeStatus::Running;
         }
@@ -401,16 +407,26 @@ impl OfftakeApp {
         }
         egui::CentralPanel::default().show(ui, |ui| {
             if let Some(p) = project {
-                ui.label(format!(
-                    "Selection: {}",
-                    tree::breadcrumb(p, &self.state.selection).join(" › ")
-                ));
+                ui.horizontal(|ui| {
+                    ui.label(format!(
+                        "Selection: {}",
+                        tree::breadcrumb(p, &self.state.selection).join(" › ")
+                    ));
+                    if let Some(name) = &self.state.scenario {
+                        ui.separator();
+                        ui.label(
+                            egui::RichText::new(format!("Results of scenario {name}"))
+                                .color(ui.visuals().warn_fg_color),
+                        );
+                    }
+                });
             }
             let view = View {
                 project_open,
                 project,
                 selection: &self.state.selection,
                 computed: self.computed.as_ref(),
+                scenario: self.state.scenario.as_deref(),
             };
             self.tabs.ui(ui, self.state.tab, &view, &mut commands);
         });
@@ -429,7 +445,10 @@ impl OfftakeApp {
         }
         // A new selection or season year: ask the worker for that season's
         // balance (the engine results are reused from its cache).
-        if self.season_request() != self.requested_season {
+        let wants_compare = self.state.tab == crate::command::Tab::Compare;
+        if self.season_request() != self.requested_season
+            || (wants_compare && !self.requested_compare)
+        {
             self.request_recompute();
         }
         self.autosave(false);
@@ -534,6 +553,10 @@ impl OfftakeApp {
                 self.request_plot_image(ctx, file_name, rect);
             }
             Command::SetSeasonYear(year) => self.state.season_year = Some(year),
+            Command::ShowScenario(name) => {
+                self.state.scenario = name;
+                self.request_recompute();
+            }
         }
     }
 
@@ -550,16 +573,9 @@ impl OfftakeApp {
             _ => None,
         }
         .or_else(|| project.plantings.first())?;
-        let design_year = self
-            .computed
-            .as_ref()
-            .and_then(|c| c.engine.as_ref())
-            .and_then(|e| e.as_ref().ok())
-            .and_then(|r| r.results.headworks().map(|h| h.design_year.start_year()));
-        let year = self.state.season_year.or(design_year)?;
         Some(SeasonRequest {
             planting: planting.id.clone(),
-            year,
+            year: self.state.season_year,
         })
     }
 

@@ -154,4 +154,6 @@ pub enum Command {
     /// Show the season starting in this year on the Water balance and Crop
     /// curves tabs.
     SetSeasonYear(i32),
+    /// Show the results of a scenario (`None` = the base plan) in every tab.
+    ShowScenario(Option<String>),
 }

@@ -70,8 +70,9 @@ impl std::fmt::Debug for EngineRun {
 pub struct SeasonRequest {
     /// Planting id.
     pub planting: String,
-    /// Calendar year of the season's first planting day.
-    pub year: i32,
+    /// Calendar year of the season's first planting day (`None` = the
+    /// start year of the headworks design year).
+    pub year: Option<i32>,
 }
 
 /// The daily balance of one season of one planting (area-weighted over its
@@ -80,6 +81,8 @@ pub struct SeasonRequest {
 pub struct SeasonView {
     /// What was asked.
     pub request: SeasonRequest,
+    /// The year shown (the one asked, or the design year's).
+    pub year: i32,
     /// Date of `days[0]`.
     pub first_date: NaiveDate,
     /// Whether the whole season is inside the weather record.
@@ -164,6 +167,11 @@ pub struct Snapshot {
     pub project_path: Option<PathBuf>,
     /// The season whose daily balance a tab shows, if any.
     pub season: Option<SeasonRequest>,
+    /// The scenario whose results the tabs show (`None` = the base plan).
+    pub scenario: Option<String>,
+    /// Whether to run every scenario for the Compare tab (only while it is
+    /// shown: the comparison costs one engine run per scenario).
+    pub compare: bool,
 }
 
 /// The compute function the worker runs: a snapshot in, results out.
@@ -247,6 +255,9 @@ pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
         if let (Some(_), Ok(days)) = (&out.weather, &cache.days) {
             let key = cache.key.clone();
             engine_cache.update(&snap, key, days, &libraries);
+            if snap.compare {
+                engine_cache.compare(&snap.project, days, &libraries);
+            }
             out.engine = engine_cache.run.clone();
             out.comparison = engine_cache.comparison.clone();
             if let Some(Ok(run)) = &out.engine {
@@ -267,7 +278,11 @@ pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
 /// (a selection change asks only for a season's balance).
 #[derive(Default)]
 struct EngineCache {
-    key: Option<(Project, Option<(PathBuf, Option<std::time::SystemTime>)>)>,
+    key: Option<(
+        Project,
+        Option<String>,
+        Option<(PathBuf, Option<std::time::SystemTime>)>,
+    )>,
     run: Option<Result<EngineRun, String>>,
     comparison: Option<Result<Comparison, String>>,
     /// Weather prepared as the engine prepares it (gaps filled), for season
@@ -283,15 +298,23 @@ impl EngineCache {
         days: &[WeatherDay],
         libraries: &Libraries,
     ) {
-        let key = (snap.project.clone(), weather_key);
+        let scenario = snap
+            .scenario
+            .clone()
+            .filter(|name| snap.project.scenario(name).is_some());
+        let key = (snap.project.clone(), scenario.clone(), weather_key);
         if self.key.as_ref() == Some(&key) {
             return;
         }
+        let same_base = self
+            .key
+            .as_ref()
+            .is_some_and(|k| k.0 == key.0 && k.2 == key.2);
         self.key = Some(key);
         self.prepared = None;
         let results = engine::run_scenario(
             &snap.project,
-            None,
+            scenario.as_deref(),
             &libraries.crops,
             &libraries.soils,
             days,
@@ -303,19 +326,19 @@ impl EngineCache {
                 })
                 .map_err(|e| e.to_string()),
         );
-        self.comparison = if snap.project.scenarios.is_empty() {
-            None
-        } else {
-            Some(
-                engine::compare_scenarios(
-                    &snap.project,
-                    &libraries.crops,
-                    &libraries.soils,
-                    days,
-                )
-                .map_err(|e| e.to_string()),
-            )
-        };
+        if !same_base {
+            self.comparison = None;
+        }
+    }
+
+    /// The comparison of every scenario, computed once per project.
+    fn compare(&mut self, project: &Project, days: &[WeatherDay], libraries: &Libraries) {
+        if self.comparison.is_none() && !project.scenarios.is_empty() {
+            self.comparison = Some(
+                engine::compare_scenarios(project, &libraries.crops, &libraries.soils, days)
+                    .map_err(|e| e.to_string()),
+            );
+        }
     }
 
     fn season(
@@ -329,7 +352,12 @@ impl EngineCache {
             .prepared
             .get_or_insert_with(|| prepared_weather(project, days).map(Arc::new))
             .clone()?;
-        season_view(project, libraries, &prepared, req)
+        let design_year = self
+            .run
+            .as_ref()
+            .and_then(|r| r.as_ref().ok())
+            .and_then(|r| r.results.headworks().map(|h| h.design_year.start_year()));
+        season_view(project, libraries, &prepared, req, design_year)
     }
 }
 
@@ -376,6 +404,7 @@ pub fn season_view(
     libraries: &Libraries,
     w: &PreparedWeather,
     req: &SeasonRequest,
+    default_year: Option<i32>,
 ) -> Result<SeasonView, String> {
     use offtake_core::engine::planting_step::{balance_strategy, effective_rain_method};
     use offtake_core::planting::{PlantingSpec, PlantingWeather, season_detail};
@@ -407,9 +436,13 @@ pub fn season_view(
         wind_2m_ms: &w.wind_2m_ms,
         rhmin_pct: &w.rhmin_pct,
     };
-    let detail = season_detail(&spec, &weather, req.year).map_err(|e| e.to_string())?;
+    let year = req.year.or(default_year).ok_or_else(|| {
+        "no complete irrigation year in the weather record to take the season from".to_owned()
+    })?;
+    let detail = season_detail(&spec, &weather, year).map_err(|e| e.to_string())?;
     Ok(SeasonView {
         request: req.clone(),
+        year,
         first_date: detail.first_date,
         complete: detail.complete,
         days: detail.days,

@@ -231,13 +231,18 @@ fn hover_text(spec: &PlotSpec, pos: &HoverPosition<'_>) -> String {
             position,
             ..
         } => format!(
-            "{plot_name}\n{}: {:.3} {}",
+            "{plot_name}\n{}: {} {}",
             x_text(position.x),
-            position.y,
+            crate::fields::format_sig(position.y, 3),
             spec.y_unit
         ),
         HoverPosition::Elsewhere { position } => {
-            format!("{}\n{:.3} {}", x_text(position.x), position.y, spec.y_unit)
+            format!(
+                "{}\n{} {}",
+                x_text(position.x),
+                crate::fields::format_sig(position.y, 3),
+                spec.y_unit
+            )
         }
     }
 }

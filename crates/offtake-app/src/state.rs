@@ -110,6 +110,8 @@ pub struct RuntimeState {
     /// Year of the season the Water balance and Crop curves tabs show
     /// (`None` = the headworks design year).
     pub season_year: Option<i32>,
+    /// The scenario whose results the tabs show (`None` = the base plan).
+    pub scenario: Option<String>,
 }
 
 impl Default for RuntimeState {
@@ -125,6 +127,7 @@ impl Default for RuntimeState {
             warning_count: 0,
             confirm_discard: None,
             season_year: None,
+            scenario: None,
         }
     }
 }
