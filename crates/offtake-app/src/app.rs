@@ -99,6 +99,8 @@ pub struct OfftakeApp {
     requested_season: Option<SeasonRequest>,
     /// Whether the last request asked for the scenario comparison.
     requested_compare: bool,
+    /// A running export of the result tables: (folder, outcome).
+    export_job: Option<Receiver<(std::path::PathBuf, Result<Vec<String>, String>)>>,
 }
 
 impl std::fmt::Debug for OfftakeApp {
@@ -167,6 +169,7 @@ impl OfftakeApp {
             import: None,
             requested_season: None,
             requested_compare: false,
+            export_job: None,
         }
     }
 
@@ -357,6 +360,7 @@ impl OfftakeApp {
     pub fn ui(&mut self, ui: &mut Ui) {
         self.shortcuts(ui);
         self.receive_images();
+        self.poll_export(ui.ctx());
         self.poll_worker(ui.ctx());
         let mut commands = std::mem::take(&mut self.commands);
         let project_open = self.project_open();
@@ -539,10 +543,16 @@ impl OfftakeApp {
             }
             Command::ImportWeather => self.import_weather(),
             Command::ExportWorkbook => {
-                self.state.message = Some(
-                    "Weather import and workbook export are not available in this build yet"
-                        .to_owned(),
-                );
+                if self.dialogs {
+                    if let Some(dir) = rfd::FileDialog::new()
+                        .set_title("Folder for the result tables and workbook")
+                        .pick_folder()
+                    {
+                        self.export_tables_to(&dir);
+                    }
+                } else {
+                    self.state.message = Some("File dialogs are off".to_owned());
+                }
             }
             Command::DiscardAndRun(inner) => {
                 self.clear_recovery();
@@ -860,6 +870,66 @@ impl OfftakeApp {
             // The receiver lives as long as the app; a closed window drops the image.
             let _ = tx.send(PendingImage { file_name, image });
             repaint.request_repaint();
+        });
+    }
+
+    /// Writes the result tables and workbook of the current results into
+    /// `dir` on a background thread (the same files as `offtake run`); the
+    /// status line reports the outcome.
+    pub fn export_tables_to(&mut self, dir: &std::path::Path) {
+        let run = self
+            .computed
+            .as_ref()
+            .and_then(|c| c.engine.as_ref())
+            .and_then(|e| e.as_ref().ok())
+            .map(|r| Arc::clone(&r.results));
+        let (Some(results), Some(doc)) = (run, &self.document) else {
+            self.state.message = Some(
+                "Nothing to export yet: the scheme needs weather and a finished computation"
+                    .to_owned(),
+            );
+            return;
+        };
+        let project = doc.project.clone();
+        let dir = dir.to_path_buf();
+        let (tx, rx) = mpsc::channel();
+        std::thread::spawn(move || {
+            let outcome = crate::export::write_tables(&results, &project, &dir);
+            let _ = tx.send((dir, outcome));
+        });
+        self.export_job = Some(rx);
+        self.state.message = Some("Writing the result tables…".to_owned());
+    }
+
+    /// Blocks until a running export finishes (at most `timeout`). For tests.
+    pub fn wait_for_export(&mut self, timeout: Duration) {
+        if let Some(rx) = self.export_job.take() {
+            match rx.recv_timeout(timeout) {
+                Ok(done) => self.export_done(done),
+                Err(_) => self.export_job = Some(rx),
+            }
+        }
+    }
+
+    fn poll_export(&mut self, ctx: &egui::Context) {
+        if let Some(rx) = self.export_job.take() {
+            match rx.try_recv() {
+                Ok(done) => self.export_done(done),
+                Err(mpsc::TryRecvError::Empty) => {
+                    self.export_job = Some(rx);
+                    ctx.request_repaint_after(Duration::from_millis(100));
+                }
+                Err(mpsc::TryRecvError::Disconnected) => {
+                    self.state.message = Some("The export stopped unexpectedly".to_owned());
+                }
+            }
+        }
+    }
+
+    fn export_done(&mut self, (dir, outcome): (std::path::PathBuf, Result<Vec<String>, String>)) {
+        self.state.message = Some(match outcome {
+            Ok(files) => format!("Wrote {} to {}", files.join(", "), dir.display()),
+            Err(e) => format!("Export failed: {e}"),
         });
     }
 

@@ -14,6 +14,7 @@
 //! - [`worker`]: debounced background recomputation on a thread.
 //! - [`compute`]: what the worker computes ([`compute::Snapshot`] in,
 //!   [`compute::Computed`] out) — the plug for the computation chain.
+//! - [`export`]: the result tables and workbook, as `offtake run` writes them.
 //! - [`import`]: the weather import window (background read, preview, warnings).
 //! - [`recovery`]: autosave to a recovery file and restore after a crash.
 //! - [`state`]: runtime state beside the document.
@@ -33,6 +34,7 @@ pub mod command;
 pub mod compute;
 pub mod document;
 pub mod edit;
+pub mod export;
 pub mod fields;
 pub mod help;
 pub mod history;

@@ -227,3 +227,35 @@ fn every_results_tab_draws_from_the_cached_results() {
     assert!(!season.days.is_empty());
     assert!(season.days.iter().all(|d| d.depletion_mm >= -1e-9 && d.ks <= 1.0 + 1e-9));
 }
+
+#[test]
+fn export_writes_the_tables_and_workbook_of_offtake_run() {
+    let mut h = demo_harness();
+    let dir = tempfile::tempdir().expect("temp dir");
+    h.state_mut().export_tables_to(dir.path());
+    h.state_mut().wait_for_export(Duration::from_secs(120));
+    h.run();
+    h.get_by_label_contains("Wrote design_values.csv");
+    for f in [
+        "design_values.csv",
+        "node_demand_daily.csv",
+        "block_requirements_daily.csv",
+        "demand_10day.csv",
+        "demand_monthly.csv",
+        "roster.csv",
+        "results.xlsx",
+    ] {
+        assert!(dir.path().join(f).is_file(), "{f} written");
+    }
+    let design = std::fs::read_to_string(dir.path().join("design_values.csv")).expect("csv");
+    let mut lines = design.lines();
+    assert_eq!(
+        lines.next(),
+        Some(offtake_io::export::DESIGN_VALUES_HEADERS.join(",").as_str())
+    );
+    let head = lines
+        .find(|l| l.starts_with("headworks,"))
+        .expect("headworks row");
+    let q: f64 = head.split(',').nth(2).expect("design flow").parse().expect("number");
+    assert!((q - engine_design_flow_ls()).abs() < 1e-6 * q);
+}
