@@ -11,6 +11,7 @@ use clap::{Parser, Subcommand};
 
 mod cmd_compare;
 mod cmd_et0;
+mod cmd_planting;
 mod cmd_run;
 mod cmd_weather_check;
 mod cmd_weather_stats;
@@ -31,6 +32,8 @@ enum Command {
     Run(cmd_run::Args),
     /// Compare the scenarios of a project side by side.
     Compare(cmd_compare::Args),
+    /// Net irrigation requirement of one planting over a weather record.
+    Planting(cmd_planting::Args),
     /// Weather series: quality checks and multi-year statistics.
     Weather {
         #[command(subcommand)]
@@ -52,6 +55,7 @@ fn main() -> ExitCode {
         Command::Et0(args) => cmd_et0::run(args),
         Command::Run(args) => cmd_run::run(args),
         Command::Compare(args) => cmd_compare::run(args),
+        Command::Planting(args) => cmd_planting::run(args),
         Command::Weather {
             command: WeatherCommand::Check(args),
         } => cmd_weather_check::run(args),

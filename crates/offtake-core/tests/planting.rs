@@ -472,3 +472,52 @@ fn bad_inputs_are_typed_errors() {
     };
     assert!(run_planting(&bad, &wx.view()).is_err());
 }
+
+mod properties {
+    use super::*;
+    use proptest::prelude::*;
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(24))]
+
+        /// Over random invented weather, window, strategy and initial
+        /// depletion: every cohort's daily table closes FAO-56 eq. 85, the
+        /// composite NIR is the area-weighted sum of the cohorts' NIR, and
+        /// every output is finite and not negative.
+        #[test]
+        fn every_cohort_closes_eq85(
+            et0 in prop::collection::vec(0.0f64..9.0, 400),
+            rain in prop::collection::vec(prop_oneof![3 => Just(0.0f64), 1 => 0.0f64..80.0], 400),
+            spread in 0u32..16,
+            strategy in prop::sample::select(vec!["refill", "interval", "depth", "deficit", "rainfed"]),
+            initial in 0.0f64..100.0,
+        ) {
+            let maize = crop("maize-grain");
+            let loam = soil("loam");
+            let wx = Wx { start: ymd(2004, 1, 1), et0, rain, u2: vec![2.0; 400], rhmin: vec![45.0; 400] };
+            let spec = PlantingSpec {
+                spread_days: spread,
+                strategy: strategy.parse().unwrap(),
+                initial_depletion_pct_of_taw: initial,
+                only_year: Some(2004),
+                ..PlantingSpec::new(&maize, &loam, 3, 10)
+            };
+            let whole = run_planting(&spec, &wx.view()).unwrap();
+            prop_assert!(whole.nir_mm.iter().chain(&whole.etc_adj_mm).chain(&whole.peff_mm)
+                .all(|v| v.is_finite() && *v >= 0.0));
+            let mut sum = vec![0.0; 400];
+            for (off, share) in cohort_offsets(spread) {
+                let single = PlantingSpec { spread_days: 0, first_planting_day: 10 + off, ..spec.clone() };
+                let d = season_detail(&single, &wx.view(), 2004).unwrap();
+                assert_eq85(&d.days, initial / 100.0 * d.days[0].taw_mm);
+                let r = run_planting(&single, &wx.view()).unwrap();
+                for (s, v) in sum.iter_mut().zip(&r.nir_mm) {
+                    *s += share * v;
+                }
+            }
+            for (a, b) in whole.nir_mm.iter().zip(&sum) {
+                prop_assert!((a - b).abs() < 1e-9);
+            }
+        }
+    }
+}

@@ -6,7 +6,6 @@
 //!
 //! Errors carry the file, line and column of the offending cell and say what
 //! was found and what was expected.
-
 pub mod export;
 pub mod library;
 pub mod project_file;

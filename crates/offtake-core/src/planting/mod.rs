@@ -63,6 +63,8 @@
 //! With [`LeachingInput`] the leaching requirement LR (FAO-29, see
 //! [`crate::salinity::leaching_requirement`]) is found from the irrigation
 //! water ECw and the crop's threshold ECe, and NIR becomes NIR ÷ (1 − LR).
+//! Not for paddy rice, whose requirement already contains the seepage and
+//! percolation that leach the root zone ([`PlantingWarning::LeachingNotForPaddy`]).
 //!
 //! # Yield
 //!
@@ -232,7 +234,8 @@ pub struct SeasonSummary {
     pub nir_mm: f64,
     /// Σ net irrigation at the root zone (before leaching).
     pub net_irrigation_mm: f64,
-    /// Mean number of irrigations per cohort (area-weighted).
+    /// Mean number of irrigations per cohort (area-weighted); paddy: days
+    /// with a requirement.
     pub irrigation_count: f64,
     /// Σ deep percolation (paddy: seepage and percolation).
     pub deep_perc_mm: f64,
@@ -282,6 +285,10 @@ pub enum PlantingWarning {
         /// Crop id.
         crop: String,
     },
+    /// Leaching was asked for a paddy crop and not applied: the seepage and
+    /// percolation in the paddy requirement already pass water through the
+    /// root zone, so adding LR would count that water twice.
+    LeachingNotForPaddy,
     /// The delivered depth was less than the requirement of a paddy or
     /// period-method planting on some days; the shortfall is not carried.
     DeliveryShortfall {
@@ -290,6 +297,42 @@ pub enum PlantingWarning {
         /// Total shortfall (mm).
         shortfall_mm: f64,
     },
+}
+
+impl std::fmt::Display for PlantingWarning {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            Self::SeasonCut { year, start, end } => write!(
+                f,
+                "season {year} ({start} to {end}) runs past the start or end of the weather record: simulated over the days inside, left out of statistics"
+            ),
+            Self::PaddySeasonNotComputed { year } => write!(
+                f,
+                "paddy season {year}: land preparation to harvest is not wholly inside the weather record; not computed"
+            ),
+            Self::LeapDayPlantingMoved { year } => {
+                write!(
+                    f,
+                    "{year} is not a leap year: planting on 28 February instead of 29"
+                )
+            }
+            Self::SeasonsOverlap { season_days } => write!(
+                f,
+                "first planting to last harvest takes {season_days} days, more than a year: seasons of successive years overlap and their requirements add up"
+            ),
+            Self::KyUnknown { crop } => write!(
+                f,
+                "crop `{crop}` has no seasonal yield response factor: Ky = 1 used (FAO-56 p. 176)"
+            ),
+            Self::LeachingNotForPaddy => f.write_str(
+                "leaching not applied to paddy rice: its seepage and percolation already leach the root zone"
+            ),
+            Self::DeliveryShortfall { days, shortfall_mm } => write!(
+                f,
+                "delivery below the requirement on {days} day(s), {shortfall_mm:.1} mm in all; the shortfall is not carried forward"
+            ),
+        }
+    }
 }
 
 /// The result of one planting over the record.

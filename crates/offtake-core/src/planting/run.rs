@@ -24,7 +24,6 @@ struct Prepared<'s, 'w> {
     spec: &'s PlantingSpec<'s>,
     weather: &'w PlantingWeather<'w>,
     n: usize,
-    climate: Vec<DayClimate>,
     runoff: RunoffRule,
     lr: f64,
     ky: f64,
@@ -120,8 +119,13 @@ fn prepare<'s, 'w>(
         )?;
     }
     let mut warnings = Vec::new();
+    let paddy = spec.crop.group == CropGroup::PaddyRice && !is_chain(spec);
     let lr = match spec.leaching {
         None => 0.0,
+        Some(_) if paddy => {
+            warnings.push(PlantingWarning::LeachingNotForPaddy);
+            0.0
+        }
         Some(l) => {
             let ece = match (l.ece_ds_m, spec.crop.salinity) {
                 (Some(e), _) => e,
@@ -147,17 +151,10 @@ fn prepare<'s, 'w>(
         curve_number: Some(spec.soil.curve_number),
         max_infiltration_mm_day: Some(spec.soil.max_infiltration_mm_day),
     });
-    let climate = weather
-        .wind_2m_ms
-        .iter()
-        .zip(weather.rhmin_pct)
-        .map(|(&u2_ms, &rhmin_pct)| DayClimate { u2_ms, rhmin_pct })
-        .collect();
     Ok(Prepared {
         spec,
         weather,
         n,
-        climate,
         runoff,
         lr,
         ky,
@@ -181,22 +178,28 @@ fn crop_series(
     length: Option<u32>,
 ) -> Result<CropSeries, PlantingError> {
     let s = index_of(p.weather, start);
-    let padded;
-    let climate = if s >= 0 {
-        &p.climate[(s as usize).min(p.n)..]
-    } else {
-        let missing = DayClimate {
-            u2_ms: f64::NAN,
-            rhmin_pct: f64::NAN,
-        };
-        padded = std::iter::repeat_n(missing, (-s) as usize)
-            .chain(p.climate.iter().copied())
-            .collect::<Vec<_>>();
-        &padded[..]
-    };
+    let days = i64::from(length.unwrap_or_else(|| p.spec.crop.stages.total_days()));
+    // The season's own weather days; days outside the record are missing (NaN)
+    // and left out of the stage means.
+    let climate: Vec<DayClimate> = (s..s + days)
+        .map(|g| {
+            if g >= 0 && (g as usize) < p.n {
+                let g = g as usize;
+                DayClimate {
+                    u2_ms: p.weather.wind_2m_ms[g],
+                    rhmin_pct: p.weather.rhmin_pct[g],
+                }
+            } else {
+                DayClimate {
+                    u2_ms: f64::NAN,
+                    rhmin_pct: f64::NAN,
+                }
+            }
+        })
+        .collect();
     let season = SeasonSpec {
         length_days: length,
-        climate: ClimateInput::Daily(climate),
+        climate: ClimateInput::Daily(&climate),
         ..SeasonSpec::new(start)
     };
     Ok(crop_season_series(p.spec.crop, &season)?)
@@ -502,11 +505,9 @@ fn summarise(
     for c in cohorts {
         let w = c.share;
         let (mut etc, mut etc_adj) = (0.0, 0.0);
-        for (i, d) in c.days.iter().enumerate() {
-            let g = c.first + i;
-            if g < lo || g >= hi {
-                continue;
-            }
+        let from = lo.saturating_sub(c.first).min(c.days.len());
+        let to = hi.saturating_sub(c.first).min(c.days.len()).max(from);
+        for d in &c.days[from..to] {
             s.et0_mm += w * d.et0_mm;
             etc += d.etc_mm;
             etc_adj += d.etc_adj_mm;
@@ -558,7 +559,7 @@ fn irrigation_years(
         }
         let next = anniversary(y + 1, m, d, &mut Vec::new())?;
         let hi = index_of(p.weather, next);
-        let complete = hi <= p.n as i64 && hi <= chain_end;
+        let complete = lo >= 0 && hi <= p.n as i64 && hi <= chain_end;
         years.push((
             y,
             lo.max(0) as usize,

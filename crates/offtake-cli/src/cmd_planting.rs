@@ -1,0 +1,333 @@
+//! `offtake planting --weather FILE.csv --lat DEG --elevation M
+//! [--wind-height M] --crop ID --plant YYYY-MM-DD [--every-year] [--soil ID]
+//! [--strategy refill|interval|depth|deficit|rainfed] [--out FILE.csv]`
+//!
+//! Reads the weather file through the common importer, computes ET₀ (FAO-56
+//! Penman–Monteith with the missing-data procedures), u2 from the wind height
+//! (FAO-56 eq. 47) and RHmin (measured, else FAO-56 eq. 63 from the dewpoint,
+//! else eq. 64 from Tmin), runs the planting (`offtake_core::planting`) and
+//! prints the totals of each season. `--out` writes the daily table of every
+//! season as CSV: `date,et0_mm,kc,etc_mm,etc_adj_mm,rain_mm,peff_mm,
+//! irrigation_mm,runoff_mm,deep_perc_mm,depletion_mm,taw_mm,raw_mm,ks,season`
+//! (depletion at the end of the day; `season` is the year of the season's
+//! first planting date).
+//!
+//! The balance needs every day: a missing day, a day whose ET₀ cannot be
+//! computed, or a blank rain stops the command with `file:line:column`.
+
+use std::fmt::Write as _;
+use std::path::PathBuf;
+
+use anyhow::{Context, Result, bail};
+use chrono::{Datelike, NaiveDate};
+use clap::Args as ClapArgs;
+use offtake_core::balance::Strategy;
+use offtake_core::crop::climate::{rhmin_from_dewpoint_pct, rhmin_from_tmin_pct};
+use offtake_core::et0::wind::wind_2m_ms;
+use offtake_core::et0::{Et0Context, Et0Options};
+use offtake_core::planting::{
+    PlantingSpec, PlantingWarning, PlantingWeather, SeasonSummary, run_planting, season_detail,
+};
+use offtake_io::library::Libraries;
+use offtake_io::weather::SourceLocation;
+
+use crate::cmd_weather_check::{DateFormatArg, read_series, site_from_args, write_atomically};
+
+/// Header of the daily table written by `--out` (a stable contract).
+pub const DAILY_HEADER: &str = "date,et0_mm,kc,etc_mm,etc_adj_mm,rain_mm,peff_mm,irrigation_mm,runoff_mm,deep_perc_mm,depletion_mm,taw_mm,raw_mm,ks,season";
+
+/// Arguments of `offtake planting`.
+#[derive(Debug, ClapArgs)]
+pub struct Args {
+    /// Weather CSV file.
+    #[arg(long)]
+    pub weather: PathBuf,
+    /// Station latitude in decimal degrees (north positive).
+    #[arg(long, allow_hyphen_values = true)]
+    pub lat: f64,
+    /// Station elevation above sea level (m).
+    #[arg(long, allow_hyphen_values = true)]
+    pub elevation: f64,
+    /// Wind measurement height above the ground (m); default: the mapping's
+    /// stated height, else 2 m.
+    #[arg(long)]
+    pub wind_height: Option<f64>,
+    /// Crop id in the crop library (e.g. maize-grain).
+    #[arg(long)]
+    pub crop: String,
+    /// Planting date, YYYY-MM-DD.
+    #[arg(long)]
+    pub plant: String,
+    /// Repeat the planting date (month and day) in every year of the record.
+    #[arg(long)]
+    pub every_year: bool,
+    /// Soil id in the soil library.
+    #[arg(long, default_value = "loam")]
+    pub soil: String,
+    /// Irrigation strategy: refill (at 100 % of RAW), interval, depth, deficit, rainfed.
+    #[arg(long, default_value = "refill")]
+    pub strategy: String,
+    /// Output CSV file for the daily table (written atomically).
+    #[arg(long)]
+    pub out: Option<PathBuf>,
+    /// Column mapping file (RON) for files not using Offtake's column names.
+    #[arg(long)]
+    pub mapping: Option<PathBuf>,
+    /// Date format when the file's dates are day/month or month/day ordered.
+    #[arg(long, value_enum)]
+    pub date_format: Option<DateFormatArg>,
+}
+
+/// Daily series aligned from the first day of the file.
+struct Series {
+    start: NaiveDate,
+    et0: Vec<f64>,
+    rain: Vec<f64>,
+    u2: Vec<f64>,
+    rhmin: Vec<f64>,
+}
+
+fn read_weather(args: &Args) -> Result<Series> {
+    let imported = read_series(&args.weather, args.mapping.as_deref(), args.date_format)?;
+    for w in &imported.warnings {
+        eprintln!("{w}");
+    }
+    let wind_height = args.wind_height.or(imported.wind_height_m);
+    let site = site_from_args(Some(args.lat), Some(args.elevation), wind_height)?
+        .context("station site")?;
+    let context = Et0Context::new(&site, &Et0Options::default()).context("station site")?;
+    let file = args.weather.display().to_string();
+    let at = |line: u64| SourceLocation {
+        file: file.clone(),
+        line,
+        column: 1,
+    };
+    let Some(first) = imported.days.first() else {
+        bail!("{}: no data rows", at(2));
+    };
+    let start = first.date;
+    let n = imported.days.len();
+    let mut s = Series {
+        start,
+        et0: Vec::with_capacity(n),
+        rain: Vec::with_capacity(n),
+        u2: Vec::with_capacity(n),
+        rhmin: Vec::with_capacity(n),
+    };
+    let mut expected = start;
+    for (day, &line) in imported.days.iter().zip(&imported.lines) {
+        if day.date != expected {
+            bail!(
+                "{}: date {} follows a gap (expected {expected}); the water balance needs every day: fill the gaps first",
+                at(line),
+                day.date
+            );
+        }
+        expected = day.date.succ_opt().context("date out of range")?;
+        let et0 = context.et0_mm_day(day).map_err(|e| {
+            anyhow::anyhow!("{}: {}: ET0 cannot be computed: {e}", at(line), day.date)
+        })?;
+        let Some(rain) = day.rain_mm else {
+            bail!(
+                "{}: {}: rain_mm is blank; expected a rain depth in mm (0 for a dry day)",
+                at(line),
+                day.date
+            );
+        };
+        if !(rain.is_finite() && rain >= 0.0) {
+            bail!(
+                "{}: {}: rain_mm found {rain}; expected a depth of 0 mm or more",
+                at(line),
+                day.date
+            );
+        }
+        let u2 = match day.wind_ms {
+            Some(w) => wind_2m_ms(w, site.wind_height_m).unwrap_or(f64::NAN),
+            None => f64::NAN,
+        };
+        let rhmin = match (day.rhmin_pct, day.tdew_c, day.tmin_c, day.tmax_c) {
+            (Some(rh), _, _, _) => rh,
+            (None, Some(td), _, Some(tx)) => rhmin_from_dewpoint_pct(td, tx).unwrap_or(f64::NAN),
+            (None, None, Some(tn), Some(tx)) => {
+                rhmin_from_tmin_pct(tn, tx, false).unwrap_or(f64::NAN)
+            }
+            _ => f64::NAN,
+        };
+        s.et0.push(et0);
+        s.rain.push(rain);
+        s.u2.push(u2);
+        s.rhmin.push(rhmin);
+    }
+    Ok(s)
+}
+
+fn parse_date(text: &str) -> Result<NaiveDate> {
+    NaiveDate::parse_from_str(text.trim(), "%Y-%m-%d").map_err(|_| {
+        anyhow::anyhow!("--plant: found \"{text}\", expected a calendar date YYYY-MM-DD")
+    })
+}
+
+fn season_line(s: &SeasonSummary) -> String {
+    format!(
+        "{:>6}  {} to {}  {:>8.1} {:>8.1} {:>7.1} {:>7.1} {:>8.1} {:>5.1} {:>7.1} {:>7.1} {:>6.1}{}",
+        s.year,
+        s.start,
+        s.end,
+        s.etc_mm,
+        s.etc_adj_mm,
+        s.rain_mm,
+        s.peff_mm,
+        s.nir_mm,
+        s.irrigation_count,
+        s.deep_perc_mm,
+        s.runoff_mm,
+        100.0 * s.relative_yield_loss,
+        if s.complete {
+            ""
+        } else {
+            "  cut by the record: excluded from statistics"
+        }
+    )
+}
+
+/// Runs the command.
+///
+/// # Errors
+/// An unknown crop, soil or strategy, a bad date, unreadable or incomplete
+/// weather, a computation error, or a failed write.
+pub fn run(args: &Args) -> Result<()> {
+    let libs = Libraries::builtin().context("built-in libraries")?;
+    let Some(crop) = libs.crop(&args.crop) else {
+        let ids: Vec<&str> = libs.crops.iter().map(|c| c.id.as_str()).collect();
+        bail!(
+            "--crop: unknown crop id \"{}\"; valid ids: {}",
+            args.crop,
+            ids.join(", ")
+        );
+    };
+    let Some(soil) = libs.soil(&args.soil) else {
+        let ids: Vec<&str> = libs.soils.iter().map(|s| s.id.as_str()).collect();
+        bail!(
+            "--soil: unknown soil id \"{}\"; valid ids: {}",
+            args.soil,
+            ids.join(", ")
+        );
+    };
+    let strategy: Strategy = args
+        .strategy
+        .parse()
+        .map_err(|e| anyhow::anyhow!("--strategy: {e}"))?;
+    let plant = parse_date(&args.plant)?;
+    let series = read_weather(args)?;
+    let weather = PlantingWeather {
+        start: series.start,
+        et0_mm: &series.et0,
+        rain_mm: &series.rain,
+        wind_2m_ms: &series.u2,
+        rhmin_pct: &series.rhmin,
+    };
+    let spec = PlantingSpec {
+        strategy,
+        only_year: (!args.every_year).then_some(plant.year()),
+        ..PlantingSpec::new(crop, soil, plant.month(), plant.day())
+    };
+    let result = run_planting(&spec, &weather).context("planting")?;
+    if result.seasons.is_empty() {
+        bail!(
+            "--plant: no season planted on {} falls within the weather record ({} to {})",
+            if args.every_year {
+                format!("{:02}-{:02} of any year", plant.month(), plant.day())
+            } else {
+                plant.to_string()
+            },
+            series.start,
+            series.start + chrono::Days::new(series.et0.len() as u64 - 1)
+        );
+    }
+    for w in &result.warnings {
+        match w {
+            PlantingWarning::SeasonCut { .. } => {}
+            other => eprintln!("warning: {other}"),
+        }
+    }
+
+    let mut text = String::new();
+    let _ = writeln!(
+        text,
+        "planting: {} ({}) on {} ({}), strategy {}, {}",
+        crop.name,
+        crop.id,
+        soil.name,
+        soil.id,
+        spec.strategy,
+        if args.every_year {
+            format!("planted {:02}-{:02} every year", plant.month(), plant.day())
+        } else {
+            format!("planted {plant}")
+        }
+    );
+    let _ = writeln!(
+        text,
+        "{:>6}  {:<24}  {:>8} {:>8} {:>7} {:>7} {:>8} {:>5} {:>7} {:>7} {:>6}",
+        "season", "dates", "ETc", "ETc adj", "rain", "Peff", "net irr", "irr n", "DP", "RO", "loss"
+    );
+    let _ = writeln!(
+        text,
+        "{:>6}  {:<24}  {:>8} {:>8} {:>7} {:>7} {:>8} {:>5} {:>7} {:>7} {:>6}",
+        "", "", "mm", "mm", "mm", "mm", "mm", "count", "mm", "mm", "%"
+    );
+    for s in &result.seasons {
+        let _ = writeln!(text, "{}", season_line(s));
+    }
+    let complete: Vec<&SeasonSummary> = result.seasons.iter().filter(|s| s.complete).collect();
+    if !complete.is_empty() {
+        let k = complete.len() as f64;
+        let mean = |f: fn(&SeasonSummary) -> f64| complete.iter().map(|s| f(s)).sum::<f64>() / k;
+        let _ = writeln!(
+            text,
+            "mean of {} complete season(s): ETc {:.1} mm, net irrigation {:.1} mm, yield loss {:.1} %",
+            complete.len(),
+            mean(|s| s.etc_mm),
+            mean(|s| s.nir_mm),
+            100.0 * mean(|s| s.relative_yield_loss)
+        );
+    }
+    let _ = writeln!(
+        text,
+        "Planning estimates: designs must be checked by a qualified engineer."
+    );
+    print!("{text}");
+
+    if let Some(path) = &args.out {
+        let mut csv = String::with_capacity(160 * series.et0.len());
+        csv.push_str(DAILY_HEADER);
+        csv.push('\n');
+        for s in &result.seasons {
+            let year = s.year;
+            let detail = season_detail(&spec, &weather, year).context("daily table")?;
+            for (i, d) in detail.days.iter().enumerate() {
+                let date = detail.first_date + chrono::Days::new(i as u64);
+                let _ = writeln!(
+                    csv,
+                    "{date},{:.3},{:.4},{:.3},{:.3},{:.2},{:.3},{:.3},{:.3},{:.3},{:.3},{:.3},{:.3},{:.4},{year}",
+                    d.et0_mm,
+                    d.kc,
+                    d.etc_mm,
+                    d.etc_adj_mm,
+                    d.rain_mm,
+                    d.peff_mm,
+                    d.irrigation_mm,
+                    d.runoff_mm,
+                    d.deep_perc_mm,
+                    d.depletion_mm,
+                    d.taw_mm,
+                    d.raw_mm,
+                    d.ks
+                );
+            }
+        }
+        write_atomically(path, csv.as_bytes())?;
+        eprintln!("daily table written to {}", path.display());
+    }
+    Ok(())
+}
