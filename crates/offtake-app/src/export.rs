@@ -90,11 +90,15 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
     if let Some(h) = r.headworks() {
         let _ = writeln!(
             s,
-            "Headworks design flow: {} l/s ({:.2} m3/s), {:.0} % non-exceedance of the yearly peak {:?} flow; design year {}",
+            "Headworks design flow: {} l/s ({:.2} m3/s), {:.0} % non-exceedance of the yearly peak {} mean flow; design year {}",
             fmt_int(h.design_flow_ls),
             h.design_flow_ls / 1000.0,
             h.non_exceedance * 100.0,
-            h.basis,
+            match h.basis {
+                offtake_core::scheme::DesignBasis::TenDay => "10-day",
+                offtake_core::scheme::DesignBasis::Monthly => "monthly",
+                offtake_core::scheme::DesignBasis::Daily => "daily",
+            },
             h.design_year.label()
         );
         let _ = writeln!(
@@ -142,7 +146,7 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
                 .map_or((0, 0.0), |f| (f.days.len(), f.volume_not_delivered_m3));
             let _ = writeln!(
                 s,
-                "  {}: capacity {} l/s, required {} l/s ({}); short on {} days, {} m3 not delivered over the record",
+                "  {}: capacity {} l/s, required {} l/s ({}); daily demand above capacity on {} days, {} m3 not delivered over the record",
                 d.name,
                 fmt_int(cap),
                 fmt_int(d.required_capacity_ls),
