@@ -95,13 +95,15 @@ pub struct OfftakeApp {
     offer_recovery: bool,
     /// The weather import window, while open.
     pub import: Option<crate::import::ImportJob>,
-    /// The season asked of the worker with the last request.
-    requested_season: Option<SeasonRequest>,
-    /// Whether the last request asked for the scenario comparison.
-    requested_compare: bool,
-    /// A running export of the result tables: (folder, outcome).
-    export_job: Option<Receiver<(std::path::PathBuf, Result<Vec<String>, String>)>>,
+    /// What the last request asked of the worker besides the project: the
+    /// season, and whether to compare the scenarios.
+    requested: (Option<SeasonRequest>, bool),
+    /// A running export of the result tables.
+    export_job: Option<Receiver<ExportOutcome>>,
 }
+
+/// The folder an export wrote to and the files written, or why it failed.
+type ExportOutcome = (std::path::PathBuf, Result<Vec<String>, String>);
 
 impl std::fmt::Debug for OfftakeApp {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
@@ -167,8 +169,7 @@ impl OfftakeApp {
             recovery: None,
             offer_recovery: false,
             import: None,
-            requested_season: None,
-            requested_compare: false,
+            requested: (None, false),
             export_job: None,
         }
     }
@@ -297,8 +298,7 @@ impl OfftakeApp {
                 scenario: self.state.scenario.clone(),
                 compare: self.state.tab == crate::command::Tab::Compare,
             };
-            self.requested_season = snapshot.season.clone();
-            self.requested_compare = snapshot.compare;
+            self.requested = (snapshot.season.clone(), snapshot.compare);
             self.worker.request(snapshot, Instant::now());
             self.state.recompute = RecomputeStatus::Running;
         }
@@ -450,9 +450,7 @@ impl OfftakeApp {
         // A new selection or season year: ask the worker for that season's
         // balance (the engine results are reused from its cache).
         let wants_compare = self.state.tab == crate::command::Tab::Compare;
-        if self.season_request() != self.requested_season
-            || (wants_compare && !self.requested_compare)
-        {
+        if self.season_request() != self.requested.0 || (wants_compare && !self.requested.1) {
             self.request_recompute();
         }
         self.autosave(false);
@@ -576,7 +574,9 @@ impl OfftakeApp {
     pub fn season_request(&self) -> Option<SeasonRequest> {
         let project = &self.document.as_ref()?.project;
         let planting = match &self.state.selection {
-            Selection::Item(ItemRef::Planting(id)) => project.plantings.iter().find(|p| p.id == *id),
+            Selection::Item(ItemRef::Planting(id)) => {
+                project.plantings.iter().find(|p| p.id == *id)
+            }
             Selection::Item(ItemRef::Block(id)) => {
                 project.plantings.iter().find(|p| p.block == *id)
             }
@@ -926,7 +926,7 @@ impl OfftakeApp {
         }
     }
 
-    fn export_done(&mut self, (dir, outcome): (std::path::PathBuf, Result<Vec<String>, String>)) {
+    fn export_done(&mut self, (dir, outcome): ExportOutcome) {
         self.state.message = Some(match outcome {
             Ok(files) => format!("Wrote {} to {}", files.join(", "), dir.display()),
             Err(e) => format!("Export failed: {e}"),

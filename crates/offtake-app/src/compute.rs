@@ -274,15 +274,18 @@ pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
     })
 }
 
+/// The weather file and its modification time.
+type WeatherKey = (PathBuf, Option<std::time::SystemTime>);
+
+/// What engine results depend on: the project, the scenario shown, the
+/// weather file.
+type EngineKey = (Project, Option<String>, Option<WeatherKey>);
+
 /// Engine results kept while the project and the weather file stay the same
 /// (a selection change asks only for a season's balance).
 #[derive(Default)]
 struct EngineCache {
-    key: Option<(
-        Project,
-        Option<String>,
-        Option<(PathBuf, Option<std::time::SystemTime>)>,
-    )>,
+    key: Option<EngineKey>,
     run: Option<Result<EngineRun, String>>,
     comparison: Option<Result<Comparison, String>>,
     /// Weather prepared as the engine prepares it (gaps filled), for season
@@ -382,8 +385,7 @@ pub fn prepared_weather(project: &Project, days: &[WeatherDay]) -> Result<Prepar
             _ => *d,
         })
         .collect();
-    let filled =
-        fill_gaps(&cleaned, &GapFillOptions::default(), &[]).map_err(|e| e.to_string())?;
+    let filled = fill_gaps(&cleaned, &GapFillOptions::default(), &[]).map_err(|e| e.to_string())?;
     engine::weather_prep::prepare_weather(
         &filled.days,
         &site,

@@ -47,7 +47,6 @@ pub const ROSTER_HEADERS: [&str; 7] = [
     "volume_m3",
 ];
 
-
 fn fmt_int(v: f64) -> String {
     let s = format!("{:.0}", v.abs());
     let mut out = String::new();
@@ -307,7 +306,6 @@ pub fn tables(r: &Results, project: &Project) -> Vec<Table> {
     out.push(summary);
     out
 }
-
 
 /// Writes every table of a run into `out` (created if needed): the CSV
 /// files and the workbook, as `offtake run --out DIR` does. Returns the

@@ -354,8 +354,7 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
                         })
                         .collect();
                     plot_ui.bar_chart(
-                        BarChart::new(s.name.clone(), bars)
-                            .color(s.colour.gamma_multiply(0.25)),
+                        BarChart::new(s.name.clone(), bars).color(s.colour.gamma_multiply(0.25)),
                     );
                 }
                 SeriesKind::Level => {

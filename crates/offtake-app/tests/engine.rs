@@ -38,7 +38,7 @@ fn demo_harness() -> Harness<'static, OfftakeApp> {
 fn settle(h: &mut Harness<'static, OfftakeApp>) {
     for _ in 0..2 {
         h.run();
-        h.state_mut().wait_for_recompute(Duration::from_secs(60));
+        h.state_mut().wait_for_recompute(Duration::from_mins(1));
     }
     h.run();
 }
@@ -179,7 +179,9 @@ fn invalid_field_shows_its_error_and_keeps_the_project_and_results() {
     let mut h = demo_harness();
     let before = h.state().project().expect("demo").clone();
     h.state_mut()
-        .push(Command::Select(Selection::Item(ItemRef::Block("C1".to_owned()))));
+        .push(Command::Select(Selection::Item(ItemRef::Block(
+            "C1".to_owned(),
+        ))));
     h.run();
     let field = h.get_by_label("Application efficiency Ea");
     field.focus();
@@ -198,7 +200,12 @@ fn invalid_field_shows_its_error_and_keeps_the_project_and_results() {
     assert!((p.block("C1").expect("C1").method.application_efficiency - 1.5).abs() < 1e-12);
     h.get_by_label("Application efficiency must be between 1 % and 100 %");
     // Results are still there (an invalid project is reported, never lost).
-    assert!(h.state().computed.as_ref().is_some_and(|c| c.engine.is_some()));
+    assert!(
+        h.state()
+            .computed
+            .as_ref()
+            .is_some_and(|c| c.engine.is_some())
+    );
 }
 
 #[test]
@@ -225,7 +232,12 @@ fn every_results_tab_draws_from_the_cached_results() {
         .expect("season asked");
     let season = season.expect("season computed");
     assert!(!season.days.is_empty());
-    assert!(season.days.iter().all(|d| d.depletion_mm >= -1e-9 && d.ks <= 1.0 + 1e-9));
+    assert!(
+        season
+            .days
+            .iter()
+            .all(|d| d.depletion_mm >= -1e-9 && d.ks <= 1.0 + 1e-9)
+    );
 }
 
 #[test]
@@ -233,7 +245,7 @@ fn export_writes_the_tables_and_workbook_of_offtake_run() {
     let mut h = demo_harness();
     let dir = tempfile::tempdir().expect("temp dir");
     h.state_mut().export_tables_to(dir.path());
-    h.state_mut().wait_for_export(Duration::from_secs(120));
+    h.state_mut().wait_for_export(Duration::from_mins(2));
     h.run();
     h.get_by_label_contains("Wrote design_values.csv");
     for f in [
@@ -256,6 +268,11 @@ fn export_writes_the_tables_and_workbook_of_offtake_run() {
     let head = lines
         .find(|l| l.starts_with("headworks,"))
         .expect("headworks row");
-    let q: f64 = head.split(',').nth(2).expect("design flow").parse().expect("number");
+    let q: f64 = head
+        .split(',')
+        .nth(2)
+        .expect("design flow")
+        .parse()
+        .expect("number");
     assert!((q - engine_design_flow_ls()).abs() < 1e-6 * q);
 }

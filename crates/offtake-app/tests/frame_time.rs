@@ -22,14 +22,14 @@ fn panning_a_25_year_daily_plot() {
         env!("CARGO_MANIFEST_DIR"),
         "/../../demo-projects/demo-scheme/scheme.ron"
     )));
-    app.wait_for_recompute(Duration::from_secs(120));
+    app.wait_for_recompute(Duration::from_mins(2));
     app.push(Command::SelectTab(Tab::CanalCapacity));
     app.tabs.capacity.year = YearChoice::Record;
     let mut h = Harness::builder()
         .with_size(egui::vec2(1600.0, 1000.0))
         .build_ui_state(|ui, app: &mut OfftakeApp| app.ui(ui), app);
     h.run();
-    h.state_mut().wait_for_recompute(Duration::from_secs(120));
+    h.state_mut().wait_for_recompute(Duration::from_mins(2));
     h.run();
     let run = h
         .state()

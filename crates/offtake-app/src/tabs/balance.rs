@@ -22,7 +22,11 @@ pub struct WaterBalanceTab {}
 pub fn season_plots(s: &SeasonView) -> (PlotSpec, PlotSpec) {
     let x = |i: usize| date_to_x(s.first_date + Days::new(i as u64));
     let pick = |f: fn(&offtake_core::balance::BalanceDay) -> f64| -> Vec<[f64; 2]> {
-        s.days.iter().enumerate().map(|(i, d)| [x(i), f(d)]).collect()
+        s.days
+            .iter()
+            .enumerate()
+            .map(|(i, d)| [x(i), f(d)])
+            .collect()
     };
     let events = |f: fn(&offtake_core::balance::BalanceDay) -> f64| -> Vec<[f64; 2]> {
         s.days
@@ -125,9 +129,12 @@ impl WaterBalanceTab {
         );
         let (depth, ks) = season_plots(s);
         let h = ui.available_height();
-        ui.allocate_ui(egui::vec2(ui.available_width(), (h * 0.68).max(200.0)), |ui| {
-            plot::show(ui, &depth, commands);
-        });
+        ui.allocate_ui(
+            egui::vec2(ui.available_width(), (h * 0.68).max(200.0)),
+            |ui| {
+                plot::show(ui, &depth, commands);
+            },
+        );
         plot::show(ui, &ks, commands);
     }
 }

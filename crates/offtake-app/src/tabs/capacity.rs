@@ -3,6 +3,7 @@
 //! shaded; the table of design values per canal and headworks, and how the
 //! design flow was computed.
 
+use std::fmt::Write as _;
 use std::sync::Arc;
 
 use chrono::Days;
@@ -80,7 +81,11 @@ fn day_range(r: &Results, d: &NodeDesign, choice: YearChoice) -> std::ops::Range
     let year = match choice {
         YearChoice::Record => return 0..r.days,
         YearChoice::Design => Some(d.design_year),
-        YearChoice::Year(y) => r.complete_years.iter().copied().find(|iy| iy.start_year() == y),
+        YearChoice::Year(y) => r
+            .complete_years
+            .iter()
+            .copied()
+            .find(|iy| iy.start_year() == y),
     };
     let Some(year) = year else {
         return 0..r.days;
@@ -151,8 +156,16 @@ fn hydrograph(r: &Results, project: &Project, d: &NodeDesign, choice: YearChoice
 /// The "How was this computed?" text of a node's design flow.
 pub fn explanation(project: &Project, r: &Results, d: &NodeDesign) -> String {
     let n = d.years.len();
-    let first = r.complete_years.first().map(|y| y.label()).unwrap_or_default();
-    let last = r.complete_years.last().map(|y| y.label()).unwrap_or_default();
+    let first = r
+        .complete_years
+        .first()
+        .map(|y| y.label())
+        .unwrap_or_default();
+    let last = r
+        .complete_years
+        .last()
+        .map(|y| y.label())
+        .unwrap_or_default();
     let basis = basis_label(d.basis);
     let mut t = format!(
         "Design flow of {} = {} l/s: the {} % non-exceedance value of the yearly peak {basis} mean flow \
@@ -166,17 +179,19 @@ pub fn explanation(project: &Project, r: &Results, d: &NodeDesign) -> String {
         project.options.irrigation_year_start_month,
         d.design_year.label(),
     );
-    t.push_str(&format!(
-        "Required capacity = design flow × 24 h ÷ {} h of operation per day = {} l/s.\n",
+    let _ = writeln!(
+        t,
+        "Required capacity = design flow × 24 h ÷ {} h of operation per day = {} l/s.",
         format_number(d.hours_per_day, 1),
         format_sig(d.required_capacity_ls, 3)
-    ));
+    );
     if let Some(duty) = d.duty_ls_ha {
-        t.push_str(&format!(
-            "Duty = design flow ÷ {} ha commanded = {} l/s/ha.\n",
+        let _ = writeln!(
+            t,
+            "Duty = design flow ÷ {} ha commanded = {} l/s/ha.",
             format_sig(d.area_ha, 3),
             format_sig(duty, 3)
-        ));
+        );
     }
     t.push_str(
         "Demand at a node = Σ block NIR ÷ (application efficiency Ea × field-canal efficiency Eb), \
@@ -215,7 +230,11 @@ impl CanalCapacityTab {
         };
         let node = node_of_selection(r, project, view.selection);
         let Some(d) = r.design.iter().find(|d| d.node == node) else {
-            empty_state(ui, "No design values for this node", "Select a canal in the tree.");
+            empty_state(
+                ui,
+                "No design values for this node",
+                "Select a canal in the tree.",
+            );
             return;
         };
         self.controls(ui, project, r, d, node, commands);
@@ -258,9 +277,12 @@ impl CanalCapacityTab {
             egui::ComboBox::from_label("Node")
                 .selected_text(current)
                 .show_ui(ui, |ui| {
-                    for n in std::iter::once(Node::Headworks)
-                        .chain(r.design.iter().map(|x| x.node).filter(|n| *n != Node::Headworks))
-                    {
+                    for n in std::iter::once(Node::Headworks).chain(
+                        r.design
+                            .iter()
+                            .map(|x| x.node)
+                            .filter(|n| *n != Node::Headworks),
+                    ) {
                         if let Some(x) = r.design.iter().find(|x| x.node == n) {
                             ui.selectable_value(&mut chosen, n, node_label(project, x));
                         }
@@ -291,8 +313,16 @@ impl CanalCapacityTab {
             egui::ComboBox::from_label("Irrigation year")
                 .selected_text(text(self.year))
                 .show_ui(ui, |ui| {
-                    ui.selectable_value(&mut self.year, YearChoice::Design, text(YearChoice::Design));
-                    ui.selectable_value(&mut self.year, YearChoice::Record, text(YearChoice::Record));
+                    ui.selectable_value(
+                        &mut self.year,
+                        YearChoice::Design,
+                        text(YearChoice::Design),
+                    );
+                    ui.selectable_value(
+                        &mut self.year,
+                        YearChoice::Record,
+                        text(YearChoice::Record),
+                    );
                     for y in &r.complete_years {
                         let c = YearChoice::Year(y.start_year());
                         ui.selectable_value(&mut self.year, c, text(c));
@@ -311,7 +341,7 @@ fn yearly_peaks(ui: &mut Ui, d: &NodeDesign) {
         .collect();
     peaks.sort_by(|a, b| a.1.total_cmp(&b.1));
     let n = peaks.len();
-    egui::CollapsingHeader::new(format!("Yearly peaks of {} years, ranked", n))
+    egui::CollapsingHeader::new(format!("Yearly peaks of {n} years, ranked"))
         .id_salt("capacity-peaks")
         .show(ui, |ui| {
             egui::ScrollArea::vertical()
@@ -331,10 +361,7 @@ fn yearly_peaks(ui: &mut Ui, d: &NodeDesign) {
                             ui.label((i + 1).to_string());
                             ui.label(label);
                             ui.label(format_sig(*q, 3));
-                            ui.label(format_number(
-                                100.0 * (i + 1) as f64 / (n + 1) as f64,
-                                1,
-                            ));
+                            ui.label(format_number(100.0 * (i + 1) as f64 / (n + 1) as f64, 1));
                             ui.end_row();
                         }
                     });
@@ -362,52 +389,57 @@ fn design_table(
     selection: &Selection,
     commands: &mut Vec<Command>,
 ) {
-    egui::ScrollArea::both().id_salt("design-table").show(ui, |ui| {
-        egui::Grid::new("design-table-grid")
-            .striped(true)
-            .num_columns(DESIGN_TABLE_HEADERS.len())
-            .show(ui, |ui| {
-                for h in DESIGN_TABLE_HEADERS {
-                    ui.label(RichText::new(h).strong());
-                }
-                ui.end_row();
-                let rows = r
-                    .design
-                    .iter()
-                    .filter(|d| d.node == Node::Headworks)
-                    .chain(r.design.iter().filter(|d| d.node != Node::Headworks));
-                for d in rows {
-                    let me = match d.node {
-                        Node::Headworks => Selection::Scheme,
-                        Node::Canal(_) => Selection::Item(ItemRef::Canal(d.name.clone())),
-                    };
-                    let label = node_label(project, d);
-                    if ui.selectable_label(*selection == me, label).clicked() {
-                        commands.push(Command::Select(me));
+    egui::ScrollArea::both()
+        .id_salt("design-table")
+        .show(ui, |ui| {
+            egui::Grid::new("design-table-grid")
+                .striped(true)
+                .num_columns(DESIGN_TABLE_HEADERS.len())
+                .show(ui, |ui| {
+                    for h in DESIGN_TABLE_HEADERS {
+                        ui.label(RichText::new(h).strong());
                     }
-                    ui.label(format_sig(d.area_ha, 3));
-                    ui.label(RichText::new(format_sig(d.design_flow_ls, 3)).strong());
-                    ui.label(format_sig(d.required_capacity_ls, 3));
-                    match d.existing_capacity_ls {
-                        Some(cap) if cap < d.required_capacity_ls => {
-                            ui.label(
-                                RichText::new(format!("{} (too small)", format_sig(cap, 3)))
-                                    .color(ui.visuals().error_fg_color),
-                            );
-                        }
-                        Some(cap) => {
-                            ui.label(format_sig(cap, 3));
-                        }
-                        None => {
-                            ui.label("—");
-                        }
-                    }
-                    ui.label(format_sig(d.peak_10day_ls, 3));
-                    ui.label(d.duty_ls_ha.map_or_else(|| "—".to_owned(), |v| format_sig(v, 3)));
-                    ui.label(format_sig(d.seasonal_volume_m3 / 1.0e6, 3));
-                    ui.label(d.design_year.label());
                     ui.end_row();
-                }
-            });
-    });
+                    let rows = r
+                        .design
+                        .iter()
+                        .filter(|d| d.node == Node::Headworks)
+                        .chain(r.design.iter().filter(|d| d.node != Node::Headworks));
+                    for d in rows {
+                        let me = match d.node {
+                            Node::Headworks => Selection::Scheme,
+                            Node::Canal(_) => Selection::Item(ItemRef::Canal(d.name.clone())),
+                        };
+                        let label = node_label(project, d);
+                        if ui.selectable_label(*selection == me, label).clicked() {
+                            commands.push(Command::Select(me));
+                        }
+                        ui.label(format_sig(d.area_ha, 3));
+                        ui.label(RichText::new(format_sig(d.design_flow_ls, 3)).strong());
+                        ui.label(format_sig(d.required_capacity_ls, 3));
+                        match d.existing_capacity_ls {
+                            Some(cap) if cap < d.required_capacity_ls => {
+                                ui.label(
+                                    RichText::new(format!("{} (too small)", format_sig(cap, 3)))
+                                        .color(ui.visuals().error_fg_color),
+                                );
+                            }
+                            Some(cap) => {
+                                ui.label(format_sig(cap, 3));
+                            }
+                            None => {
+                                ui.label("—");
+                            }
+                        }
+                        ui.label(format_sig(d.peak_10day_ls, 3));
+                        ui.label(
+                            d.duty_ls_ha
+                                .map_or_else(|| "—".to_owned(), |v| format_sig(v, 3)),
+                        );
+                        ui.label(format_sig(d.seasonal_volume_m3 / 1.0e6, 3));
+                        ui.label(d.design_year.label());
+                        ui.end_row();
+                    }
+                });
+        });
 }

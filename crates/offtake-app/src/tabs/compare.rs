@@ -77,7 +77,7 @@ pub fn table_rows(c: &Comparison) -> Vec<(String, Vec<String>)> {
         ),
         (
             "Reservoir evaporation (Mm³/year)".to_owned(),
-            col(&|s| opt(s.storage_loss_m3, |v| mm3(v))),
+            col(&|s| opt(s.storage_loss_m3, mm3)),
         ),
         (
             "Relative irrigation supply (–)".to_owned(),
@@ -96,7 +96,7 @@ pub fn table_rows(c: &Comparison) -> Vec<(String, Vec<String>)> {
 }
 
 fn fresh_name(project: &Project) -> String {
-    (1..)
+    (1..=10_000)
         .map(|i| format!("plan-{i}"))
         .find(|n| project.scenario(n).is_none())
         .unwrap_or_else(|| "plan".to_owned())
@@ -172,26 +172,33 @@ impl CompareTab {
             }
         }
         let h = ui.available_height();
-        ui.allocate_ui(egui::vec2(ui.available_width(), (h * 0.45).max(180.0)), |ui| {
-            grouped_bars(ui, c);
-        });
+        ui.allocate_ui(
+            egui::vec2(ui.available_width(), (h * 0.45).max(180.0)),
+            |ui| {
+                grouped_bars(ui, c);
+            },
+        );
         ui.separator();
-        egui::ScrollArea::both().id_salt("compare-table").show(ui, |ui| {
-            egui::Grid::new("compare-grid").striped(true).show(ui, |ui| {
-                ui.label(RichText::new("Quantity").strong());
-                for s in &c.columns {
-                    ui.label(RichText::new(&s.name).strong());
-                }
-                ui.end_row();
-                for (title, values) in table_rows(c) {
-                    ui.label(title);
-                    for v in values {
-                        ui.label(v);
-                    }
-                    ui.end_row();
-                }
+        egui::ScrollArea::both()
+            .id_salt("compare-table")
+            .show(ui, |ui| {
+                egui::Grid::new("compare-grid")
+                    .striped(true)
+                    .show(ui, |ui| {
+                        ui.label(RichText::new("Quantity").strong());
+                        for s in &c.columns {
+                            ui.label(RichText::new(&s.name).strong());
+                        }
+                        ui.end_row();
+                        for (title, values) in table_rows(c) {
+                            ui.label(title);
+                            for v in values {
+                                ui.label(v);
+                            }
+                            ui.end_row();
+                        }
+                    });
             });
-        });
     }
 }
 

@@ -126,7 +126,10 @@ fn spec(r: &Results, project: &Project, key: &CacheKey) -> PlotSpec {
         .copied()
         .find(|y| y.start_year() == key.year);
     let (lo, hi) = year.map_or((0, r.days), |y| {
-        (index_of(r, y.start()), (index_of(r, y.end()) + 1).min(r.days))
+        (
+            index_of(r, y.start()),
+            (index_of(r, y.end()) + 1).min(r.days),
+        )
     });
     let mut series = Vec::new();
     let mut push_bars = |name: String, colour, daily: &[f64]| {
@@ -257,13 +260,17 @@ impl DemandTab {
         let target = target_of(r, project, view.selection);
         let design_year = r.headworks().map(|h| h.design_year);
         let node_design_year = match &target {
-            Target::Node(n) => r.design.iter().find(|d| d.node == *n).map(|d| d.design_year),
+            Target::Node(n) => r
+                .design
+                .iter()
+                .find(|d| d.node == *n)
+                .map(|d| d.design_year),
             Target::Block(_) => None,
         }
         .or(design_year);
         let year = self
             .year
-            .or(node_design_year.map(|y| y.start_year()))
+            .or(node_design_year.map(offtake_core::calendar::IrrigationYear::start_year))
             .unwrap_or(0);
         ui.horizontal_wrapped(|ui| {
             ui.label("Stack by");

@@ -89,7 +89,10 @@ pub fn engine_results<'a>(
     ui: &mut Ui,
     view: &View<'a>,
     what_this_tab_shows: &str,
-) -> Option<(&'a crate::compute::EngineRun, &'a offtake_core::engine::Results)> {
+) -> Option<(
+    &'a crate::compute::EngineRun,
+    &'a offtake_core::engine::Results,
+)> {
     let project = view.project?;
     if project.weather.path.trim().is_empty() {
         empty_state(

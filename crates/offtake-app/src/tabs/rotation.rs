@@ -125,9 +125,12 @@ impl RotationTab {
         );
         let units = roster.units.clone();
         let h = ui.available_height();
-        ui.allocate_ui(egui::vec2(ui.available_width(), (h * 0.55).max(180.0)), |ui| {
-            timeline(ui, &units, &entries);
-        });
+        ui.allocate_ui(
+            egui::vec2(ui.available_width(), (h * 0.55).max(180.0)),
+            |ui| {
+                timeline(ui, &units, &entries);
+            },
+        );
         ui.separator();
         turn_table(ui, &entries);
     }
