@@ -83,11 +83,27 @@ pub fn season_plots(s: &SeasonView) -> (PlotSpec, PlotSpec) {
         x: XAxis::Date,
         y_title: "Ks (–)".to_owned(),
         y_unit: String::new(),
-        series: vec![Series::line(
-            "Water stress coefficient Ks (FAO-56 eq. 84)",
-            pick(|d| d.ks),
-            OKABE_ITO[6],
-        )],
+        series: vec![
+            Series {
+                name: "Ks = 1: no water stress".to_owned(),
+                points: vec![[0.0, 1.0]],
+                colour: egui::Color32::GRAY,
+                style: LineStyle::Dotted { spacing: 5.0 },
+                kind: SeriesKind::Level,
+            },
+            Series {
+                name: "Ks = 0: wilting point".to_owned(),
+                points: vec![[0.0, 0.0]],
+                colour: egui::Color32::GRAY,
+                style: LineStyle::Dashed { length: 6.0 },
+                kind: SeriesKind::Level,
+            },
+            Series::line(
+                "Water stress coefficient Ks (FAO-56 eq. 84)",
+                pick(|d| d.ks),
+                OKABE_ITO[6],
+            ),
+        ],
     };
     (depth, ks)
 }
@@ -127,7 +143,21 @@ impl WaterBalanceTab {
             ))
             .weak(),
         );
-        let (depth, ks) = season_plots(s);
+        let (mut depth, ks) = season_plots(s);
+        if s.days.iter().all(|d| d.taw_mm == 0.0) {
+            // Paddy rice and the period methods do not run a root-zone
+            // balance: only rain and the water applied are meaningful.
+            ui.label(
+                RichText::new(
+                    "This planting has no root-zone balance (paddy rice is kept flooded, or a period method is used): \
+                     the bars show rain and the net irrigation requirement, including land preparation and percolation for paddy.",
+                )
+                .color(ui.visuals().warn_fg_color),
+            );
+            depth.series.truncate(2);
+            plot::show(ui, &depth, commands);
+            return;
+        }
         let h = ui.available_height();
         ui.allocate_ui(
             egui::vec2(ui.available_width(), (h * 0.68).max(200.0)),

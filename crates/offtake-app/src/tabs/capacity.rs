@@ -114,7 +114,7 @@ fn hydrograph(r: &Results, project: &Project, d: &NodeDesign, choice: YearChoice
         series.push(Series {
             name: "Shortfall above existing capacity".to_owned(),
             points: demand.iter().map(|p| [p[0], p[1].max(cap)]).collect(),
-            colour: OKABE_ITO[5],
+            colour: OKABE_ITO[6],
             style: egui_plot::LineStyle::Solid,
             kind: SeriesKind::Shaded { base: cap },
         });
@@ -122,7 +122,7 @@ fn hydrograph(r: &Results, project: &Project, d: &NodeDesign, choice: YearChoice
     series.push(Series::line(
         format!("Demand at {label} (l/s)"),
         demand,
-        OKABE_ITO[4],
+        OKABE_ITO[2],
     ));
     series.push(Series {
         name: format!("Design flow {} l/s", format_sig(d.design_flow_ls, 3)),
@@ -253,7 +253,7 @@ impl CanalCapacityTab {
                 ui.label(explanation(project, r, d));
                 yearly_peaks(ui, d);
             });
-        let table_height = (r.design.len() as f32 + 1.5) * 22.0 + 8.0;
+        let table_height = (r.design.len() as f32 + 2.5) * 22.0 + 8.0;
         let plot_height = (ui.available_height() - table_height - 12.0).max(180.0);
         ui.allocate_ui(egui::vec2(ui.available_width(), plot_height), |ui| {
             plot::show(ui, &spec, commands);
@@ -370,16 +370,17 @@ fn yearly_peaks(ui: &mut Ui, d: &NodeDesign) {
 }
 
 /// Column titles of the design table, with units.
+/// Two lines each, so that the table fits beside the tree and inspector.
 pub const DESIGN_TABLE_HEADERS: [&str; 9] = [
     "Node",
-    "Area (ha)",
-    "Design flow (l/s)",
-    "Required capacity (l/s)",
-    "Existing capacity (l/s)",
-    "Peak 10-day (l/s)",
-    "Duty (l/s/ha)",
-    "Seasonal volume (Mm³)",
-    "Design year",
+    "Area\n(ha)",
+    "Design flow\n(l/s)",
+    "Required capacity\n(l/s)",
+    "Existing capacity\n(l/s)",
+    "Peak 10-day\n(l/s)",
+    "Duty\n(l/s/ha)",
+    "Seasonal volume\n(Mm³)",
+    "Design\nyear",
 ];
 
 fn design_table(

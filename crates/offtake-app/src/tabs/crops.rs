@@ -125,7 +125,7 @@ impl CropCurvesTab {
                     s.request.planting, s.year
                 ),
                 points,
-                colour: egui::Color32::from_gray(60),
+                colour: egui::Color32::from_gray(210),
                 style: LineStyle::Dashed { length: 6.0 },
                 kind: SeriesKind::Line,
             });

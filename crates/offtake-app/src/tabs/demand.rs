@@ -203,7 +203,7 @@ fn spec(r: &Results, project: &Project, key: &CacheKey) -> PlotSpec {
     series.push(Series::line(
         "NIR at the fields (l/s)",
         nir_points,
-        egui::Color32::from_gray(40),
+        egui::Color32::from_gray(210),
     ));
     // The design year's peak 10-day period of the node, marked.
     if let (Target::Node(node), Some(year)) = (&key.target, year)
