@@ -289,8 +289,9 @@ struct EngineCache {
     run: Option<Result<EngineRun, String>>,
     comparison: Option<Result<Comparison, String>>,
     /// Weather prepared as the engine prepares it (gaps filled), for season
-    /// details; keyed like `key`.
-    prepared: Option<Result<Arc<PreparedWeather>, String>>,
+    /// details; kept while the weather file, station, ET₀ method and weather
+    /// perturbation stay the same (edits of the scheme do not change it).
+    prepared: Option<(String, Result<Arc<PreparedWeather>, String>)>,
 }
 
 impl EngineCache {
@@ -314,7 +315,6 @@ impl EngineCache {
             .as_ref()
             .is_some_and(|k| k.0 == key.0 && k.2 == key.2);
         self.key = Some(key);
-        self.prepared = None;
         let results = engine::run_scenario(
             &snap.project,
             scenario.as_deref(),
@@ -351,10 +351,37 @@ impl EngineCache {
         libraries: &Libraries,
         req: &SeasonRequest,
     ) -> Result<SeasonView, String> {
+        // The scenario shown applies to the season too.
+        let scenario = self.key.as_ref().and_then(|k| k.1.clone());
+        let (project, perturbation) = match scenario.as_deref() {
+            Some(name) => (
+                project.apply_scenario(name).map_err(|e| e.to_string())?,
+                project
+                    .scenario(name)
+                    .map(|s| s.weather)
+                    .unwrap_or_default(),
+            ),
+            None => (
+                project.clone(),
+                offtake_core::project::WeatherPerturbation::default(),
+            ),
+        };
+        let key = format!(
+            "{:?} {:?} {:?} {:?}",
+            self.key.as_ref().map(|k| &k.2),
+            engine::site_of(&project),
+            project.options.et0_method,
+            perturbation
+        );
+        if self.prepared.as_ref().is_none_or(|p| p.0 != key) {
+            let w = prepared_weather(&project, days, &perturbation).map(Arc::new);
+            self.prepared = Some((key, w));
+        }
         let prepared = self
             .prepared
-            .get_or_insert_with(|| prepared_weather(project, days).map(Arc::new))
-            .clone()?;
+            .as_ref()
+            .map_or_else(|| Err(String::new()), |p| p.1.clone())?;
+        let project = &project;
         let design_year = self
             .run
             .as_ref()
@@ -370,7 +397,11 @@ impl EngineCache {
 ///
 /// # Errors
 /// The engine's error text.
-pub fn prepared_weather(project: &Project, days: &[WeatherDay]) -> Result<PreparedWeather, String> {
+pub fn prepared_weather(
+    project: &Project,
+    days: &[WeatherDay],
+    perturbation: &offtake_core::project::WeatherPerturbation,
+) -> Result<PreparedWeather, String> {
     use offtake_core::et0::{Et0Context, Et0Options};
     use offtake_core::gapfill::{GapFillOptions, fill_gaps};
     let site = engine::site_of(project);
@@ -390,7 +421,7 @@ pub fn prepared_weather(project: &Project, days: &[WeatherDay]) -> Result<Prepar
         &filled.days,
         &site,
         project.options.et0_method,
-        &offtake_core::project::WeatherPerturbation::default(),
+        perturbation,
     )
     .map_err(|e| e.to_string())
 }

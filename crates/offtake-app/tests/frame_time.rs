@@ -77,3 +77,47 @@ fn panning_a_25_year_daily_plot() {
         times[times.len() - 1]
     );
 }
+
+#[test]
+#[ignore = "measurement; run with --ignored --nocapture in a release build"]
+fn recompute_after_an_edit_of_the_demo() {
+    use offtake_app::edit::DocEdit;
+    use offtake_app::state::RecomputeStatus;
+    let mut app = OfftakeApp::new().without_dialogs();
+    app.open_file(std::path::Path::new(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/../../demo-projects/demo-scheme/scheme.ron"
+    )));
+    app.wait_for_recompute(Duration::from_mins(2));
+    let mut h = Harness::builder()
+        .with_size(egui::vec2(1400.0, 900.0))
+        .build_ui_state(|ui, app: &mut OfftakeApp| app.ui(ui), app);
+    let _ = h.run_ok();
+    h.state_mut().wait_for_recompute(Duration::from_mins(2));
+    let mut times = Vec::new();
+    let mut engine_ms = Vec::new();
+    for i in 0..6 {
+        let mut p = h
+            .state()
+            .project()
+            .and_then(|p| p.plantings.iter().find(|p| p.id == "C1-rice"))
+            .expect("demo rice")
+            .clone();
+        p.first_planting.day = if i % 2 == 0 { 12 } else { 10 };
+        h.state_mut().push(Command::Edit(DocEdit::SetPlanting {
+            id: p.id.clone(),
+            planting: Box::new(p),
+        }));
+        let _ = h.run_ok();
+        h.state_mut().wait_for_recompute(Duration::from_mins(2));
+        if let RecomputeStatus::Done { elapsed_ms } = h.state().state.recompute {
+            times.push(elapsed_ms);
+        }
+        if let Some(Ok(run)) = h.state().computed.as_ref().and_then(|c| c.engine.clone()) {
+            engine_ms.push(run.results.timing.total.as_secs_f64() * 1000.0);
+        }
+    }
+    println!(
+        "recompute after an edit of the demo (worker wall time, ms): {times:.1?}; engine part: {engine_ms:.1?}"
+    );
+}
