@@ -247,6 +247,19 @@ fn hover_text(spec: &PlotSpec, pos: &HoverPosition<'_>) -> String {
     }
 }
 
+/// The label of a date-axis tick: the ISO date where ticks are far apart
+/// (60 days or more), "14 Dec" where they are close, so that labels do not
+/// run into each other (day before month, never ambiguous).
+pub fn date_tick_label(x: f64, step_days: f64) -> String {
+    x_to_date(x).map_or_else(String::new, |d| {
+        if step_days >= 60.0 {
+            d.to_string()
+        } else {
+            d.format("%-d %b").to_string()
+        }
+    })
+}
+
 /// Draws the plot with its toolbar (reset zoom, CSV and PNG export).
 /// Export requests are pushed onto `commands`.
 pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
@@ -274,9 +287,9 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
         .y_axis_label(spec.y_title.clone())
         .label_formatter(|pos| Some(hover_text(spec, pos)));
     plot = match &spec.x {
-        XAxis::Date => plot.x_axis_label("Date").x_axis_formatter(|mark, _| {
-            x_to_date(mark.value).map_or_else(String::new, |d| d.to_string())
-        }),
+        XAxis::Date => plot
+            .x_axis_label("Date")
+            .x_axis_formatter(|mark, _| date_tick_label(mark.value, mark.step_size)),
         XAxis::Quantity { title, .. } => plot.x_axis_label(title.clone()),
     };
     if reset {

@@ -142,9 +142,7 @@ fn timeline(ui: &mut Ui, units: &[String], entries: &[&RosterEntry]) {
         .legend(Legend::default())
         .x_axis_label("Date")
         .y_axis_label("Canal or block")
-        .x_axis_formatter(|mark, _| {
-            crate::plot::x_to_date(mark.value).map_or_else(String::new, |d| d.to_string())
-        })
+        .x_axis_formatter(|mark, _| crate::plot::date_tick_label(mark.value, mark.step_size))
         .y_axis_formatter(move |mark, _| {
             let i = mark.value.round();
             if (mark.value - i).abs() < 1e-6 && i >= 0.0 {
