@@ -26,8 +26,21 @@
 //! [`OfftakeApp::with_compute`] takes any
 //! `Box<dyn FnMut(compute::Snapshot) -> compute::Computed + Send>`; the
 //! default, [`compute::default_compute`], validates the project, reads the
-//! weather and computes ET₀ and the library Kc curves. Add a field to
-//! [`compute::Computed`], fill it there, and read it in a tab.
+//! weather (cached while the file is unchanged), computes ET₀ and the library
+//! Kc curves, and runs offtake-core's engine (`engine::run_scenario`, the
+//! call `offtake run` makes) for the scenario shown. Engine results are kept
+//! while the project, scenario and weather file stay the same, so a new
+//! selection or season year only computes that planting's season balance
+//! (`planting::season_detail`); the scenario comparison runs only while the
+//! Compare tab is shown. Add a field to [`compute::Computed`], fill it there,
+//! and read it in a tab.
+//!
+//! ## Measured (release build, 2-core shared machine, demo scheme, 25 years)
+//! - Recompute after an edit: 45–85 ms of worker wall time (engine ≈ all of
+//!   it); `cargo test --release -p offtake-app --test frame_time -- --ignored --nocapture`.
+//! - Panning the 9131-day headworks hydrograph: 0.8–1.1 ms mean egui CPU time
+//!   per frame (UI code and tessellation, no renderer), 95th percentile
+//!   0.9–4.9 ms, worst 8.8 ms; same command.
 
 pub mod app;
 pub mod command;

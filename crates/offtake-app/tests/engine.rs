@@ -278,3 +278,92 @@ fn export_writes_the_tables_and_workbook_of_offtake_run() {
         .expect("number");
     assert!((q - engine_design_flow_ls()).abs() < 1e-6 * q);
 }
+
+#[test]
+fn water_balance_of_a_selected_planting_shows_taw_raw_and_ks() {
+    let mut h = demo_harness();
+    h.state_mut()
+        .push(Command::Select(Selection::Item(ItemRef::Planting(
+            "C1-bean".to_owned(),
+        ))));
+    settle(&mut h);
+    h.get_by_label("Water balance").click();
+    h.run();
+    let season = h
+        .state()
+        .computed
+        .as_ref()
+        .and_then(|c| c.season.clone())
+        .expect("season asked")
+        .expect("season computed");
+    assert_eq!(season.request.planting, "C1-bean");
+    // An upland crop runs the FAO-56 root-zone balance: TAW > RAW > 0 once
+    // roots grow, depletion never beyond TAW, Ks in [0, 1] (eq. 84).
+    assert!(
+        season
+            .days
+            .iter()
+            .any(|d| d.taw_mm > d.raw_mm && d.raw_mm > 0.0)
+    );
+    assert!(
+        season
+            .days
+            .iter()
+            .all(|d| d.depletion_mm <= d.taw_mm + 1e-6 && (0.0..=1.0 + 1e-9).contains(&d.ks))
+    );
+    h.get_by_label_contains("Planting C1-bean");
+    // Another year asks the worker for that season only.
+    let other = season.year - 1;
+    h.state_mut().push(Command::SetSeasonYear(other));
+    settle(&mut h);
+    let again = h
+        .state()
+        .computed
+        .as_ref()
+        .and_then(|c| c.season.clone())
+        .expect("season asked")
+        .expect("season computed");
+    assert_eq!(again.year, other);
+    assert_ne!(again.first_date, season.first_date);
+}
+
+#[test]
+fn switching_to_a_scenario_shows_its_design_flow_everywhere() {
+    let mut h = demo_harness();
+    let base = headworks_design_flow_ls(&h);
+    h.get_by_label("Compare").click();
+    settle(&mut h);
+    let comparison = h
+        .state()
+        .computed
+        .as_ref()
+        .and_then(|c| c.comparison.clone())
+        .expect("comparison asked")
+        .expect("scenarios computed");
+    let maize = comparison
+        .columns
+        .iter()
+        .find(|c| c.name == "shift-to-maize")
+        .expect("demo scenario")
+        .design_flow_ls;
+    h.get_by_label("Headworks design flow (l/s)");
+    h.state_mut()
+        .push(Command::ShowScenario(Some("shift-to-maize".to_owned())));
+    settle(&mut h);
+    let shown = headworks_design_flow_ls(&h);
+    assert!((shown - maize).abs() < 1e-9 * maize, "{shown} vs {maize}");
+    assert!(
+        (shown - base).abs() > 1.0,
+        "the scenario changes the design flow"
+    );
+    h.get_by_label("Results of scenario shift-to-maize");
+    // Creating a scenario from the current plan is one undoable edit.
+    let n = h.state().project().expect("demo").scenarios.len();
+    h.get_by_label("Create scenario from the current plan")
+        .click();
+    settle(&mut h);
+    assert_eq!(h.state().project().expect("demo").scenarios.len(), n + 1);
+    h.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+    settle(&mut h);
+    assert_eq!(h.state().project().expect("demo").scenarios.len(), n);
+}
