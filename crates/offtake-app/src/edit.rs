@@ -373,6 +373,8 @@ pub fn new_planting(doc: &Project, block: &str) -> Planting {
             trigger_pct_of_raw: 100.0,
         },
         season_length_days: None,
+        paddy: None,
+        coefficients: offtake_core::project::CoefficientChoice::Single,
     }
 }
 

@@ -30,7 +30,7 @@ pub fn run(args: &Args) -> Result<()> {
         &loaded.weather,
     )
     .with_context(|| format!("comparing the scenarios of {}", args.project.display()))?;
-    print!("{}", comparison_text(&cmp));
+    crate::cmd_run::print_text(&comparison_text(&cmp))?;
     Ok(())
 }
 
@@ -76,7 +76,7 @@ pub(crate) fn comparison_text(c: &Comparison) -> String {
                 .collect(),
         ));
     }
-    let simple: [(&str, RowFn); 10] = [
+    let simple: [(&str, RowFn); 12] = [
         (
             "headworks volume total (m3/year)",
             Box::new(|x| format!("{:.0}", x.headworks_volume_m3)),
@@ -91,11 +91,19 @@ pub(crate) fn comparison_text(c: &Comparison) -> String {
             Box::new(|x| opt(x.duty_ls_ha, 2)),
         ),
         (
-            "capacity shortfall (m3/year)",
+            "capacity shortfall, design basis (m3/year)",
             Box::new(|x| format!("{:.0}", x.shortfall_m3_per_year)),
         ),
         (
-            "capacity shortfall (days in record)",
+            "capacity shortfall, design basis (periods)",
+            Box::new(|x| x.shortfall_periods.to_string()),
+        ),
+        (
+            "years with a shortfall (of complete years)",
+            Box::new(|x| format!("{} of {}", x.shortfall_years, x.complete_years)),
+        ),
+        (
+            "daily peaks above capacity (days, info)",
             Box::new(|x| x.shortfall_days.to_string()),
         ),
         (
@@ -148,6 +156,11 @@ pub(crate) fn comparison_text(c: &Comparison) -> String {
         }
         s.push('\n');
     }
+    let basis = c.columns.first().map_or("10-day", |x| x.shortfall_basis);
+    let _ = writeln!(
+        s,
+        "Capacity shortfall on the design basis ({basis} mean flows): a period is short when its mean flow exceeds the existing capacity; volume = sum of (mean - capacity) x days. Daily peaks (refill pulses) are shown for information only."
+    );
     s.push_str("Planning estimates: canal and structure designs must be checked by a qualified engineer.\n");
     s
 }

@@ -1,6 +1,7 @@
 //! `offtake planting --weather FILE.csv --lat DEG --elevation M
 //! [--wind-height M] --crop ID --plant YYYY-MM-DD [--every-year] [--soil ID]
-//! [--strategy refill|interval|depth|deficit|rainfed] [--out FILE.csv]`
+//! [--strategy refill|interval|depth|deficit|rainfed] [--dual-kc]
+//! [--wetting surface|sprinkler|furrow|drip] [--out FILE.csv]`
 //!
 //! Reads the weather file through the common importer, computes ET₀ (FAO-56
 //! Penman–Monteith with the missing-data procedures), u2 from the wind height
@@ -10,11 +11,15 @@
 //! season as CSV: `date,et0_mm,kc,etc_mm,etc_adj_mm,rain_mm,peff_mm,
 //! irrigation_mm,runoff_mm,deep_perc_mm,depletion_mm,taw_mm,raw_mm,ks,season`
 //! (depletion at the end of the day; `season` is the year of the season's
-//! first planting date).
+//! first planting date). With `--dual-kc` (FAO-56 dual coefficient Kcb + Ke
+//! with the soil evaporation layer; `--wetting` gives the FAO-56 Table 20
+//! fraction wetted by irrigation, default sprinkler) two columns follow:
+//! `kcb,ke` (`kc` is then Kcb + Ke).
 //!
 //! The balance needs every day: a missing day, a day whose ET₀ cannot be
 //! computed, or a blank rain stops the command with `file:line:column`.
 
+use std::collections::HashMap;
 use std::fmt::Write as _;
 use std::path::PathBuf;
 
@@ -25,8 +30,10 @@ use offtake_core::balance::Strategy;
 use offtake_core::crop::climate::{rhmin_from_dewpoint_pct, rhmin_from_tmin_pct};
 use offtake_core::et0::wind::wind_2m_ms;
 use offtake_core::et0::{Et0Context, Et0Options};
+use offtake_core::gapfill::{GapFillOptions, repair_for_daily_balance};
 use offtake_core::planting::{
-    PlantingSpec, PlantingWarning, PlantingWeather, SeasonSummary, run_planting, season_detail,
+    CoefficientMode, PlantingSpec, PlantingWarning, PlantingWeather, SeasonSummary, Wetting,
+    run_planting, season_detail,
 };
 use offtake_io::library::Libraries;
 use offtake_io::weather::SourceLocation;
@@ -35,6 +42,9 @@ use crate::cmd_weather_check::{DateFormatArg, read_series, site_from_args, write
 
 /// Header of the daily table written by `--out` (a stable contract).
 pub const DAILY_HEADER: &str = "date,et0_mm,kc,etc_mm,etc_adj_mm,rain_mm,peff_mm,irrigation_mm,runoff_mm,deep_perc_mm,depletion_mm,taw_mm,raw_mm,ks,season";
+
+/// Columns appended to [`DAILY_HEADER`] with `--dual-kc`.
+pub const DUAL_COLUMNS: &str = "kcb,ke";
 
 /// Arguments of `offtake planting`.
 #[derive(Debug, ClapArgs)]
@@ -67,6 +77,15 @@ pub struct Args {
     /// Irrigation strategy: refill (at 100 % of RAW), interval, depth, deficit, rainfed.
     #[arg(long, default_value = "refill")]
     pub strategy: String,
+    /// Use the FAO-56 dual crop coefficient (Kcb + Ke, soil evaporation
+    /// layer) instead of the single Kc; adds the columns kcb,ke to --out.
+    #[arg(long)]
+    pub dual_kc: bool,
+    /// Fraction of the surface wetted by irrigation for --dual-kc (FAO-56
+    /// Table 20): surface, sprinkler, furrow, furrow-wide-bed,
+    /// alternate-furrow, drip.
+    #[arg(long, requires = "dual_kc")]
+    pub wetting: Option<String>,
     /// Output CSV file for the daily table (written atomically).
     #[arg(long)]
     pub out: Option<PathBuf>,
@@ -102,11 +121,39 @@ fn read_weather(args: &Args) -> Result<Series> {
         line,
         column: 1,
     };
-    let Some(first) = imported.days.first() else {
+    if imported.days.is_empty() {
         bail!("{}: no data rows", at(2));
-    };
-    let start = first.date;
-    let n = imported.days.len();
+    }
+    // Line of each imported date, for messages about days that were read.
+    let line_of: HashMap<NaiveDate, u64> = imported
+        .days
+        .iter()
+        .map(|d| d.date)
+        .zip(imported.lines.iter().copied())
+        .collect();
+    // The water balance needs every day: impossible days are blanked and, with
+    // the absent dates, filled as the engine does (interpolation up to 3 days,
+    // FAO-56 missing-data procedures beyond); each is reported.
+    let repaired = repair_for_daily_balance(&imported.days, &GapFillOptions::default(), |d| {
+        context.et0_mm_day(d).map(|_| ()).map_err(|e| e.to_string())
+    })
+    .context("filling the gaps of the weather record")?;
+    for (date, reason) in &repaired.rejected {
+        let line = line_of.get(date).copied().unwrap_or(1);
+        eprintln!(
+            "{}: warning: {date}: {reason}; the day is treated as missing and filled",
+            at(line)
+        );
+    }
+    if repaired.inserted_days > 0 || repaired.filled_days > 0 {
+        eprintln!(
+            "{file}: warning: {} absent date(s) added and values filled on {} day(s) (linear interpolation up to 3 days, FAO-56 missing-data procedures beyond)",
+            repaired.inserted_days, repaired.filled_days
+        );
+    }
+    let days = &repaired.filled.days;
+    let start = days[0].date;
+    let n = days.len();
     let mut s = Series {
         start,
         et0: Vec::with_capacity(n),
@@ -114,33 +161,25 @@ fn read_weather(args: &Args) -> Result<Series> {
         u2: Vec::with_capacity(n),
         rhmin: Vec::with_capacity(n),
     };
-    let mut expected = start;
-    for (day, &line) in imported.days.iter().zip(&imported.lines) {
-        if day.date != expected {
-            bail!(
-                "{}: date {} follows a gap (expected {expected}); the water balance needs every day: fill the gaps first",
-                at(line),
+    let mut blank_rain: Vec<NaiveDate> = Vec::new();
+    for day in days {
+        let where_ = line_of
+            .get(&day.date)
+            .map_or_else(|| format!("{file} (filled day)"), |&l| at(l).to_string());
+        let et0 = context
+            .et0_mm_day(day)
+            .map_err(|e| anyhow::anyhow!("{where_}: {}: ET0 cannot be computed: {e}", day.date))?;
+        let rain = match day.rain_mm {
+            Some(r) if r.is_finite() && r >= 0.0 => r,
+            Some(r) => bail!(
+                "{where_}: {}: rain_mm found {r}; expected a depth of 0 mm or more",
                 day.date
-            );
-        }
-        expected = day.date.succ_opt().context("date out of range")?;
-        let et0 = context.et0_mm_day(day).map_err(|e| {
-            anyhow::anyhow!("{}: {}: ET0 cannot be computed: {e}", at(line), day.date)
-        })?;
-        let Some(rain) = day.rain_mm else {
-            bail!(
-                "{}: {}: rain_mm is blank; expected a rain depth in mm (0 for a dry day)",
-                at(line),
-                day.date
-            );
+            ),
+            None => {
+                blank_rain.push(day.date);
+                0.0
+            }
         };
-        if !(rain.is_finite() && rain >= 0.0) {
-            bail!(
-                "{}: {}: rain_mm found {rain}; expected a depth of 0 mm or more",
-                at(line),
-                day.date
-            );
-        }
         let u2 = match day.wind_ms {
             Some(w) => wind_2m_ms(w, site.wind_height_m).unwrap_or(f64::NAN),
             None => f64::NAN,
@@ -157,6 +196,15 @@ fn read_weather(args: &Args) -> Result<Series> {
         s.rain.push(rain);
         s.u2.push(u2);
         s.rhmin.push(rhmin);
+    }
+    if let Some(first) = blank_rain.first() {
+        let place = line_of
+            .get(first)
+            .map_or_else(|| format!("{file} (filled day)"), |&l| at(l).to_string());
+        eprintln!(
+            "{place}: warning: rain_mm blank on {first}, taken as 0 mm ({} day(s) in all); rain is never interpolated",
+            blank_rain.len()
+        );
     }
     Ok(s)
 }
@@ -217,6 +265,15 @@ pub fn run(args: &Args) -> Result<()> {
         .strategy
         .parse()
         .map_err(|e| anyhow::anyhow!("--strategy: {e}"))?;
+    let coefficients = if args.dual_kc {
+        let wetting: Wetting = match &args.wetting {
+            Some(w) => w.parse().map_err(|e| anyhow::anyhow!("--wetting: {e}"))?,
+            None => Wetting::Sprinkler,
+        };
+        CoefficientMode::Dual { wetting }
+    } else {
+        CoefficientMode::Single
+    };
     let plant = parse_date(&args.plant)?;
     let series = read_weather(args)?;
     let weather = PlantingWeather {
@@ -228,6 +285,7 @@ pub fn run(args: &Args) -> Result<()> {
     };
     let spec = PlantingSpec {
         strategy,
+        coefficients,
         only_year: (!args.every_year).then_some(plant.year()),
         ..PlantingSpec::new(crop, soil, plant.month(), plant.day())
     };
@@ -251,10 +309,15 @@ pub fn run(args: &Args) -> Result<()> {
         }
     }
 
+    let dual_used = args.dual_kc
+        && !result
+            .warnings
+            .iter()
+            .any(|w| matches!(w, PlantingWarning::DualCoefficientNotUsed { .. }));
     let mut text = String::new();
     let _ = writeln!(
         text,
-        "planting: {} ({}) on {} ({}), strategy {}, {}",
+        "planting: {} ({}) on {} ({}), strategy {}, {}{}",
         crop.name,
         crop.id,
         soil.name,
@@ -264,6 +327,16 @@ pub fn run(args: &Args) -> Result<()> {
             format!("planted {:02}-{:02} every year", plant.month(), plant.day())
         } else {
             format!("planted {plant}")
+        },
+        match coefficients {
+            CoefficientMode::Dual { .. } if !dual_used => {
+                ", single Kc (dual coefficient not used: see the warning)".to_string()
+            }
+            CoefficientMode::Dual { wetting } => format!(
+                ", dual crop coefficient (wetting {wetting}, fw {:.2})",
+                wetting.fw()
+            ),
+            CoefficientMode::Single => String::new(),
         }
     );
     let _ = writeln!(
@@ -291,6 +364,13 @@ pub fn run(args: &Args) -> Result<()> {
             mean(|s| s.nir_mm),
             100.0 * mean(|s| s.relative_yield_loss)
         );
+        if dual_used {
+            let _ = writeln!(
+                text,
+                "mean soil evaporation E = Ke ET0: {:.1} mm per season",
+                mean(|s| s.evaporation_mm)
+            );
+        }
     }
     let _ = writeln!(
         text,
@@ -301,13 +381,17 @@ pub fn run(args: &Args) -> Result<()> {
     if let Some(path) = &args.out {
         let mut csv = String::with_capacity(160 * series.et0.len());
         csv.push_str(DAILY_HEADER);
+        if args.dual_kc {
+            csv.push(',');
+            csv.push_str(DUAL_COLUMNS);
+        }
         csv.push('\n');
         for s in &result.seasons {
             let year = s.year;
             let detail = season_detail(&spec, &weather, year).context("daily table")?;
             for (i, d) in detail.days.iter().enumerate() {
                 let date = detail.first_date + chrono::Days::new(i as u64);
-                let _ = writeln!(
+                let _ = write!(
                     csv,
                     "{date},{:.3},{:.4},{:.3},{:.3},{:.2},{:.3},{:.3},{:.3},{:.3},{:.3},{:.3},{:.3},{:.4},{year}",
                     d.et0_mm,
@@ -324,6 +408,16 @@ pub fn run(args: &Args) -> Result<()> {
                     d.raw_mm,
                     d.ks
                 );
+                if args.dual_kc {
+                    // Empty when the crop fell back to the single Kc (warned).
+                    match detail.evaporation.get(i) {
+                        Some(e) => {
+                            let _ = write!(csv, ",{:.4},{:.4}", e.kcb, e.ke);
+                        }
+                        None => csv.push_str(",,"),
+                    }
+                }
+                csv.push('\n');
             }
         }
         write_atomically(path, csv.as_bytes())?;

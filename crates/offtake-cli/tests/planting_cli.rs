@@ -177,7 +177,7 @@ fn bad_planting_date_is_an_error() {
 }
 
 #[test]
-fn blank_rain_is_a_positioned_error() {
+fn blank_rain_is_taken_as_zero_with_a_positioned_warning() {
     let dir = tempfile::tempdir().unwrap();
     let path = dir.path().join("gap.csv");
     std::fs::write(
@@ -198,7 +198,118 @@ fn blank_rain_is_a_positioned_error() {
         "--plant",
         "2003-01-01",
     ]);
+    let stderr = String::from_utf8_lossy(&o.stderr);
+    assert!(o.status.success(), "{stderr}");
+    assert!(
+        stderr.contains("gap.csv:3:1: warning: rain_mm blank on 2003-01-02, taken as 0 mm"),
+        "{stderr}"
+    );
+}
+
+#[test]
+fn dual_kc_appends_kcb_and_ke_columns() {
+    let dir = tempfile::tempdir().unwrap();
+    let w = write_weather(dir.path());
+    let daily = |extra: &[&str], name: &str| {
+        let out = dir.path().join(name);
+        let mut args = vec![
+            "planting",
+            "--weather",
+            w.to_str().unwrap(),
+            "--lat",
+            "-15.5",
+            "--elevation",
+            "600",
+            "--crop",
+            "tomato",
+            "--plant",
+            "2003-03-01",
+            "--out",
+            out.to_str().unwrap(),
+        ];
+        args.extend_from_slice(extra);
+        let o = offtake(&args);
+        assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+        (
+            String::from_utf8_lossy(&o.stdout).into_owned(),
+            std::fs::read_to_string(&out).unwrap(),
+        )
+    };
+    let (stdout, csv) = daily(&["--dual-kc", "--wetting", "drip"], "dual.csv");
+    assert!(
+        stdout.contains("dual crop coefficient (wetting drip, fw 0.35)"),
+        "{stdout}"
+    );
+    assert!(stdout.contains("soil evaporation"), "{stdout}");
+    let mut lines = csv.lines();
+    assert_eq!(lines.next().unwrap(), format!("{HEADER},season,kcb,ke"));
+    let mut rows = 0;
+    let mut ke_positive = 0;
+    for line in lines {
+        let f: Vec<&str> = line.split(',').collect();
+        assert_eq!(f.len(), 17, "{line}");
+        let kc: f64 = f[2].parse().unwrap();
+        let kcb: f64 = f[15].parse().unwrap();
+        let ke: f64 = f[16].parse().unwrap();
+        // Kc = Kcb + Ke (FAO-56 eq. 69), to the printed 4 decimals.
+        assert!((kc - (kcb + ke)).abs() <= 2e-4, "{line}");
+        assert!((0.0..=1.4).contains(&kcb) && ke >= 0.0, "{line}");
+        if ke > 0.0 {
+            ke_positive += 1;
+        }
+        rows += 1;
+    }
+    assert!(
+        rows > 100 && ke_positive > 10,
+        "{rows} rows, {ke_positive} with Ke > 0"
+    );
+
+    // Without --dual-kc the table keeps its columns and the Kc curve.
+    let (stdout, single) = daily(&[], "single.csv");
+    assert!(!stdout.contains("dual crop coefficient"));
+    assert_eq!(single.lines().next().unwrap(), format!("{HEADER},season"));
+    assert_eq!(single.lines().count(), csv.lines().count());
+    // Sprinkler wets all the surface: more soil evaporation than drip.
+    let (_, sprinkler) = daily(&["--dual-kc", "--wetting", "sprinkler"], "sprinkler.csv");
+    let sum_ke = |t: &str| -> f64 {
+        t.lines()
+            .skip(1)
+            .map(|l| l.split(',').nth(16).unwrap().parse::<f64>().unwrap())
+            .sum()
+    };
+    assert!(sum_ke(&sprinkler) > sum_ke(&csv));
+}
+
+#[test]
+fn bad_wetting_is_an_error() {
+    let dir = tempfile::tempdir().unwrap();
+    let w = write_weather(dir.path());
+    let base = [
+        "planting",
+        "--weather",
+        w.to_str().unwrap(),
+        "--lat",
+        "-15.5",
+        "--elevation",
+        "600",
+        "--crop",
+        "tomato",
+        "--plant",
+        "2003-03-01",
+    ];
+    let mut args = base.to_vec();
+    args.extend_from_slice(&["--dual-kc", "--wetting", "bucket"]);
+    let o = offtake(&args);
     assert!(!o.status.success());
     let stderr = String::from_utf8_lossy(&o.stderr);
-    assert!(stderr.contains("gap.csv:3:1:"), "{stderr}");
+    assert!(
+        stderr.contains("--wetting") && stderr.contains("bucket"),
+        "{stderr}"
+    );
+    // --wetting belongs to --dual-kc.
+    let mut args = base.to_vec();
+    args.extend_from_slice(&["--wetting", "drip"]);
+    let o = offtake(&args);
+    assert!(!o.status.success());
+    assert!(String::from_utf8_lossy(&o.stderr).contains("--dual-kc"));
 }

@@ -39,6 +39,82 @@ fn run_writes_the_contract_tables() {
     );
     assert!(stdout.contains("Headworks design flow:"));
     assert!(stdout.contains("l/s/ha"));
+    // Every number in the CSV tables is rounded: at most 3 decimals (duty),
+    // 2 for flows, depths and areas, 1 for volumes.
+    for name in [
+        "design_values.csv",
+        "node_demand_daily.csv",
+        "block_requirements_daily.csv",
+        "demand_10day.csv",
+        "demand_monthly.csv",
+        "roster.csv",
+    ] {
+        let text = std::fs::read_to_string(dir.path().join(name)).unwrap();
+        let mut lines = text.lines();
+        let header: Vec<&str> = lines.next().unwrap().split(',').collect();
+        for line in lines.take(5000) {
+            for (h, v) in header.iter().zip(line.split(',')) {
+                let Some((_, frac)) = v.split_once('.') else {
+                    continue;
+                };
+                if v.parse::<f64>().is_err() {
+                    continue;
+                }
+                let max = if h.ends_with("_m3") {
+                    1
+                } else if *h == "duty_ls_ha" {
+                    3
+                } else {
+                    2
+                };
+                assert!(frac.len() <= max, "{name}: {h} = {v}");
+            }
+        }
+        #[cfg(unix)]
+        {
+            use std::os::unix::fs::PermissionsExt;
+            let mode = std::fs::metadata(dir.path().join(name))
+                .unwrap()
+                .permissions()
+                .mode();
+            assert_ne!(mode & 0o044, 0, "{name}: mode {mode:o}");
+        }
+    }
+    // The per-canal design flow table lists every canal and the headworks,
+    // with the complete years used.
+    assert!(
+        stdout.contains("Design flows per canal (80 % non-exceedance of the yearly peak 10-day mean flow over 24 complete irrigation years"),
+        "{stdout}"
+    );
+    for node in [
+        "main",
+        "upper-dy",
+        "middle-dy",
+        "lower-dy",
+        "lower-minor-1",
+        "headworks",
+    ] {
+        assert!(
+            stdout.lines().any(|l| l.starts_with(&format!("  {node} "))),
+            "{node}\n{stdout}"
+        );
+    }
+    let middle_row = stdout
+        .lines()
+        .find(|l| l.starts_with("  middle-dy "))
+        .unwrap();
+    // area, design flow (3 s.f.), duty, required, existing, design year
+    let cells: Vec<&str> = middle_row.split_whitespace().collect();
+    assert_eq!(cells.len(), 7, "{middle_row}");
+    assert_eq!(cells[1], "990");
+    assert_eq!(cells[5], "2,000");
+    // The shortfall is on the design basis, daily peaks labelled as such.
+    assert!(stdout.contains("shortfall on the design basis"), "{stdout}");
+    assert!(
+        stdout.contains("10-day mean flow above capacity"),
+        "{stdout}"
+    );
+    assert!(stdout.contains("daily peaks (for information"), "{stdout}");
     assert!(
         first_line(&dir.path().join("design_values.csv"))
             == "node,area_ha,design_flow_ls,required_capacity_ls,existing_capacity_ls,peak_daily_ls,peak_10day_ls,duty_ls_ha,seasonal_volume_m3,design_year"
@@ -69,7 +145,7 @@ fn run_writes_the_contract_tables() {
     let head = rows.iter().find(|r| r[0] == "headworks").unwrap();
     assert_eq!(head[4], "");
     let middle = rows.iter().find(|r| r[0] == "middle-dy").unwrap();
-    assert!((middle[4].parse::<f64>().unwrap() - 1200.0).abs() < 1e-6);
+    assert!((middle[4].parse::<f64>().unwrap() - 2000.0).abs() < 1e-6);
 }
 
 #[test]
@@ -113,4 +189,6 @@ fn compare_prints_one_column_per_scenario() {
         assert!(header.contains(name), "{header}");
     }
     assert!(text.contains("headworks design flow (l/s)"));
+    assert!(text.contains("capacity shortfall, design basis (m3/year)"));
+    assert!(text.contains("design basis (10-day mean flows)"), "{text}");
 }

@@ -121,6 +121,8 @@ fn project(blocks: usize) -> Project {
                 trigger_pct_of_raw: 100.0,
             },
             season_length_days: None,
+            paddy: None,
+            coefficients: offtake_core::project::CoefficientChoice::Single,
         };
         p.plantings
             .push(plant("wet", wet[b % 4], (6, 15), 60.0, "wet"));

@@ -592,3 +592,108 @@ mod tests {
         assert_eq!(day_of_year_365(date(2020, 12, 31)), 364);
     }
 }
+
+/// A weather record made ready for a daily water balance: every calendar day
+/// present, days whose ET₀ inputs are impossible blanked and filled, and an
+/// account of what was changed.
+#[derive(Debug, Clone, PartialEq)]
+pub struct RepairedSeries {
+    /// The filled series (one day per date).
+    pub filled: FilledSeries,
+    /// Days whose measured values could not give ET₀ (e.g. Tmin above Tmax),
+    /// with the reason; their weather (except rain) was blanked and filled.
+    pub rejected: Vec<(NaiveDate, String)>,
+    /// Calendar days that were absent from the record and were added.
+    pub inserted_days: usize,
+    /// Days with at least one value filled (interpolated, estimated or from
+    /// climatology).
+    pub filled_days: usize,
+}
+
+/// Prepares a record for a daily balance.
+///
+/// `et0_check` returns `Err(reason)` for a day whose inputs make ET₀
+/// impossible (the caller passes its ET₀ context, so the rule is the same as
+/// the ET₀ computation's). Such days keep their rain and have every other
+/// value blanked; then [`fill_gaps`] fills the record with `options`. The
+/// measured data are never changed otherwise, and every filled value keeps
+/// its [`FillMark`].
+///
+/// # Errors
+/// [`GapFillError`] when the dates are not increasing or the record is empty.
+pub fn repair_for_daily_balance(
+    days: &[WeatherDay],
+    options: &GapFillOptions,
+    et0_check: impl Fn(&WeatherDay) -> Result<(), String>,
+) -> Result<RepairedSeries, GapFillError> {
+    let mut rejected = Vec::new();
+    let cleaned: Vec<WeatherDay> = days
+        .iter()
+        .map(|d| match et0_check(d) {
+            Err(reason) if d.tmax_c.is_some() && d.tmin_c.is_some() => {
+                rejected.push((d.date, reason));
+                WeatherDay {
+                    rain_mm: d.rain_mm,
+                    ..WeatherDay::empty(d.date)
+                }
+            }
+            _ => *d,
+        })
+        .collect();
+    let filled = fill_gaps(&cleaned, options, &[])?;
+    let inserted_days = filled.days.len().saturating_sub(days.len());
+    let filled_days = filled
+        .marks
+        .iter()
+        .filter(|m| m.iter().any(|k| k.is_not_measured()))
+        .count();
+    Ok(RepairedSeries {
+        filled,
+        rejected,
+        inserted_days,
+        filled_days,
+    })
+}
+
+#[cfg(test)]
+mod repair_tests {
+    use super::*;
+
+    fn day(date: NaiveDate, tmax: f64, tmin: f64, rain: f64) -> WeatherDay {
+        WeatherDay {
+            tmax_c: Some(tmax),
+            tmin_c: Some(tmin),
+            rain_mm: Some(rain),
+            ..WeatherDay::empty(date)
+        }
+    }
+
+    /// A Tmin > Tmax day is blanked (rain kept) and refilled by linear
+    /// interpolation between its neighbours; a missing date is added.
+    #[test]
+    fn rejected_day_is_blanked_and_refilled() {
+        let d = |n: u32| NaiveDate::from_ymd_opt(2030, 1, n).expect("valid date");
+        let days = vec![
+            day(d(1), 30.0, 10.0, 0.0),
+            day(d(2), 20.0, 25.0, 4.0), // Tmin above Tmax
+            day(d(3), 32.0, 12.0, 0.0),
+            // 4 January absent
+            day(d(5), 34.0, 14.0, 0.0),
+        ];
+        let check = |w: &WeatherDay| match (w.tmax_c, w.tmin_c) {
+            (Some(x), Some(n)) if n > x => Err("Tmin above Tmax".to_string()),
+            _ => Ok(()),
+        };
+        let r =
+            repair_for_daily_balance(&days, &GapFillOptions::default(), check).expect("repairs");
+        assert_eq!(r.rejected.len(), 1);
+        assert_eq!(r.inserted_days, 1);
+        assert_eq!(r.filled.days.len(), 5);
+        // Interpolated halfway between 30 and 32 (Tmax), 10 and 12 (Tmin).
+        let second = r.filled.days[1];
+        assert!((second.tmax_c.expect("filled") - 31.0).abs() < 1e-9);
+        assert!((second.tmin_c.expect("filled") - 11.0).abs() < 1e-9);
+        assert_eq!(second.rain_mm, Some(4.0));
+        assert!(r.filled_days >= 2);
+    }
+}

@@ -33,4 +33,5 @@ pub mod stats;
 pub mod units;
 pub mod weather;
 pub mod weather_gen;
+pub mod weather_import;
 pub mod yield_response;

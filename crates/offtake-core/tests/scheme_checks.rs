@@ -6,8 +6,8 @@
 use chrono::NaiveDate;
 use offtake_core::scheme::design::{design_flow_from_depth_ls, duty_ls_ha, required_capacity_ls};
 use offtake_core::scheme::{
-    Block, Canal, DesignOptions, Network, NirSeries, Node, SchemeDemand, SchemeError,
-    capacity_shortfall, design_values, storage_losses_m3_day,
+    Block, Canal, DesignBasis, DesignOptions, Network, NirSeries, Node, SchemeDemand, SchemeError,
+    capacity_shortfall, capacity_shortfall_on_basis, design_values, storage_losses_m3_day,
 };
 
 fn assert_close(found: f64, expected: f64, tol: f64, what: &str) {
@@ -147,6 +147,85 @@ fn capacity_shortfall_constructed_series() {
         1e-9,
         "12 h not delivered",
     );
+}
+
+/// Shortfall on the design basis (issue 5: daily peaks of refill-style
+/// schedules are never the default basis). Capacity 2 l/s × 24 h = 172.8
+/// m³/day. Demand from 1 January 2031 (m³/day):
+/// - 1–10 Jan: 100 on nine days, 1 000 on 5 Jan (a refill pulse):
+///   mean 1 900 ÷ 10 = 190 > 172.8 → short, (190 − 172.8) × 10 = 172.0 m³;
+/// - 11–20 Jan: 50 on nine days, 1 000 on 15 Jan: mean 1 450 ÷ 10 = 145
+///   ≤ 172.8 → not short, although 15 Jan is a daily peak above capacity;
+/// - 21–31 Jan: 200 on 11 days: (200 − 172.8) × 11 = 299.2 m³;
+/// - 1–3 Feb (the record ends): 300: the period 1–10 Feb is compared on its
+///   3 days: (300 − 172.8) × 3 = 381.6 m³.
+///
+/// 10-day basis: 3 periods, 172.0 + 299.2 + 381.6 = 852.8 m³.
+/// Monthly basis: January 5 550 ÷ 31 = 179.03 > 172.8 → 5 550 − 172.8 × 31
+/// = 193.2 m³; February (3 days) 381.6 m³; total 574.8 m³.
+/// Daily peaks: 5 and 15 Jan (827.2 each), 21–31 Jan (27.2 × 11 = 299.2),
+/// 1–3 Feb (127.2 × 3 = 381.6): 16 days, 2 335.2 m³.
+#[test]
+fn capacity_shortfall_follows_the_design_basis() {
+    let start = NaiveDate::from_ymd_opt(2031, 1, 1).unwrap();
+    let mut demand = vec![100.0; 10];
+    demand[4] = 1000.0;
+    let mut second = vec![50.0; 10];
+    second[4] = 1000.0;
+    demand.extend(second);
+    demand.extend([200.0; 11]);
+    demand.extend([300.0; 3]);
+    let ten =
+        capacity_shortfall_on_basis(start, &demand, 0.002, 24.0, DesignBasis::TenDay).unwrap();
+    assert_eq!(ten.basis, DesignBasis::TenDay);
+    let starts: Vec<String> = ten
+        .basis_periods
+        .iter()
+        .map(|p| p.start.to_string())
+        .collect();
+    assert_eq!(starts, ["2031-01-01", "2031-01-21", "2031-02-01"]);
+    assert_close(ten.basis_periods[0].deficit_m3, 172.0, 1e-9, "1-10 Jan");
+    assert_close(ten.basis_periods[1].deficit_m3, 299.2, 1e-9, "21-31 Jan");
+    assert_eq!(ten.basis_periods[2].covered_days, 3);
+    assert_eq!(ten.basis_periods[2].period_days, 10);
+    assert_close(ten.basis_periods[2].deficit_m3, 381.6, 1e-9, "1-3 Feb");
+    assert_close(
+        ten.basis_periods[0].mean_demand_ls,
+        190.0 / 86.4,
+        1e-12,
+        "mean l/s",
+    );
+    assert_close(
+        ten.basis_volume_not_delivered_m3,
+        852.8,
+        1e-9,
+        "10-day total",
+    );
+    // Daily peaks beside it.
+    assert_eq!(ten.days.len(), 16);
+    assert_close(ten.volume_not_delivered_m3, 2335.2, 1e-9, "daily peaks");
+
+    let month =
+        capacity_shortfall_on_basis(start, &demand, 0.002, 24.0, DesignBasis::Monthly).unwrap();
+    assert_eq!(month.basis_periods.len(), 2);
+    assert_close(month.basis_periods[0].deficit_m3, 193.2, 1e-9, "January");
+    assert_close(
+        month.basis_volume_not_delivered_m3,
+        574.8,
+        1e-9,
+        "monthly total",
+    );
+
+    let daily =
+        capacity_shortfall_on_basis(start, &demand, 0.002, 24.0, DesignBasis::Daily).unwrap();
+    assert_eq!(daily.basis_periods.len(), 16);
+    assert_close(
+        daily.basis_volume_not_delivered_m3,
+        2335.2,
+        1e-9,
+        "daily total",
+    );
+    assert!(capacity_shortfall_on_basis(start, &demand, -1.0, 24.0, DesignBasis::TenDay).is_err());
 }
 
 /// Reservoir losses: 5 mm/day over 200 ha = 5 × 200 × 10 = 10 000 m³/day

@@ -2,6 +2,11 @@
 //! the sum over blocks of NIR ÷ (Ea × Eb) ÷ the conveyance efficiencies along
 //! the block's path equals the headworks demand. The reference sum is
 //! computed here independently of the tree walk in `SchemeDemand`.
+//!
+//! Some series carry their own application efficiency (a paddy planting,
+//! whose efficiency covers operational losses only): for those the sum uses
+//! NIR ÷ (Ea of the series × Eb), so the identity is
+//! Σ_series NIR_s ÷ (Ea_s × Eb × Π Ec) = headworks demand.
 #![allow(clippy::unwrap_used, clippy::float_cmp, clippy::needless_range_loop)]
 
 use chrono::NaiveDate;
@@ -16,7 +21,7 @@ const DAYS: usize = 15;
 struct RandomScheme {
     canals: Vec<(Option<usize>, f64)>,
     blocks: Vec<(usize, f64, f64, f64)>,
-    series: Vec<(usize, usize, Vec<f64>)>,
+    series: Vec<(usize, usize, Vec<f64>, Option<f64>)>,
 }
 
 fn scheme_strategy() -> impl Strategy<Value = RandomScheme> {
@@ -45,6 +50,7 @@ fn scheme_strategy() -> impl Strategy<Value = RandomScheme> {
                     0..n_blocks,
                     0usize..3,
                     prop::collection::vec(0.0f64..20_000.0, DAYS),
+                    prop::option::of(0.3f64..=1.0),
                 ),
                 1..25,
             );
@@ -86,10 +92,11 @@ fn build(s: &RandomScheme) -> (Network, Vec<NirSeries>) {
     let series = s
         .series
         .iter()
-        .map(|(b, crop, v)| NirSeries {
+        .map(|(b, crop, v, ea)| NirSeries {
             block: format!("b{b}"),
             crop: ["maize", "rice", "wheat"][*crop].to_owned(),
             nir_m3_day: v.clone(),
+            application_efficiency: *ea,
         })
         .collect();
     (Network::new(canals, blocks).unwrap(), series)
@@ -125,8 +132,9 @@ proptest! {
             let expected: f64 = s
                 .series
                 .iter()
-                .map(|(b, _, v)| {
-                    let (canal, _, ea, eb) = s.blocks[*b];
+                .map(|(b, _, v, ea_series)| {
+                    let (canal, _, ea_block, eb) = s.blocks[*b];
+                    let ea = ea_series.unwrap_or(ea_block);
                     v[day] / (ea * eb) / path_ec(&s, canal)
                 })
                 .sum();
@@ -146,6 +154,19 @@ proptest! {
                     .map(|b| demand.block_share_m3_day(node, b).unwrap()[day])
                     .sum();
                 prop_assert!(close(by_block, total[day]));
+            }
+        }
+        // Each block's GIR at the outlet is Σ its series' NIR ÷ (Ea_s × Eb).
+        for (bi, (_, _, ea_block, eb)) in s.blocks.iter().enumerate() {
+            let gir = demand.block_gir_m3_day(bi);
+            for day in 0..DAYS {
+                let expected: f64 = s
+                    .series
+                    .iter()
+                    .filter(|(b, ..)| *b == bi)
+                    .map(|(_, _, v, ea)| v[day] / (ea.unwrap_or(*ea_block) * eb))
+                    .sum();
+                prop_assert!(close(gir[day], expected), "block {bi} day {day}");
             }
         }
     }
@@ -253,21 +274,30 @@ fn bad_requirement_series_are_listed() {
             block: "b".into(),
             crop: "x".into(),
             nir_m3_day: vec![1.0, f64::NAN, 2.0],
+            application_efficiency: None,
         },
         NirSeries {
             block: "nope".into(),
             crop: "x".into(),
             nir_m3_day: vec![1.0, 1.0],
+            application_efficiency: Some(1.5),
         },
         NirSeries {
             block: "b".into(),
             crop: "y".into(),
             nir_m3_day: vec![1.0, -1.0, 1.0],
+            application_efficiency: None,
         },
     ];
     let Err(SchemeError::Invalid(problems)) = SchemeDemand::compute(&network, start, 3, &series)
     else {
         panic!("expected invalid series");
     };
-    assert_eq!(problems.len(), 4, "{problems:?}");
+    // Missing block, wrong length, NaN, negative value, and the override
+    // Ea 1.5 outside (0, 1].
+    assert_eq!(problems.len(), 5, "{problems:?}");
+    assert!(problems.iter().any(|p| matches!(
+        p,
+        NetworkProblem::EfficiencyOutOfRange { kind: "Ea", value, .. } if *value == 1.5
+    )));
 }

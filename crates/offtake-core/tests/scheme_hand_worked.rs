@@ -284,6 +284,18 @@ fn design_values_duty_capacity_shortfall() {
             .all(|p| p.period.month() == 7 && p.period.part() == 2)
     );
     assert_close(s.volume_not_delivered_m3, 111_000.0, 1e-6, "not delivered");
+    // On the 10-day design basis the same three periods are short (their
+    // days are all equal): (23 000 f − 21 600) × 10 days, the same 111 000 m³,
+    // in the three years f = 1.0, 1.1, 1.2.
+    assert_eq!(s.basis, DesignBasis::TenDay);
+    assert_eq!(s.basis_periods.len(), 3);
+    assert_close(
+        s.basis_volume_not_delivered_m3,
+        111_000.0,
+        1e-6,
+        "basis not delivered",
+    );
+    assert_eq!(s.years_short.len(), 3);
     assert!(hw.shortfall.is_none());
 
     // Monthly basis at D: July mean = 471 500 f ÷ 31 ÷ 86.4 = 176.0379 f l/s

@@ -8,7 +8,9 @@
 //! that is refused with a clear error instead of being cut.
 //!
 //! Both writers go through a temporary file beside the target and rename it
-//! into place, so a failed export never leaves half a file.
+//! into place, so a failed export never leaves half a file. The file gets
+//! the permissions of the file it replaces, or `rw-r--r--` (0o644) for a new
+//! file on Unix — not the owner-only mode of a temporary file.
 //!
 //! The file names and headers that `offtake run` writes are part of the
 //! command contract (DESIGN.md, issue 5) and are constants here.
@@ -66,6 +68,53 @@ pub enum Cell {
     Text(String),
     /// A calendar date, written `YYYY-MM-DD`.
     Date(NaiveDate),
+}
+
+/// `value` rounded to `decimals` places (half away from zero), with −0
+/// written as 0. Non-finite values are returned unchanged (the table check
+/// refuses them).
+///
+/// The result is the double nearest the rounded decimal, so the CSV writer
+/// (shortest round-trip form) prints it with at most `decimals` places.
+pub fn round_to(value: f64, decimals: u32) -> f64 {
+    if !value.is_finite() {
+        return value;
+    }
+    let scale = 10_f64.powi(i32::try_from(decimals).unwrap_or(i32::MAX));
+    let scaled = value * scale;
+    // Beyond 2^52 every double is already a whole number at this scale.
+    if scaled.abs() >= 4.5e15 {
+        return value;
+    }
+    (scaled.round() / scale) + 0.0
+}
+
+/// Decimals used by `offtake run` for each kind of quantity (issue 5
+/// exports): flows in l/s to 0.01, depths in mm to 0.01, volumes in m³ to
+/// 0.1, duty in l/s/ha to 0.001, areas in ha to 0.01.
+pub mod decimals {
+    /// Flows (l/s).
+    pub const FLOW_LS: u32 = 2;
+    /// Depths (mm).
+    pub const DEPTH_MM: u32 = 2;
+    /// Volumes (m³).
+    pub const VOLUME_M3: u32 = 1;
+    /// Duty (l/s/ha).
+    pub const DUTY_LS_HA: u32 = 3;
+    /// Areas (ha).
+    pub const AREA_HA: u32 = 2;
+}
+
+impl Cell {
+    /// A number rounded to `decimals` places ([`round_to`]).
+    pub fn rounded(value: f64, decimals: u32) -> Self {
+        Self::Number(round_to(value, decimals))
+    }
+
+    /// An optional number rounded to `decimals` places; blank when `None`.
+    pub fn rounded_opt(value: Option<f64>, decimals: u32) -> Self {
+        value.map_or(Self::Empty, |v| Self::rounded(v, decimals))
+    }
 }
 
 impl From<f64> for Cell {
@@ -411,11 +460,32 @@ fn temp_beside(path: &Path) -> Result<tempfile::NamedTempFile, ExportError> {
         Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
         _ => PathBuf::from("."),
     };
-    tempfile::Builder::new()
-        .prefix(".offtake-export-")
-        .suffix(".tmp")
+    let mut builder = tempfile::Builder::new();
+    builder.prefix(".offtake-export-").suffix(".tmp");
+    if let Some(p) = permissions_for(path) {
+        builder.permissions(p);
+    }
+    builder
         .tempfile_in(&dir)
         .map_err(|source| ExportError::Io { path: dir, source })
+}
+
+/// Permissions a file written atomically over `path` should get: those of
+/// the file it replaces, or 0o644 (`rw-r--r--`) for a new file on Unix.
+/// `None` elsewhere (the platform default).
+pub fn permissions_for(path: &Path) -> Option<std::fs::Permissions> {
+    if let Ok(meta) = std::fs::metadata(path) {
+        return Some(meta.permissions());
+    }
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::PermissionsExt;
+        Some(std::fs::Permissions::from_mode(0o644))
+    }
+    #[cfg(not(unix))]
+    {
+        None
+    }
 }
 
 fn persist(tmp: tempfile::NamedTempFile, path: &Path) -> Result<(), ExportError> {

@@ -8,8 +8,11 @@
 //! unknown fields, so a misspelt field is an error at its line and column,
 //! never silently dropped. The first field is `schema`:
 //!
-//! * `schema: 1` — the current layout ([`CURRENT_SCHEMA`]).
-//! * `schema: 0` — the first layout, still read and migrated (see [`v0`]).
+//! * `schema: 2` — the current layout ([`CURRENT_SCHEMA`]).
+//! * `schema: 1` — read and migrated (see [`v1`]): its minimal
+//!   `weather.mapping` becomes `weather.import`.
+//! * `schema: 0` — the first layout, still read and migrated through schema 1
+//!   (see [`v0`]).
 //! * anything newer is refused with a message naming both versions.
 //!
 //! # Hostile input
@@ -21,7 +24,8 @@
 //! # Saving
 //! [`save_project`] writes a temporary file in the same folder, flushes and
 //! syncs it, copies the previous file to `NAME.ron.bak`, then renames the
-//! temporary file over the target. A failure at any step before the rename
+//! temporary file over the target. The saved file keeps the permissions of
+//! the file it replaces (`rw-r--r--` for a new file on Unix). A failure at any step before the rename
 //! leaves the existing file untouched.
 
 use std::fs::File;
@@ -113,6 +117,16 @@ pub enum ProjectFileError {
         /// The offending text.
         token: String,
     },
+    /// An older file holds something the current schema cannot express.
+    #[error("{}: cannot migrate schema {from} to schema {CURRENT_SCHEMA}: {message}", path.display())]
+    Migration {
+        /// The file.
+        path: PathBuf,
+        /// The file's schema.
+        from: u32,
+        /// What could not be converted, and what to do.
+        message: String,
+    },
     /// The project could not be turned into RON (a bug or a non-finite value).
     #[error("could not write the project as RON: {message}")]
     Serialize {
@@ -202,12 +216,26 @@ pub fn parse_project(text: &str, path: &Path) -> Result<Project, ProjectFileErro
             parse_err(e)
         }
     })?;
+    let migration_err = |from: u32| {
+        move |e: v1::MigrationError| ProjectFileError::Migration {
+            path: path.to_path_buf(),
+            from,
+            message: e.to_string(),
+        }
+    };
     let project = match probe.schema {
-        0 => v0::migrate(
+        0 => v1::migrate(v0::migrate(
             ron_options()
                 .from_str::<v0::Project>(text)
                 .map_err(parse_err)?,
-        ),
+        ))
+        .map_err(migration_err(0))?,
+        1 => v1::migrate(
+            ron_options()
+                .from_str::<v1::Project>(text)
+                .map_err(parse_err)?,
+        )
+        .map_err(migration_err(1))?,
         CURRENT_SCHEMA => ron_options().from_str::<Project>(text).map_err(parse_err)?,
         found => {
             return Err(ProjectFileError::NewerSchema {
@@ -448,11 +476,14 @@ where
         Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
         _ => PathBuf::from("."),
     };
-    let mut tmp = tempfile::Builder::new()
-        .prefix(".offtake-save-")
-        .suffix(".tmp")
-        .tempfile_in(&dir)
-        .map_err(io_err(&dir))?;
+    // The saved file keeps the permissions of the file it replaces (0o644
+    // for a new file on Unix), not the owner-only mode of a temporary file.
+    let mut builder = tempfile::Builder::new();
+    builder.prefix(".offtake-save-").suffix(".tmp");
+    if let Some(p) = crate::export::permissions_for(path) {
+        builder.permissions(p);
+    }
+    let mut tmp = builder.tempfile_in(&dir).map_err(io_err(&dir))?;
     {
         let mut writer = wrap(tmp.as_file_mut());
         writer.write_all(text.as_bytes()).map_err(io_err(path))?;
@@ -493,6 +524,8 @@ pub fn weather_path(project_path: &Path, project: &Project) -> PathBuf {
 
 pub mod v0 {
     //! The first project layout (schema 0), kept so old files still open.
+    //! It migrates to schema 1 ([`super::v1`]), which migrates to the current
+    //! schema.
     //!
     //! Differences from schema 1:
     //! * efficiencies were percentages: `conveyance_efficiency_pct`,
@@ -508,6 +541,8 @@ pub mod v0 {
     use offtake_core::project as cur;
     use serde::Deserialize;
 
+    use super::v1;
+
     /// Schema-0 project.
     #[derive(Debug, Deserialize)]
     #[serde(deny_unknown_fields, rename = "Project")]
@@ -522,8 +557,8 @@ pub mod v0 {
         pub blocks: Vec<Block>,
         /// Plantings.
         pub plantings: Vec<Planting>,
-        /// Weather source (unchanged since).
-        pub weather: cur::WeatherSource,
+        /// Weather source (unchanged in schema 1).
+        pub weather: v1::WeatherSource,
         /// Options.
         pub options: Options,
     }
@@ -614,10 +649,10 @@ pub mod v0 {
         pub rotation_period_days: u32,
     }
 
-    /// Converts a schema-0 project to the current schema.
-    pub fn migrate(old: Project) -> cur::Project {
-        cur::Project {
-            schema: cur::CURRENT_SCHEMA,
+    /// Converts a schema-0 project to schema 1.
+    pub fn migrate(old: Project) -> v1::Project {
+        v1::Project {
+            schema: 1,
             scheme: old.scheme,
             canals: old
                 .canals
@@ -664,6 +699,8 @@ pub mod v0 {
                     season: p.season,
                     strategy: p.strategy,
                     season_length_days: None,
+                    paddy: None,
+                    coefficients: offtake_core::project::CoefficientChoice::Single,
                 })
                 .collect(),
             weather: old.weather,
@@ -680,5 +717,298 @@ pub mod v0 {
             },
             scenarios: Vec::new(),
         }
+    }
+}
+
+pub mod v1 {
+    //! The second project layout (schema 1), kept so its files still open.
+    //!
+    //! Differences from schema 2: the weather source held a minimal column
+    //! mapping, `weather.mapping: (columns: [(source, target, unit)])`, where
+    //! `target` is one of Offtake's own column names (DESIGN.md) and `unit` a
+    //! free unit text. Schema 2 replaces it by `weather.import`
+    //! ([`ImportSettings`]); [`migrate`] converts the mapping, reading the
+    //! unit texts listed at [`quantity_of`]. A mapping without a `date`
+    //! target keeps the date column `date`; delimiter, decimal separator and
+    //! date format stay detected, as schema 1 read them.
+
+    use offtake_core::project as cur;
+    use offtake_core::weather_import::units::{
+        DepthUnit, HumidityUnit, PressureUnit, RadiationUnit, TemperatureUnit, WindUnit,
+    };
+    use offtake_core::weather_import::{
+        ColumnMapping, DateFormat, ImportSettings, MappedColumn, Quantity,
+    };
+    use serde::Deserialize;
+    use thiserror::Error;
+
+    /// Schema-1 project: the current layout except the weather source.
+    #[derive(Debug, Deserialize)]
+    #[serde(deny_unknown_fields, rename = "Project")]
+    pub struct Project {
+        /// Always 1.
+        pub schema: u32,
+        /// Scheme name and notes.
+        pub scheme: cur::SchemeInfo,
+        /// Canals.
+        pub canals: Vec<cur::Canal>,
+        /// Blocks.
+        pub blocks: Vec<cur::Block>,
+        /// Plantings.
+        pub plantings: Vec<cur::Planting>,
+        /// Weather source with the schema-1 mapping.
+        pub weather: WeatherSource,
+        /// Reservoir.
+        #[serde(default)]
+        pub reservoir: Option<cur::Reservoir>,
+        /// Options.
+        pub options: cur::Options,
+        /// Scenarios.
+        #[serde(default)]
+        pub scenarios: Vec<cur::Scenario>,
+    }
+
+    /// Schema-1 weather source.
+    #[derive(Debug, Deserialize)]
+    #[serde(deny_unknown_fields)]
+    pub struct WeatherSource {
+        /// Path to the weather CSV.
+        pub path: String,
+        /// Latitude, degrees.
+        pub latitude_deg: f64,
+        /// Elevation, m.
+        pub elevation_m: f64,
+        /// Wind measurement height, m.
+        pub wind_height_m: f64,
+        /// The minimal mapping.
+        #[serde(default)]
+        pub mapping: Option<WeatherMapping>,
+    }
+
+    /// Schema-1 mapping: one entry per mapped column.
+    #[derive(Debug, Deserialize)]
+    #[serde(deny_unknown_fields)]
+    pub struct WeatherMapping {
+        /// The mapped columns.
+        pub columns: Vec<ColumnMap>,
+    }
+
+    /// Schema-1 mapped column.
+    #[derive(Debug, Deserialize)]
+    #[serde(deny_unknown_fields)]
+    pub struct ColumnMap {
+        /// Header in the source file.
+        pub source: String,
+        /// Offtake column name (`date`, `tmax_c`, `rain_mm`, …).
+        pub target: String,
+        /// Unit text of the source column, if not Offtake's unit.
+        #[serde(default)]
+        pub unit: Option<String>,
+    }
+
+    /// A schema-1 mapping entry the current schema cannot express.
+    #[derive(Debug, Clone, PartialEq, Eq, Error)]
+    #[non_exhaustive]
+    pub enum MigrationError {
+        /// `target` is not one of Offtake's column names.
+        #[error(
+            "weather.mapping column {header:?}: target {target:?} is not an Offtake column name (expected one of date, tmax_c, tmin_c, tmean_c, rhmax_pct, rhmin_pct, rhmean_pct, tdew_c, ea_kpa, wind_ms, solar_mj, sunshine_h, rain_mm)"
+        )]
+        UnknownTarget {
+            /// The source header.
+            header: String,
+            /// The target given.
+            target: String,
+        },
+        /// The unit text is not one this target can be in.
+        #[error(
+            "weather.mapping column {header:?} ({target}): unit {unit:?} is not understood; expected one of {expected}"
+        )]
+        UnknownUnit {
+            /// The source header.
+            header: String,
+            /// The target.
+            target: String,
+            /// The unit text given.
+            unit: String,
+            /// The unit texts accepted for this target.
+            expected: &'static str,
+        },
+    }
+
+    /// Lower case, without spaces, degree signs and `_`.
+    fn normalise_unit(unit: &str) -> String {
+        unit.chars()
+            .filter(|c| !c.is_whitespace() && !matches!(c, '°' | 'º' | '_'))
+            .flat_map(char::to_lowercase)
+            .collect()
+    }
+
+    /// The quantity of a schema-1 mapping entry: `target` (Offtake's column
+    /// name) in the unit `unit` (`None` = the column's own unit).
+    ///
+    /// Unit texts read (case, spaces and degree signs ignored): temperature
+    /// `C`, `degC`, `celsius`, `F`, `degF`, `fahrenheit`, `K`, `kelvin`;
+    /// humidity `%`, `pct`, `percent`, `fraction`, `frac`; vapour pressure
+    /// `kPa`, `hPa`, `mbar`, `mb`; wind `m/s`, `ms`, `km/h`, `kmh`, `kph`,
+    /// `mph`, `knots`, `knot`, `kn`, `kt`, `kts`; radiation `MJ/m2/day`, `MJ`,
+    /// `W/m2`, `Wm-2`, `kWh/m2/day`, `kWh`; sunshine `h`, `hours`; rain `mm`,
+    /// `in`, `inch`, `inches`.
+    ///
+    /// # Errors
+    /// [`MigrationError`] naming the column, the text found and the texts
+    /// accepted.
+    pub fn quantity_of(c: &ColumnMap) -> Result<Quantity, MigrationError> {
+        let Some(own) = Quantity::from_own_column(&c.target.trim().to_lowercase()) else {
+            return Err(MigrationError::UnknownTarget {
+                header: c.source.clone(),
+                target: c.target.clone(),
+            });
+        };
+        let Some(unit_text) = c.unit.as_deref().filter(|u| !u.trim().is_empty()) else {
+            return Ok(own);
+        };
+        let u = normalise_unit(unit_text);
+        let bad = |expected: &'static str| MigrationError::UnknownUnit {
+            header: c.source.clone(),
+            target: own.field_name().to_owned(),
+            unit: unit_text.to_owned(),
+            expected,
+        };
+        let temperature = || match u.as_str() {
+            "c" | "degc" | "celsius" => Ok(TemperatureUnit::Celsius),
+            "f" | "degf" | "fahrenheit" => Ok(TemperatureUnit::Fahrenheit),
+            "k" | "kelvin" => Ok(TemperatureUnit::Kelvin),
+            _ => Err(bad("C, F, K")),
+        };
+        let humidity = || match u.as_str() {
+            "%" | "pct" | "percent" => Ok(HumidityUnit::Percent),
+            "fraction" | "frac" => Ok(HumidityUnit::Fraction),
+            _ => Err(bad("%, fraction")),
+        };
+        let q = match own {
+            Quantity::Tmax(_) => Quantity::Tmax(temperature()?),
+            Quantity::Tmin(_) => Quantity::Tmin(temperature()?),
+            Quantity::Tmean(_) => Quantity::Tmean(temperature()?),
+            Quantity::Dewpoint(_) => Quantity::Dewpoint(temperature()?),
+            Quantity::RhMax(_) => Quantity::RhMax(humidity()?),
+            Quantity::RhMin(_) => Quantity::RhMin(humidity()?),
+            Quantity::RhMean(_) => Quantity::RhMean(humidity()?),
+            Quantity::VapourPressure(_) => Quantity::VapourPressure(match u.as_str() {
+                "kpa" => PressureUnit::Kilopascal,
+                "hpa" => PressureUnit::Hectopascal,
+                "mbar" | "mb" => PressureUnit::Millibar,
+                _ => return Err(bad("kPa, hPa, mbar")),
+            }),
+            Quantity::Wind { height_m, .. } => Quantity::Wind {
+                unit: match u.as_str() {
+                    "m/s" | "ms" | "mps" => WindUnit::MetresPerSecond,
+                    "km/h" | "kmh" | "kph" => WindUnit::KilometresPerHour,
+                    "mph" => WindUnit::MilesPerHour,
+                    "knots" | "knot" | "kn" | "kt" | "kts" => WindUnit::Knots,
+                    _ => return Err(bad("m/s, km/h, mph, knots")),
+                },
+                height_m,
+            },
+            Quantity::Solar(_) => Quantity::Solar(match u.as_str() {
+                "mj/m2/day" | "mj/m2" | "mj" | "mjm-2day-1" | "mj/m²/day" => {
+                    RadiationUnit::MegajoulesPerSquareMetreDay
+                }
+                "w/m2" | "wm-2" | "w/m²" | "wm2" => RadiationUnit::WattsPerSquareMetreDailyMean,
+                "kwh/m2/day" | "kwh/m2" | "kwh" | "kwh/m²/day" => {
+                    RadiationUnit::KilowattHoursPerSquareMetreDay
+                }
+                _ => return Err(bad("MJ/m2/day, W/m2, kWh/m2/day")),
+            }),
+            Quantity::SunshineHours => match u.as_str() {
+                "h" | "hours" | "hour" => Quantity::SunshineHours,
+                _ => return Err(bad("h")),
+            },
+            Quantity::Rain(_) => Quantity::Rain(match u.as_str() {
+                "mm" => DepthUnit::Millimetres,
+                "in" | "inch" | "inches" => DepthUnit::Inches,
+                _ => return Err(bad("mm, in")),
+            }),
+        };
+        Ok(q)
+    }
+
+    /// The date format named by a schema-1 `date` entry's unit text, if any.
+    fn date_format_of(c: &ColumnMap) -> Result<Option<DateFormat>, MigrationError> {
+        let Some(text) = c.unit.as_deref().filter(|u| !u.trim().is_empty()) else {
+            return Ok(None);
+        };
+        match normalise_unit(text).as_str() {
+            "iso" | "yyyy-mm-dd" => Ok(Some(DateFormat::Iso)),
+            "dd/mm/yyyy" | "d/m/y" | "dmy" => Ok(Some(DateFormat::DayMonthYear)),
+            "mm/dd/yyyy" | "m/d/y" | "mdy" => Ok(Some(DateFormat::MonthDayYear)),
+            _ => Err(MigrationError::UnknownUnit {
+                header: c.source.clone(),
+                target: "date".to_owned(),
+                unit: text.to_owned(),
+                expected: "yyyy-mm-dd, dd/mm/yyyy, mm/dd/yyyy",
+            }),
+        }
+    }
+
+    /// Converts a schema-1 mapping to import settings (`None` for no or an
+    /// empty mapping).
+    ///
+    /// # Errors
+    /// [`MigrationError`] for an unknown target or unit text.
+    pub fn import_settings_of(
+        mapping: Option<WeatherMapping>,
+    ) -> Result<Option<ImportSettings>, MigrationError> {
+        let Some(mapping) = mapping.filter(|m| !m.columns.is_empty()) else {
+            return Ok(None);
+        };
+        let mut date_column = "date".to_owned();
+        let mut date_format = None;
+        let mut columns = Vec::new();
+        for c in &mapping.columns {
+            if c.target.trim().eq_ignore_ascii_case("date") {
+                date_column.clone_from(&c.source);
+                date_format = date_format_of(c)?;
+            } else {
+                columns.push(MappedColumn {
+                    header: c.source.clone(),
+                    quantity: quantity_of(c)?,
+                });
+            }
+        }
+        Ok(Some(ImportSettings {
+            mapping: Some(ColumnMapping {
+                date_column,
+                columns,
+            }),
+            date_format,
+            ..ImportSettings::default()
+        }))
+    }
+
+    /// Converts a schema-1 project to the current schema.
+    ///
+    /// # Errors
+    /// [`MigrationError`] when the weather mapping names an unknown column or
+    /// unit.
+    pub fn migrate(old: Project) -> Result<cur::Project, MigrationError> {
+        let w = old.weather;
+        Ok(cur::Project {
+            schema: cur::CURRENT_SCHEMA,
+            scheme: old.scheme,
+            canals: old.canals,
+            blocks: old.blocks,
+            plantings: old.plantings,
+            weather: cur::WeatherSource {
+                path: w.path,
+                latitude_deg: w.latitude_deg,
+                elevation_m: w.elevation_m,
+                wind_height_m: w.wind_height_m,
+                import: import_settings_of(w.mapping)?,
+            },
+            reservoir: old.reservoir,
+            options: old.options,
+            scenarios: old.scenarios,
+        })
     }
 }

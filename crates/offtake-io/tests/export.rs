@@ -172,3 +172,57 @@ fn sheet_names_are_made_acceptable() {
     let err = write_workbook(&[&t, &u], &dir.path().join("d.xlsx")).unwrap_err();
     assert!(matches!(err, ExportError::DuplicateSheet(_)), "{err}");
 }
+
+/// Rounding for the CSV tables: the printed text has at most the asked
+/// decimals, halves go away from zero, −0 prints as 0.
+#[test]
+#[expect(
+    clippy::float_cmp,
+    reason = "round_to returns the double nearest the rounded decimal: exact equality is the point"
+)]
+fn numbers_are_rounded_for_export() {
+    use offtake_io::export::{Cell, round_to};
+    assert_eq!(round_to(5_575.220_450_692_773, 2), 5_575.22);
+    assert_eq!(round_to(1.915_883_316_389_269, 3), 1.916);
+    assert_eq!(round_to(70_214_696.876_833_93, 1), 70_214_696.9);
+    assert_eq!(round_to(0.125, 2), 0.13);
+    assert_eq!(format!("{}", round_to(-0.001, 2)), "0");
+    assert_eq!(format!("{}", round_to(0.1 + 0.2, 2)), "0.3");
+    assert!(round_to(f64::NAN, 2).is_nan());
+    let mut t = Table::with_headers("t", &["flow_ls", "duty_ls_ha"]);
+    t.push_row(vec![
+        Cell::rounded(1_234.567_891, 2),
+        Cell::rounded_opt(None, 3),
+    ]);
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("t.csv");
+    write_csv(&t, &path).unwrap();
+    assert_eq!(
+        std::fs::read_to_string(&path).unwrap(),
+        "flow_ls,duty_ls_ha\n1234.57,\n"
+    );
+}
+
+/// Files written atomically get normal permissions (0o644 for a new file),
+/// not the owner-only mode of the temporary file; a replaced file keeps its
+/// own.
+#[cfg(unix)]
+#[test]
+fn exported_files_get_normal_permissions() {
+    use std::os::unix::fs::PermissionsExt;
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("d.csv");
+    write_csv(&design_table(), &path).unwrap();
+    let mode = std::fs::metadata(&path).unwrap().permissions().mode() & 0o777;
+    // 0o644 less whatever the process umask removes (never owner-only).
+    assert_eq!(mode & 0o600, 0o600);
+    assert_ne!(mode & 0o044, 0, "mode {mode:o}");
+    std::fs::set_permissions(&path, std::fs::Permissions::from_mode(0o640)).unwrap();
+    write_csv(&design_table(), &path).unwrap();
+    let mode = std::fs::metadata(&path).unwrap().permissions().mode() & 0o777;
+    assert_eq!(mode, 0o640);
+    let book = dir.path().join("r.xlsx");
+    write_workbook(&[&design_table()], &book).unwrap();
+    let mode = std::fs::metadata(&book).unwrap().permissions().mode() & 0o777;
+    assert_ne!(mode & 0o044, 0, "mode {mode:o}");
+}

@@ -43,7 +43,7 @@ fn position_of(file: &str, needle: &str) -> (usize, usize) {
 #[test]
 fn minimal_project_loads() {
     let p = load_project(&corpus("minimal.ron")).unwrap();
-    assert_eq!(p.schema, 1);
+    assert_eq!(p.schema, 2);
     assert_eq!(p.canals[0].kind, CanalKind::Main);
     assert_eq!(p.plantings[0].area, PlantingArea::Hectares(50.0));
     assert_eq!(p.plantings[0].first_planting, MonthDay { month: 7, day: 1 });
@@ -54,6 +54,9 @@ fn minimal_project_loads() {
 fn schema0_is_migrated() {
     let p = load_project(&corpus("schema0.ron")).unwrap();
     assert_eq!(p.schema, offtake_core::project::CURRENT_SCHEMA);
+    // Chained through schema 1: no mapping there, no import settings here.
+    assert_eq!(p.weather.import, None);
+    assert_eq!(p.weather.path, "w.csv");
     let d1 = p.canal("d1").unwrap();
     assert!((d1.conveyance_efficiency - 0.80).abs() < 1e-12);
     assert_eq!(d1.parent.as_deref(), Some("main"));
@@ -74,7 +77,7 @@ fn schema0_is_migrated() {
     assert!(
         std::fs::read_to_string(&path)
             .unwrap()
-            .contains("schema: 1,")
+            .contains("schema: 2,")
     );
     assert_eq!(load_project(&path).unwrap(), p);
 }
@@ -149,7 +152,7 @@ fn schema_errors_are_clear() {
             err,
             ProjectFileError::NewerSchema {
                 found: 7,
-                supported: 1,
+                supported: 2,
                 ..
             }
         ),
@@ -167,7 +170,7 @@ fn schema_errors_are_clear() {
 fn deep_nesting_is_refused_without_overflow() {
     let depth = 100_000;
     let text = format!(
-        "(schema: 1, scheme: {}{})",
+        "(schema: 2, scheme: {}{})",
         "[".repeat(depth),
         "]".repeat(depth)
     );
@@ -182,7 +185,7 @@ fn deep_nesting_is_refused_without_overflow() {
 fn not_utf8_is_refused_with_position() {
     let dir = tempfile::tempdir().unwrap();
     let path = dir.path().join("bytes.ron");
-    std::fs::write(&path, b"(\n  schema: 1,\n  sch\xffeme: ()").unwrap();
+    std::fs::write(&path, b"(\n  schema: 2,\n  sch\xffeme: ()").unwrap();
     let err = load_project(&path).unwrap_err();
     assert!(
         matches!(
@@ -204,7 +207,7 @@ fn hundred_megabyte_file_is_refused() {
     let path = dir.path().join("huge.ron");
     {
         let mut f = io::BufWriter::new(std::fs::File::create(&path).unwrap());
-        f.write_all(b"(schema: 1, scheme: (name: \"").unwrap();
+        f.write_all(b"(schema: 2, scheme: (name: \"").unwrap();
         let chunk = vec![b'a'; 1 << 20];
         for _ in 0..100 {
             f.write_all(&chunk).unwrap();
@@ -454,4 +457,165 @@ mod fuzz {
             prop_assert_eq!(back, p);
         }
     }
+}
+
+#[test]
+fn schema1_mapping_is_migrated_to_import_settings() {
+    use offtake_core::weather_import::units::{
+        DepthUnit, HumidityUnit, RadiationUnit, TemperatureUnit, WindUnit,
+    };
+    use offtake_core::weather_import::{
+        ColumnMapping, DateFormat, ImportSettings, MappedColumn, Quantity,
+    };
+    let p = load_project(&corpus("schema1.ron")).unwrap();
+    assert_eq!(p.schema, offtake_core::project::CURRENT_SCHEMA);
+    let col = |header: &str, quantity| MappedColumn {
+        header: header.into(),
+        quantity,
+    };
+    let expected = ImportSettings {
+        mapping: Some(ColumnMapping {
+            date_column: "Day".into(),
+            columns: vec![
+                col("Max Temp", Quantity::Tmax(TemperatureUnit::Fahrenheit)),
+                col("Min Temp", Quantity::Tmin(TemperatureUnit::Fahrenheit)),
+                col("RH", Quantity::RhMean(HumidityUnit::Percent)),
+                col(
+                    "Wind",
+                    Quantity::Wind {
+                        unit: WindUnit::KilometresPerHour,
+                        height_m: None,
+                    },
+                ),
+                col(
+                    "Sun",
+                    Quantity::Solar(RadiationUnit::WattsPerSquareMetreDailyMean),
+                ),
+                col("Precip", Quantity::Rain(DepthUnit::Inches)),
+            ],
+        }),
+        date_format: Some(DateFormat::DayMonthYear),
+        ..ImportSettings::default()
+    };
+    assert_eq!(p.weather.import, Some(expected));
+    // Schema 1 stated no height in the mapping: the station's stays.
+    assert_eq!(p.weather.wind_height_m, 10.0);
+    assert_eq!(p.weather.wind_height_mismatch(), None);
+    // Saved again it is a schema-2 file that loads to the same project.
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("migrated.ron");
+    save_project(&path, &p).unwrap();
+    let text = std::fs::read_to_string(&path).unwrap();
+    assert!(
+        text.contains("schema: 2,") && text.contains("import:"),
+        "{text}"
+    );
+    assert!(!text.contains("target:"), "{text}");
+    assert_eq!(load_project(&path).unwrap(), p);
+}
+
+#[test]
+fn schema1_without_mapping_loads_as_the_same_project() {
+    let text = std::fs::read_to_string(corpus("minimal.ron")).unwrap();
+    let current = parse_project(&text, &corpus("minimal.ron")).unwrap();
+    let old_text = text.replace("schema: 2,", "schema: 1,");
+    assert_ne!(old_text, text);
+    let old = parse_project(&old_text, Path::new("old.ron")).unwrap();
+    assert_eq!(old, current);
+    assert_eq!(old.weather.import, None);
+}
+
+#[test]
+fn schema1_unknown_unit_is_a_migration_error() {
+    let err = load_project(&corpus("schema1-bad-unit.ron")).unwrap_err();
+    match &err {
+        ProjectFileError::Migration { from, message, .. } => {
+            assert_eq!(*from, 1);
+            assert!(message.contains("\"Precip\""), "{message}");
+            assert!(message.contains("furlongs"), "{message}");
+            assert!(message.contains("mm, in"), "{message}");
+        }
+        other => panic!("unexpected {other}"),
+    }
+    assert!(err.to_string().contains("schema1-bad-unit.ron"), "{err}");
+}
+
+#[test]
+fn schema1_unknown_target_is_a_migration_error() {
+    let text = std::fs::read_to_string(corpus("schema1.ron"))
+        .unwrap()
+        .replace("target: \"rhmean_pct\"", "target: \"humidity\"");
+    let err = parse_project(&text, Path::new("s1.ron")).unwrap_err();
+    assert!(
+        matches!(&err, ProjectFileError::Migration { message, .. } if message.contains("\"humidity\"")),
+        "{err}"
+    );
+}
+
+/// Paddy inputs are optional and backward compatible: files without them
+/// load with `paddy: None`; a file may give only the inputs it changes (the
+/// rest take the documented defaults); a misspelt input is an error at its
+/// position; a project with paddy inputs round-trips.
+#[test]
+fn paddy_inputs_are_optional_partial_and_strict() {
+    use offtake_core::project::{DEFAULT_PADDY_FIELD_EFFICIENCY, PaddyInputs};
+    let minimal = load_project(&corpus("minimal.ron")).unwrap();
+    assert!(minimal.plantings[0].paddy.is_none());
+    let text = std::fs::read_to_string(corpus("minimal.ron")).unwrap();
+    let with = text.replace(
+        "strategy: Refill(trigger_pct_of_raw: 100.0),",
+        "strategy: Refill(trigger_pct_of_raw: 100.0),\n            paddy: (percolation_seepage_mm_day: 2.0, field_efficiency: 0.85),",
+    );
+    let p = parse_project(&with, Path::new("paddy.ron")).unwrap();
+    let paddy = p.plantings[0].paddy.unwrap();
+    assert_eq!(paddy.percolation_seepage_mm_day, 2.0);
+    assert_eq!(paddy.field_efficiency, 0.85);
+    let d = PaddyInputs::default();
+    assert_eq!(paddy.target_ponding_mm, d.target_ponding_mm);
+    assert_eq!(paddy.land_preparation_days, d.land_preparation_days);
+    assert_eq!(d.field_efficiency, DEFAULT_PADDY_FIELD_EFFICIENCY);
+    // Round trip keeps the inputs.
+    let again = parse_project(&project_to_string(&p).unwrap(), Path::new("again.ron")).unwrap();
+    assert_eq!(again, p);
+    // Unknown field inside the paddy inputs.
+    let bad = with.replace("field_efficiency: 0.85", "field_eficiency: 0.85");
+    match parse_project(&bad, Path::new("bad.ron")) {
+        Err(ProjectFileError::Parse { message, line, .. }) => {
+            assert!(message.contains("field_eficiency"), "{message}");
+            assert!(line > 1);
+        }
+        other => panic!("expected a parse error, got {other:?}"),
+    }
+    // The demo's rice plantings carry their paddy inputs.
+    let demo = load_project(&demo()).unwrap();
+    let rice: Vec<_> = demo
+        .plantings
+        .iter()
+        .filter(|p| p.crop == "rice-paddy")
+        .collect();
+    assert_eq!(rice.len(), 4);
+    for p in rice {
+        let paddy = p.paddy.expect("demo rice has paddy inputs");
+        assert_eq!(paddy.field_efficiency, 0.9);
+        assert_eq!(paddy.percolation_seepage_mm_day, 2.0);
+    }
+}
+
+/// A saved project gets normal permissions (not the temporary file's
+/// owner-only mode) and keeps those of the file it replaces.
+#[cfg(unix)]
+#[test]
+fn saved_project_has_normal_permissions() {
+    use std::os::unix::fs::PermissionsExt;
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("p.ron");
+    let p = load_project(&corpus("minimal.ron")).unwrap();
+    save_project(&path, &p).unwrap();
+    let mode = std::fs::metadata(&path).unwrap().permissions().mode() & 0o777;
+    assert_ne!(mode & 0o044, 0, "mode {mode:o}");
+    std::fs::set_permissions(&path, std::fs::Permissions::from_mode(0o664)).unwrap();
+    save_project(&path, &p).unwrap();
+    let mode = std::fs::metadata(&path).unwrap().permissions().mode() & 0o777;
+    // 0o664 less the umask's bits at most.
+    assert_eq!(mode & 0o644, 0o644, "mode {mode:o}");
 }

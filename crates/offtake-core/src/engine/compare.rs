@@ -23,10 +23,21 @@ pub struct ScenarioColumn {
     pub design_year: String,
     /// Headworks duty (l/s/ha).
     pub duty_ls_ha: Option<f64>,
-    /// Volume not delivered by canals with an existing capacity, mean per
-    /// year of record (m³).
+    /// Volume not delivered by canals with an existing capacity, on the
+    /// design basis (Σ (mean − capacity) × days over the short periods),
+    /// mean per year of record (m³).
     pub shortfall_m3_per_year: f64,
-    /// Days of shortfall summed over those canals.
+    /// Periods of the design basis in shortfall, summed over those canals.
+    pub shortfall_periods: usize,
+    /// Complete irrigation years in which any of those canals falls short
+    /// on the design basis.
+    pub shortfall_years: usize,
+    /// Complete irrigation years of the record.
+    pub complete_years: usize,
+    /// The design basis of the shortfall (`10-day`, `monthly`, `daily`).
+    pub shortfall_basis: &'static str,
+    /// Daily peaks: days on which the daily demand exceeds the capacity,
+    /// summed over those canals (for information; not the design basis).
     pub shortfall_days: usize,
     /// Mean yearly reservoir evaporation (m³), if any.
     pub storage_loss_m3: Option<f64>,
@@ -54,13 +65,22 @@ impl ScenarioColumn {
     pub fn from_results(name: &str, r: &Results) -> Self {
         let head = r.headworks();
         let record_years = r.days as f64 / 365.25;
-        let (mut sf_m3, mut sf_days) = (0.0, 0);
+        let (mut sf_m3, mut sf_days, mut sf_periods) = (0.0, 0, 0);
+        let mut years: Vec<crate::calendar::IrrigationYear> = Vec::new();
+        let mut basis = head.map_or(crate::scheme::DesignBasis::TenDay, |h| h.basis);
         for d in &r.design {
             if d.node != crate::scheme::Node::Headworks
                 && let Some(s) = &d.shortfall
             {
-                sf_m3 += s.volume_not_delivered_m3;
+                sf_m3 += s.basis_volume_not_delivered_m3;
+                sf_periods += s.basis_periods.len();
                 sf_days += s.days.len();
+                basis = s.basis;
+                for y in &s.years_short {
+                    if !years.contains(y) {
+                        years.push(*y);
+                    }
+                }
             }
         }
         Self {
@@ -76,6 +96,10 @@ impl ScenarioColumn {
             } else {
                 0.0
             },
+            shortfall_periods: sf_periods,
+            shortfall_years: years.len(),
+            complete_years: r.complete_years.len(),
+            shortfall_basis: basis.label(),
             shortfall_days: sf_days,
             storage_loss_m3: r.storage.as_ref().map(|s| s.mean_yearly_m3),
             relative_irrigation_supply: r

@@ -13,7 +13,11 @@
 //!    and memory stays bounded by one series per block and crop.
 //! 3. **Scheme** ([`crate::scheme`]): the project's canals and blocks become a
 //!    [`Network`] (Ea = the block method's application efficiency, Eb = the
-//!    block's field-canal efficiency, Ec, hours, capacities); demand up the
+//!    block's field-canal efficiency, Ec, hours, capacities). A paddy rice
+//!    planting's series carries its own Ea, the paddy field efficiency
+//!    (operational losses only, [`crate::project::PaddyInputs`]), because
+//!    its NIR already holds seepage, percolation and land preparation: the
+//!    block's GIR is Σ_series NIR ÷ (Ea_series × Eb). Demand up the
 //!    tree; design values over the complete irrigation years (start month,
 //!    probability and basis from the options); shortfall where an existing
 //!    capacity is given.
@@ -367,50 +371,32 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     let checker =
         crate::et0::Et0Context::new(&site_of(project), &crate::et0::Et0Options::default())
             .map_err(EngineError::Station)?;
-    let mut rejected: Vec<String> = Vec::new();
-    let cleaned: Vec<WeatherDay> = input
-        .weather
-        .iter()
-        .map(|d| match checker.et0_mm_day(d) {
-            Err(e) if d.tmax_c.is_some() && d.tmin_c.is_some() => {
-                rejected.push(format!("{}: {e}", d.date));
-                WeatherDay {
-                    rain_mm: d.rain_mm,
-                    ..WeatherDay::empty(d.date)
-                }
-            }
-            _ => *d,
-        })
-        .collect();
-    if !rejected.is_empty() {
+    let repaired = crate::gapfill::repair_for_daily_balance(
+        input.weather,
+        &crate::gapfill::GapFillOptions::default(),
+        |d| checker.et0_mm_day(d).map(|_| ()).map_err(|e| e.to_string()),
+    )
+    .map_err(|e| EngineError::WeatherFill(e.to_string()))?;
+    if !repaired.rejected.is_empty() {
         warnings.push(format!(
             "weather: {} days rejected by the ET0 checks and filled as gaps (first: {})",
-            rejected.len(),
-            rejected
+            repaired.rejected.len(),
+            repaired
+                .rejected
                 .iter()
                 .take(3)
-                .cloned()
+                .map(|(date, reason)| format!("{date}: {reason}"))
                 .collect::<Vec<_>>()
                 .join("; ")
         ));
     }
-    let filled =
-        crate::gapfill::fill_gaps(&cleaned, &crate::gapfill::GapFillOptions::default(), &[])
-            .map_err(|e| EngineError::WeatherFill(e.to_string()))?;
-    let inserted = filled.days.len().saturating_sub(input.weather.len());
-    let filled_days = filled
-        .marks
-        .iter()
-        .filter(|m| {
-            m.iter()
-                .any(|k| k.is_not_measured() && *k != crate::gapfill::FillMark::Missing)
-        })
-        .count();
+    let (inserted, filled_days) = (repaired.inserted_days, repaired.filled_days);
     if inserted > 0 || filled_days > 0 {
         warnings.push(format!(
             "weather: {inserted} missing dates added and values filled on {filled_days} days (interpolation up to 3 days, FAO-56 missing-data procedures beyond)"
         ));
     }
+    let filled = repaired.filled;
     let weather = weather_prep::prepare_weather(
         &filled.days,
         &site_of(project),
@@ -482,13 +468,17 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     }
     for d in &design {
         if let Some(sf) = &d.shortfall
-            && !sf.days.is_empty()
+            && !sf.basis_periods.is_empty()
         {
             warnings.push(format!(
-                "canal {}: demand exceeds the existing capacity on {} days ({:.0} m³ not delivered over the record)",
+                "canal {}: the {} mean demand exceeds the existing capacity in {} {} of the record, in {} of {} complete irrigation years ({:.0} m³ not delivered over the record)",
                 d.name,
-                sf.days.len(),
-                sf.volume_not_delivered_m3
+                sf.basis.label(),
+                sf.basis_periods.len(),
+                sf.basis.periods_noun(),
+                sf.years_short.len(),
+                d.years.len(),
+                sf.basis_volume_not_delivered_m3
             ));
         }
     }

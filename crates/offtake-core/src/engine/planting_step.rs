@@ -18,9 +18,12 @@ use super::weather_prep::PreparedWeather;
 use crate::balance::{self, RefillTarget, strategy::IntervalDepth};
 use crate::crop::{Crop, CropGroup};
 use crate::planting::{
-    PlantingSpec, PlantingWarning, PlantingWeather, run_planting, run_planting_with_delivery,
+    CoefficientMode, PlantingSpec, PlantingWarning, PlantingWeather, Wetting, run_planting,
+    run_planting_with_delivery,
 };
-use crate::project::{EffectiveRain, Planting, Strategy as PlanStrategy};
+use crate::project::{
+    Block, CoefficientChoice, EffectiveRain, PaddyInputs, Planting, Strategy as PlanStrategy,
+};
 use crate::rain::EffectiveRainMethod;
 use crate::soil::Soil;
 
@@ -55,6 +58,9 @@ pub struct PlantingOutcome {
     pub seasons: Vec<SeasonOutcome>,
     /// Seasons left out of statistics (cut by the record's ends).
     pub seasons_excluded: usize,
+    /// Largest mean ETc over a calendar 10-day period of the record
+    /// (mm/day, per hectare planted; 0 when the crop is never in the field).
+    pub peak_etc_10day_mm_day: f64,
     /// Warnings of the planting other than cut seasons.
     pub warnings: Vec<String>,
 }
@@ -113,6 +119,103 @@ pub fn effective_rain_method(e: EffectiveRain, crop: &Crop, soil: &Soil) -> Effe
     }
 }
 
+/// Whether the planting is computed by the paddy balance (a paddy rice crop).
+pub fn is_paddy(crop: &Crop) -> bool {
+    crop.group == CropGroup::PaddyRice
+}
+
+/// The field application efficiency that replaces the block's Ea for this
+/// planting, if any: for paddy rice the paddy field efficiency (operational
+/// losses only, because the paddy NIR already holds seepage, percolation and
+/// land preparation; [`PaddyInputs`], default 0.9), `None` for other crops.
+pub fn application_efficiency_override(crop: &Crop, planting: &Planting) -> Option<f64> {
+    is_paddy(crop).then(|| planting.paddy.unwrap_or_default().field_efficiency)
+}
+
+/// The paddy inputs used for a planting: its own, or the defaults.
+pub fn paddy_inputs(planting: &Planting) -> PaddyInputs {
+    planting.paddy.unwrap_or_default()
+}
+
+/// Largest mean of a daily series (from `start`) over a calendar 10-day
+/// period (days 1–10, 11–20, 21–end), over the days of the period inside
+/// the series; 0 for an empty series.
+pub fn peak_10day_mean(start: NaiveDate, daily: &[f64]) -> f64 {
+    crate::scheme::aggregate_periods(start, daily, crate::scheme::PeriodStep::TenDay, 0.0)
+        .iter()
+        .map(|p| p.volume_m3 / f64::from(p.covered_days.max(1)))
+        .fold(0.0, f64::max)
+}
+
+/// Readily available water and the peak ETc it is used at, for the
+/// rotation-period check (issue 5: warn when the rotation period is longer
+/// than the time the crop takes to use its readily available water, RAW ÷
+/// ETc). `None` for a rainfed planting or one that never uses water.
+///
+/// * Upland crops: RAW = p × TAW at the maximum rooting depth (FAO-56 eqs.
+///   82–83), with p adjusted for the peak ETc (FAO-56 Table 22 note:
+///   p = p_table + 0.04 (5 − ETc), 0.1 ≤ p ≤ 0.8); ETc = the planting's
+///   largest 10-day mean ETc (the safe choice).
+/// * Paddy rice: the water a field holds between turns is its pond, used
+///   by ETc and by seepage and percolation: "RAW" = the target pond depth,
+///   "ETc" = peak ETc + S&P (so RAW ÷ ETc is the days the pond lasts).
+///
+/// Returns (RAW mm, rate mm/day).
+pub fn raw_and_peak_etc(
+    crop: &Crop,
+    soil: &Soil,
+    planting: &Planting,
+    peak_etc_mm_day: f64,
+) -> Option<(f64, f64)> {
+    if matches!(planting.strategy, PlanStrategy::Rainfed)
+        || !(peak_etc_mm_day.is_finite() && peak_etc_mm_day > 0.0)
+    {
+        return None;
+    }
+    if is_paddy(crop) {
+        let inputs = paddy_inputs(planting);
+        let rate = peak_etc_mm_day + inputs.percolation_seepage_mm_day;
+        return (inputs.target_ponding_mm > 0.0).then_some((inputs.target_ponding_mm, rate));
+    }
+    let taw = soil.taw_mm(crop.root_depth_max_m).ok()?;
+    let p = balance::depletion_fraction_adjusted(crop.depletion_p, peak_etc_mm_day);
+    let raw = balance::readily_available_water_mm(p, taw);
+    (raw.is_finite() && raw > 0.0).then_some((raw, peak_etc_mm_day))
+}
+
+/// The crop coefficient mode of a planting on its block: single Kc, or dual
+/// Kcb + Ke with the wetted fraction fw given in the planting or read from
+/// the block's irrigation method name (FAO-56 Table 20). An unrecognised
+/// method name falls back to full wetting (fw = 1, as sprinkler and basin)
+/// and returns a warning.
+pub fn coefficient_mode(planting: &Planting, block: &Block) -> (CoefficientMode, Option<String>) {
+    match planting.coefficients {
+        CoefficientChoice::Single => (CoefficientMode::Single, None),
+        CoefficientChoice::Dual {
+            wetted_fraction: Some(fw),
+        } => (
+            CoefficientMode::Dual {
+                wetting: Wetting::Fraction(fw),
+            },
+            None,
+        ),
+        CoefficientChoice::Dual {
+            wetted_fraction: None,
+        } => match Wetting::from_method_name(&block.method.name) {
+            Some(wetting) => (CoefficientMode::Dual { wetting }, None),
+            None => (
+                CoefficientMode::Dual {
+                    wetting: Wetting::Sprinkler,
+                },
+                Some(format!(
+                    "planting {}: irrigation method \"{}\" of block {} does not say how much of the surface it wets; fw = 1 (full wetting, FAO-56 Table 20) was used for the dual crop coefficient",
+                    planting.id, block.method.name, block.id
+                )),
+            ),
+        },
+    }
+}
+
 /// Simulates one planting over the whole weather record, per hectare.
 ///
 /// `delivered_net_mm`, when given, is the net depth (mm/day per hectare of
@@ -127,6 +230,7 @@ pub fn simulate_planting(
     soil: &Soil,
     planting: &Planting,
     effective_rain: EffectiveRain,
+    coefficients: CoefficientMode,
     w: &PreparedWeather,
     delivered_net_mm: Option<&[f64]>,
 ) -> Result<PlantingOutcome, String> {
@@ -140,6 +244,10 @@ pub fn simulate_planting(
     spec.season_length_days = planting.season_length_days;
     spec.strategy = balance_strategy(planting.strategy, crop);
     spec.effective_rain = effective_rain_method(effective_rain, crop, soil);
+    spec.coefficients = coefficients;
+    if is_paddy(crop) {
+        spec.paddy = Some(paddy_inputs(planting).paddy_options());
+    }
     let weather = PlantingWeather {
         start: w.start,
         et0_mm: &w.et0_mm,
@@ -154,6 +262,7 @@ pub fn simulate_planting(
     .map_err(|e| e.to_string())?;
     let paddy = crop.group == CropGroup::PaddyRice;
     let mut out = PlantingOutcome {
+        peak_etc_10day_mm_day: peak_10day_mean(w.start, &result.etc_mm),
         nir_mm: result.nir_mm,
         ..PlantingOutcome::default()
     };
@@ -176,9 +285,11 @@ pub fn simulate_planting(
     for warning in &result.warnings {
         match warning {
             PlantingWarning::SeasonCut { .. } => {}
+            // Said once per crop (the engine removes repeats).
+            PlantingWarning::KyUnknown { .. } => out.warnings.push(warning.to_string()),
             other => out
                 .warnings
-                .push(format!("planting {}: {other:?}", planting.id)),
+                .push(format!("planting {}: {other}", planting.id)),
         }
     }
     Ok(out)

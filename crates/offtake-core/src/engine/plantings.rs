@@ -8,10 +8,14 @@
 use rayon::prelude::*;
 
 use super::EngineError;
-use super::planting_step::{PlantingOutcome, SeasonOutcome, simulate_planting};
+use super::planting_step::{
+    PlantingOutcome, SeasonOutcome, application_efficiency_override, coefficient_mode,
+    raw_and_peak_etc, simulate_planting,
+};
 use super::weather_prep::PreparedWeather;
 use crate::calendar::IrrigationYear;
 use crate::crop::Crop;
+use crate::planting::CoefficientMode;
 use crate::project::Project;
 use crate::scheme::{Network, NirSeries, Node};
 use crate::soil::Soil;
@@ -34,10 +38,22 @@ pub struct PlantingSummary {
     pub nir_m3_per_year: f64,
     /// Mean yearly volume at the headworks (m³): NIR ÷ (Ea × Eb × Π Ec).
     pub headworks_m3_per_year: f64,
+    /// Field application efficiency used for this planting's GIR: the
+    /// block method's Ea, or for paddy rice the paddy field efficiency
+    /// (operational losses only).
+    pub application_efficiency: f64,
     /// Seasons simulated (per hectare).
     pub seasons: Vec<SeasonOutcome>,
     /// Seasons left out because they do not fit inside the weather record.
     pub seasons_excluded: usize,
+    /// Readily available water (mm) and the peak 10-day ETc (mm/day) it is
+    /// used at, for the rotation-period check
+    /// ([`super::planting_step::raw_and_peak_etc`]); `None` for rainfed
+    /// plantings.
+    pub raw_and_etc: Option<(f64, f64)>,
+    /// Whether the planting is paddy rice (its RAW is the pond, its rate
+    /// ETc + seepage and percolation).
+    pub is_paddy: bool,
 }
 
 /// Plantings computed for the scheme.
@@ -70,10 +86,13 @@ pub fn complete_range(w: &PreparedWeather, years: &[IrrigationYear]) -> std::ops
 type BlockOut = (Vec<NirSeries>, Vec<(usize, PlantingSummary, Vec<f64>)>);
 
 /// Resolved inputs of one planting.
-struct Job {
+struct Job<'a> {
     index: usize,
     block: usize,
+    soil: &'a Soil,
     area_ha: f64,
+    /// Ea override of the planting (paddy field efficiency), if any.
+    ea_override: Option<f64>,
     /// Index of its distinct setting in the list of distinct plantings.
     distinct: usize,
 }
@@ -85,6 +104,7 @@ struct Distinct<'a> {
     planting: usize,
     crop: &'a Crop,
     soil: &'a Soil,
+    mode: CoefficientMode,
 }
 
 /// Runs every planting and sums their NIR by block and crop.
@@ -102,9 +122,10 @@ pub fn compute_plantings(
     years: &[IrrigationYear],
     keep_daily: bool,
 ) -> Result<ComputedPlantings, EngineError> {
-    let mut by_block: Vec<Vec<Job>> = (0..project.blocks.len()).map(|_| Vec::new()).collect();
+    let mut by_block: Vec<Vec<Job<'_>>> = (0..project.blocks.len()).map(|_| Vec::new()).collect();
     let mut keys: std::collections::HashMap<String, usize> = std::collections::HashMap::new();
     let mut distinct: Vec<Distinct<'_>> = Vec::new();
+    let mut mode_warnings: Vec<String> = Vec::new();
     for (index, p) in project.plantings.iter().enumerate() {
         let block = project
             .blocks
@@ -131,9 +152,20 @@ pub fn compute_plantings(
                     block: b.id.clone(),
                     soil: b.soil.clone(),
                 })?;
+        let (mode, mode_warning) = coefficient_mode(p, b);
+        if let Some(w) = mode_warning {
+            mode_warnings.push(w);
+        }
         let key = format!(
-            "{}|{}|{:?}|{}|{:?}|{:?}",
-            p.crop, b.soil, p.first_planting, p.spread_days, p.season_length_days, p.strategy
+            "{}|{}|{:?}|{}|{:?}|{:?}|{:?}|{:?}",
+            p.crop,
+            b.soil,
+            p.first_planting,
+            p.spread_days,
+            p.season_length_days,
+            p.strategy,
+            p.paddy,
+            mode
         );
         let next = distinct.len();
         let d = *keys.entry(key).or_insert(next);
@@ -142,12 +174,15 @@ pub fn compute_plantings(
                 planting: index,
                 crop,
                 soil,
+                mode,
             });
         }
         by_block[block].push(Job {
             index,
             block,
+            soil,
             area_ha: p.area.hectares(b.area_ha),
+            ea_override: application_efficiency_override(crop, p),
             distinct: d,
         });
     }
@@ -158,16 +193,29 @@ pub fn compute_plantings(
         .par_iter()
         .map(|d| {
             let p = &project.plantings[d.planting];
-            simulate_planting(d.crop, d.soil, p, project.options.effective_rain, w, None).map_err(
-                |cause| EngineError::Planting {
-                    planting: p.id.clone(),
-                    cause,
-                },
+            simulate_planting(
+                d.crop,
+                d.soil,
+                p,
+                project.options.effective_rain,
+                d.mode,
+                w,
+                None,
             )
+            .map_err(|cause| EngineError::Planting {
+                planting: p.id.clone(),
+                cause,
+            })
         })
         .collect();
     let outcomes: Vec<PlantingOutcome> = outcomes.into_iter().collect::<Result<_, _>>()?;
-    let mut warnings: Vec<String> = outcomes.iter().flat_map(|o| o.warnings.clone()).collect();
+    // Each message once (e.g. an unknown Ky is said once per crop).
+    let mut warnings: Vec<String> = mode_warnings;
+    for w in outcomes.iter().flat_map(|o| o.warnings.iter()) {
+        if !warnings.contains(w) {
+            warnings.push(w.clone());
+        }
+    }
 
     let per_block: Vec<Result<BlockOut, EngineError>> = by_block
         .par_iter()
@@ -182,17 +230,24 @@ pub fn compute_plantings(
                 let nir_mm_year: f64 = outcome.nir_mm[range.clone()].iter().sum::<f64>() / n_years;
                 let nir_m3_per_year = depth_mm_over_area_ha_to_m3(nir_mm_year, job.area_ha);
                 // Blocks are named by id in the network (see `network_of`).
+                let block_ea = project.blocks[job.block].method.application_efficiency;
+                let ea = job.ea_override.unwrap_or(block_ea);
                 let factor = network
                     .block_index(block_id)
-                    .and_then(|b| network.block_factor(b, Node::Headworks))
+                    .and_then(|b| network.block_factor_with_efficiency(b, Node::Headworks, ea))
                     .unwrap_or(0.0);
-                let target = if let Some(s) = series.iter_mut().find(|s| s.crop == p.crop) {
+                // One series per crop and efficiency override.
+                let target = if let Some(s) = series
+                    .iter_mut()
+                    .find(|s| s.crop == p.crop && s.application_efficiency == job.ea_override)
+                {
                     s
                 } else {
                     series.push(NirSeries {
                         block: block_id.clone(),
                         crop: p.crop.clone(),
                         nir_m3_day: vec![0.0; w.days()],
+                        application_efficiency: job.ea_override,
                     });
                     series.last_mut().ok_or_else(|| EngineError::Planting {
                         planting: p.id.clone(),
@@ -212,8 +267,16 @@ pub fn compute_plantings(
                         area_ha: job.area_ha,
                         nir_m3_per_year,
                         headworks_m3_per_year: nir_m3_per_year * factor,
+                        application_efficiency: ea,
                         seasons: outcome.seasons.clone(),
                         seasons_excluded: outcome.seasons_excluded,
+                        raw_and_etc: raw_and_peak_etc(
+                            distinct[job.distinct].crop,
+                            job.soil,
+                            p,
+                            outcome.peak_etc_10day_mm_day,
+                        ),
+                        is_paddy: job.ea_override.is_some(),
                     },
                     if keep_daily {
                         outcome.nir_mm.clone()

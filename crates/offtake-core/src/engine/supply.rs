@@ -13,10 +13,12 @@
 //! - Water delivered to a child canal is shared among the blocks below it in
 //!   proportion to their demand each day
 //!   ([`crate::scheme::SchemeDemand::delivered_to_blocks_m3_day`]).
-//! - At a block, delivered outlet volume × Ea × Eb is the water reaching the
-//!   root zone; it is split among the block's plantings **in proportion to
-//!   their net requirement that day** (a planting that needs nothing that day
-//!   receives nothing) and turned into mm over each planting's area. Each
+//! - At a block, the delivered outlet volume is split among the block's
+//!   plantings **in proportion to their gross requirement that day** (a
+//!   planting that needs nothing that day receives nothing); × that
+//!   planting's Ea (the paddy field efficiency for paddy rice) × Eb it is the
+//!   water reaching the field, turned into mm over the planting's area. Each
+//!   planting thus receives its NIR × min(delivered ÷ block GIR, 1). Each
 //!   planting's balance is re-run on that water ([`simulate_planting`] with
 //!   the delivered depths), giving actual ET and the FAO-33 yield loss.
 //! - Relative irrigation supply (RIS) = delivered ÷ demand at the outlet.
@@ -29,7 +31,7 @@ use rayon::prelude::*;
 use chrono::Datelike;
 
 use super::EngineError;
-use super::planting_step::simulate_planting;
+use super::planting_step::{coefficient_mode, simulate_planting};
 use super::plantings::{PlantingSummary, complete_range};
 use super::weather_prep::PreparedWeather;
 use crate::calendar::IrrigationYear;
@@ -162,6 +164,51 @@ fn limit_to_capacities(
     lowered
 }
 
+/// Fills each rotation unit's RAW and ETc from the plantings below it, for
+/// the rotation-period warning (RAW ÷ ETc, [`crate::rotation`]): a block
+/// takes the planting whose RAW ÷ peak ETc is shortest (the crop that runs
+/// out of readily available water first), a child canal the shortest over
+/// every block below it. Rainfed plantings are left out. Returns, per unit
+/// filled, a description of the limiting planting.
+pub fn fill_raw_and_etc(
+    units: &mut [crate::rotation::RotationUnit],
+    demand: &SchemeDemand,
+    summaries: &[PlantingSummary],
+) -> Vec<(String, String)> {
+    let network = demand.network();
+    let mut out = Vec::new();
+    for u in units.iter_mut() {
+        let below = |block: &str| -> bool {
+            if u.name == block {
+                return true;
+            }
+            match (network.canal_index(&u.name), network.block_index(block)) {
+                (Some(c), Some(b)) => network.block_is_below(b, Node::Canal(c)),
+                _ => false,
+            }
+        };
+        let best = summaries
+            .iter()
+            .filter(|p| below(&p.block))
+            .filter_map(|p| p.raw_and_etc.map(|(raw, etc)| (p, raw, etc)))
+            .min_by(|a, b| (a.1 / a.2).total_cmp(&(b.1 / b.2)));
+        if let Some((p, raw, etc)) = best {
+            u.raw_mm = Some(raw);
+            u.etc_mm_day = Some(etc);
+            let what = if p.is_paddy {
+                format!("pond {raw:.0} mm used at ETc + seepage and percolation {etc:.1} mm/day")
+            } else {
+                format!("RAW {raw:.0} mm used at a peak 10-day ETc of {etc:.1} mm/day")
+            };
+            out.push((
+                u.name.clone(),
+                format!("{} on block {}, {what}", p.crop, p.block),
+            ));
+        }
+    }
+    out
+}
+
 fn weighted(items: impl Iterator<Item = (f64, Option<f64>)>) -> Option<f64> {
     let (mut s, mut a) = (0.0, 0.0);
     for (area, v) in items {
@@ -248,7 +295,8 @@ pub fn supply_and_rerun(
     if short_days == 0 {
         return Ok(result);
     }
-    let units = units_at_node(demand, node, 0..w.days());
+    let mut units = units_at_node(demand, node, 0..w.days());
+    let limiting = fill_raw_and_etc(&mut units, demand, summaries);
     let reduced = limit_to_capacities(&units, &mut avail, project.options.rotation_period_days);
     if reduced > 0 {
         result.warnings.push(format!(
@@ -264,7 +312,15 @@ pub fn supply_and_rerun(
     )
     .map_err(|e| EngineError::Rotation(e.to_string()))?;
     for warning in &roster.warnings {
-        result.warnings.push(format!("roster: {warning}"));
+        let detail = match warning {
+            crate::rotation::RosterWarning::RotationLongerThanRaw { unit, .. } => limiting
+                .iter()
+                .find(|(u, _)| u == unit)
+                .map(|(_, l)| format!(" (limiting: {l})"))
+                .unwrap_or_default(),
+            _ => String::new(),
+        };
+        result.warnings.push(format!("roster: {warning}{detail}"));
     }
     let ec_node = match node {
         Node::Headworks => 1.0,
@@ -300,10 +356,9 @@ pub fn supply_and_rerun(
             delivered_m3: del,
             relative_irrigation_supply: crate::rotation::relative_irrigation_supply(del, dem),
         });
-        // Root-zone water of the block, shared among its plantings in
-        // proportion to their requirement that day.
-        let k = block_net.application_efficiency * block_net.field_canal_efficiency;
-        let nir_block = demand.block_nir_m3_day(*b);
+        // Outlet water of the block, shared among its plantings in
+        // proportion to their gross requirement that day: each receives
+        // NIR × min(delivered ÷ GIR of the block, 1) at the root zone.
         for (pi, p) in project.plantings.iter().enumerate() {
             if p.block != block_net.name {
                 continue;
@@ -313,9 +368,9 @@ pub fn supply_and_rerun(
             };
             let mm: Vec<f64> = (0..w.days())
                 .map(|d| {
-                    let total = nir_block[d];
+                    let total = gir[d];
                     if total > 0.0 {
-                        nir[d] * (delivered[d] * k / total).min(1.0)
+                        nir[d] * (delivered[d] / total).min(1.0)
                     } else {
                         0.0
                     }
@@ -340,12 +395,21 @@ pub fn supply_and_rerun(
                     crop: p.crop.clone(),
                 });
             };
-            let out = simulate_planting(crop, soil, p, project.options.effective_rain, w, Some(mm))
-                .map_err(|cause| EngineError::Planting {
-                    planting: p.id.clone(),
-                    cause,
-                })?;
-            let ea = block.method.application_efficiency;
+            let (mode, _) = coefficient_mode(p, block);
+            let out = simulate_planting(
+                crop,
+                soil,
+                p,
+                project.options.effective_rain,
+                mode,
+                w,
+                Some(mm),
+            )
+            .map_err(|cause| EngineError::Planting {
+                planting: p.id.clone(),
+                cause,
+            })?;
+            let ea = summary.application_efficiency;
             let n = out.seasons.len();
             let losses: Vec<f64> = out
                 .seasons

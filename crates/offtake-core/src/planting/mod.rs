@@ -49,6 +49,17 @@
 //!   ETc = Kc ET₀ unstressed. No soil balance, no irrigation events, no
 //!   yield loss.
 //!
+//! # Dual crop coefficient
+//!
+//! With [`PlantingSpec::coefficients`] = [`CoefficientMode::Dual`], each
+//! cohort's balance uses Kcb + Ke (FAO-56 eq. 80) with its own soil
+//! evaporation layer (FAO-56 Chapter 7; inputs chosen as in [`dual`]): TEW
+//! and REW of the soil, Kc max from each day's u2 and RHmin and the crop
+//! height, few from the canopy cover and the fraction wetted by irrigation
+//! ([`Wetting`], FAO-56 Table 20) or rain (1). A crop without Kcb, paddy
+//! rice and the period-total effective-rain methods keep the single Kc, with
+//! [`PlantingWarning::DualCoefficientNotUsed`].
+//!
 //! # Paddy rice
 //!
 //! A crop of group `PaddyRice` uses [`crate::paddy`]: the planting date is
@@ -75,13 +86,14 @@
 //! Results are planning estimates; designs built on them must be checked by a
 //! qualified engineer.
 
+pub mod dual;
 pub mod layout;
 mod run;
 
 use chrono::NaiveDate;
 use serde::{Deserialize, Serialize};
 
-use crate::balance::{BalanceDay, BalanceError, RunoffRule, Strategy};
+use crate::balance::{BalanceDay, BalanceError, EvaporationDay, RunoffRule, Strategy};
 use crate::crop::{Crop, CropError};
 use crate::paddy::{LandPreparation, Nursery, PaddyError, PaddyField};
 use crate::rain::{EffectiveRainMethod, PeriodKind, RainError};
@@ -89,8 +101,11 @@ use crate::salinity::SalinityError;
 use crate::soil::Soil;
 use crate::yield_response::YieldError;
 
+pub use dual::{CoefficientMode, DualFallback, ParseWettingError, Wetting};
 pub use layout::{Cohort, MAX_DAYS_PER_COHORT, cohort_offsets};
-pub use run::{daily_detail, run_planting, run_planting_with_delivery, season_detail};
+pub use run::{
+    cohort_details, daily_detail, run_planting, run_planting_with_delivery, season_detail,
+};
 
 /// One aligned daily weather record; element 0 of every slice is `start`.
 ///
@@ -168,6 +183,9 @@ pub struct PlantingSpec<'a> {
     /// Runoff of rain; `None`: from the soil (curve number and maximum
     /// infiltration rate of the soil library).
     pub runoff: Option<RunoffRule>,
+    /// Single Kc (default) or dual Kcb + Ke with the soil evaporation layer
+    /// (see [`dual`]).
+    pub coefficients: CoefficientMode,
 }
 
 impl<'a> PlantingSpec<'a> {
@@ -190,6 +208,7 @@ impl<'a> PlantingSpec<'a> {
             initial_depletion_pct_of_taw: 0.0,
             only_year: None,
             runoff: None,
+            coefficients: CoefficientMode::Single,
         }
     }
 }
@@ -241,6 +260,9 @@ pub struct SeasonSummary {
     pub deep_perc_mm: f64,
     /// Σ runoff (paddy: spill over the bunds).
     pub runoff_mm: f64,
+    /// Σ soil evaporation E = Ke ET₀ (dual coefficient; 0 with the single Kc).
+    #[serde(default)]
+    pub evaporation_mm: f64,
     /// Relative yield loss 1 − Ya/Ym (FAO-33 Ky), fraction 0..1.
     pub relative_yield_loss: f64,
     /// Leaching requirement LR applied (0 when none).
@@ -289,6 +311,13 @@ pub enum PlantingWarning {
     /// percolation in the paddy requirement already pass water through the
     /// root zone, so adding LR would count that water twice.
     LeachingNotForPaddy,
+    /// The dual coefficient was asked for but the single Kc was used.
+    DualCoefficientNotUsed {
+        /// Crop id.
+        crop: String,
+        /// Why.
+        reason: DualFallback,
+    },
     /// The delivered depth was less than the requirement of a paddy or
     /// period-method planting on some days; the shortfall is not carried.
     DeliveryShortfall {
@@ -304,32 +333,34 @@ impl std::fmt::Display for PlantingWarning {
         match self {
             Self::SeasonCut { year, start, end } => write!(
                 f,
-                "season {year} ({start} to {end}) runs past the start or end of the weather record: simulated over the days inside, left out of statistics"
+                "the {year} season ({start} to {end}) runs past the ends of the weather record; it was simulated over the days inside and left out of statistics"
             ),
             Self::PaddySeasonNotComputed { year } => write!(
                 f,
-                "paddy season {year}: land preparation to harvest is not wholly inside the weather record; not computed"
+                "the {year} paddy season (land preparation to harvest) is not wholly inside the weather record and was not computed"
             ),
-            Self::LeapDayPlantingMoved { year } => {
-                write!(
-                    f,
-                    "{year} is not a leap year: planting on 28 February instead of 29"
-                )
-            }
+            Self::LeapDayPlantingMoved { year } => write!(
+                f,
+                "planting day 29 February moved to 28 February in {year} (not a leap year)"
+            ),
             Self::SeasonsOverlap { season_days } => write!(
                 f,
-                "first planting to last harvest takes {season_days} days, more than a year: seasons of successive years overlap and their requirements add up"
+                "the season and planting window last {season_days} days, longer than a year: seasons of successive years overlap and their requirements add up"
             ),
             Self::KyUnknown { crop } => write!(
                 f,
-                "crop `{crop}` has no seasonal yield response factor: Ky = 1 used (FAO-56 p. 176)"
+                "crop {crop} has no seasonal yield response factor Ky; Ky = 1 was used, as FAO-56 (p. 176) suggests where Ky is unknown"
             ),
             Self::LeachingNotForPaddy => f.write_str(
-                "leaching not applied to paddy rice: its seepage and percolation already leach the root zone"
+                "leaching was not applied to paddy rice: its seepage and percolation already leach the root zone"
+            ),
+            Self::DualCoefficientNotUsed { crop, reason } => write!(
+                f,
+                "crop {crop}: the dual crop coefficient was not used ({reason}); single Kc was used"
             ),
             Self::DeliveryShortfall { days, shortfall_mm } => write!(
                 f,
-                "delivery below the requirement on {days} day(s), {shortfall_mm:.1} mm in all; the shortfall is not carried forward"
+                "the water delivered was less than the requirement on {days} days ({shortfall_mm:.1} mm short in all; the shortfall is not carried over)"
             ),
         }
     }
@@ -347,6 +378,10 @@ pub struct PlantingResult {
     pub etc_adj_mm: Vec<f64>,
     /// Effective rain per weather day.
     pub peff_mm: Vec<f64>,
+    /// Soil evaporation E = Ke ET₀ per weather day (dual coefficient; 0 with
+    /// the single Kc).
+    #[serde(default)]
+    pub evaporation_mm: Vec<f64>,
     /// One summary per season (annual) or irrigation year (perennial).
     pub seasons: Vec<SeasonSummary>,
     /// Warnings.
@@ -367,6 +402,36 @@ pub struct SeasonDetail {
     /// its depletion). Paddy and period methods: `irrigation_mm` is the NIR
     /// before leaching and the soil columns are not a balance.
     pub days: Vec<BalanceDay>,
+    /// Dual coefficient: the evaporation layer per day, area-weighted like
+    /// `days` (`kcb`, `ke`, `evaporation_mm` are the planting's; `kr`, `few`,
+    /// `depletion_mm` are area-weighted means with cohorts out of the field
+    /// counted as 0). Empty with the single Kc.
+    pub evaporation: Vec<EvaporationDay>,
+}
+
+/// One cohort's daily balance over its days inside the record (see
+/// [`cohort_details`]); unlike the area-weighted [`SeasonDetail`], eq. 85
+/// closes every day from `initial_depletion_mm`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct CohortDetail {
+    /// Cohort index (planting order).
+    pub index: usize,
+    /// Share of the planting area.
+    pub area_share: f64,
+    /// Date of `days[0]`.
+    pub first_date: NaiveDate,
+    /// Whether all of the cohort's season is inside the record.
+    pub complete: bool,
+    /// Root-zone depletion before `days[0]` (mm).
+    pub initial_depletion_mm: f64,
+    /// Evaporation-layer depletion De before `days[0]` (mm; dual only).
+    pub initial_evaporation_depletion_mm: f64,
+    /// The fraction fw wetted by irrigation (dual only; 1 otherwise).
+    pub fw_irrigation: f64,
+    /// The daily balance.
+    pub days: Vec<BalanceDay>,
+    /// The evaporation layer per day (dual coefficient only, else empty).
+    pub evaporation: Vec<EvaporationDay>,
 }
 
 /// Errors of a planting computation.

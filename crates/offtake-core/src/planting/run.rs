@@ -3,14 +3,19 @@
 
 use chrono::{Datelike, Days, NaiveDate};
 
+use super::dual::{
+    CoefficientMode, DualFallback, KC_MIN, STANDARD_RHMIN_PCT, STANDARD_WIND_2M_MS, crop_height_m,
+    kc_max_base,
+};
 use super::layout::{SeasonPlan, anniversary, cohort_offsets, is_chain, seasons};
 use super::{
-    PaddyOptions, PlantingError, PlantingIrrigation, PlantingResult, PlantingSpec, PlantingWarning,
-    PlantingWeather, SeasonDetail, SeasonSummary,
+    CohortDetail, PaddyOptions, PlantingError, PlantingIrrigation, PlantingResult, PlantingSpec,
+    PlantingWarning, PlantingWeather, SeasonDetail, SeasonSummary,
 };
+use crate::balance::evaporation::kc_max;
 use crate::balance::{
-    BalanceDay, BalanceParams, CropCoefficients, DailySeries, IrrigationEvent, RunoffRule,
-    Strategy, simulate,
+    BalanceDay, BalanceParams, CropCoefficients, DailySeries, EvaporationDay, EvaporationLayer,
+    ExposedWetted, IrrigationEvent, RunoffRule, Strategy, simulate,
 };
 use crate::crop::climate::DayClimate;
 use crate::crop::{ClimateInput, CropGroup, CropSeries, SeasonSpec, crop_season_series};
@@ -18,6 +23,19 @@ use crate::paddy::{PaddyDay, PaddyPlanting, paddy_planting_requirement};
 use crate::rain::{EffectiveRainMethod, effective_rain_period_mm, period_totals};
 use crate::salinity::leaching_requirement;
 use crate::yield_response::{KY_UNKNOWN, relative_yield_loss};
+
+/// The dual coefficient's fixed inputs, once the option applies.
+#[derive(Clone, Copy)]
+struct DualSetup {
+    /// fw of irrigation (Table 20).
+    fw: f64,
+    /// TEW (mm), eq. 73.
+    tew_mm: f64,
+    /// REW (mm).
+    rew_mm: f64,
+    /// Base of eq. 72.
+    kc_max_base: f64,
+}
 
 /// Validated inputs shared by every season.
 struct Prepared<'s, 'w> {
@@ -27,6 +45,7 @@ struct Prepared<'s, 'w> {
     runoff: RunoffRule,
     lr: f64,
     ky: f64,
+    dual: Option<DualSetup>,
     warnings: Vec<PlantingWarning>,
 }
 
@@ -40,6 +59,12 @@ struct CohortOut {
     /// (weather index, net mm at the root zone).
     events: Vec<(usize, f64)>,
     complete: bool,
+    /// Dual coefficient: the evaporation layer per day (else empty).
+    evaporation: Vec<EvaporationDay>,
+    /// Root-zone depletion before `days[0]` (mm).
+    initial_depletion_mm: f64,
+    /// Layer depletion before `days[0]` (mm).
+    initial_evaporation_depletion_mm: f64,
 }
 
 /// One season (or chain) and its cohorts.
@@ -147,6 +172,36 @@ fn prepare<'s, 'w>(
         });
         KY_UNKNOWN
     };
+    let dual = match spec.coefficients {
+        CoefficientMode::Single => None,
+        CoefficientMode::Dual { wetting } => {
+            let fw = wetting.fw();
+            setting("wetting fw", fw, fw > 0.0 && fw <= 1.0, "0 < fw ≤ 1")?;
+            let fallback = if paddy {
+                Some(DualFallback::PaddyRice)
+            } else if !matches!(spec.effective_rain, EffectiveRainMethod::WaterBalance) {
+                Some(DualFallback::PeriodEffectiveRain)
+            } else if spec.crop.kcb.is_none() {
+                Some(DualFallback::NoKcb)
+            } else {
+                None
+            };
+            if let Some(reason) = fallback {
+                warnings.push(PlantingWarning::DualCoefficientNotUsed {
+                    crop: spec.crop.id.clone(),
+                    reason,
+                });
+                None
+            } else {
+                Some(DualSetup {
+                    fw,
+                    tew_mm: spec.soil.tew_mm()?,
+                    rew_mm: spec.soil.rew_mm,
+                    kc_max_base: kc_max_base(&spec.strategy),
+                })
+            }
+        }
+    };
     let runoff = spec.runoff.unwrap_or(RunoffRule {
         curve_number: Some(spec.soil.curve_number),
         max_infiltration_mm_day: Some(spec.soil.max_infiltration_mm_day),
@@ -158,6 +213,7 @@ fn prepare<'s, 'w>(
         runoff,
         lr,
         ky,
+        dual,
         warnings,
     })
 }
@@ -233,6 +289,9 @@ fn balance_cohort(
         days: Vec::new(),
         events: Vec::new(),
         complete,
+        evaporation: Vec::new(),
+        initial_depletion_mm: 0.0,
+        initial_evaporation_depletion_mm: 0.0,
     };
     if a >= b {
         return Ok(out);
@@ -260,19 +319,79 @@ fn balance_cohort(
                     .collect(),
             ),
         };
+        let initial_fraction = p.spec.initial_depletion_pct_of_taw / 100.0;
         let params = BalanceParams {
             taw_mm_per_m: taw_per_m,
             p_table: p.spec.crop.depletion_p,
             adjust_p_for_etc: true,
-            initial_depletion_mm: p.spec.initial_depletion_pct_of_taw / 100.0 * taw_per_m * root[0],
+            initial_depletion_mm: initial_fraction * taw_per_m * root[0],
             runoff: p.runoff,
             strategy,
+        };
+        // Dual coefficient inputs (FAO-56 Chapter 7), when the option applies.
+        let dual = p.dual.and_then(|d| {
+            let kcb: Option<Vec<f64>> = crop_days.iter().map(|c| c.kcb).collect();
+            kcb.map(|kcb| (d, kcb))
+        });
+        let dual_inputs = dual.map(|(d, kcb)| {
+            let height: Vec<f64> = crop_days
+                .iter()
+                .map(|c| {
+                    let lengths = series
+                        .cycles
+                        .get(c.cycle as usize)
+                        .map_or(p.spec.crop.stages, |cy| cy.lengths);
+                    crop_height_m(
+                        p.spec.crop.max_height_m,
+                        &p.spec.crop.cycle,
+                        c.stage,
+                        c.day_in_cycle,
+                        &lengths,
+                    )
+                })
+                .collect();
+            let kc_max_day: Vec<f64> = (0..kcb.len())
+                .map(|i| {
+                    let u2 = p.weather.wind_2m_ms[a + i];
+                    let rh = p.weather.rhmin_pct[a + i];
+                    let u2 = if u2.is_finite() && u2 >= 0.0 {
+                        u2
+                    } else {
+                        STANDARD_WIND_2M_MS
+                    };
+                    let rh = if rh.is_finite() && (0.0..=100.0).contains(&rh) {
+                        rh
+                    } else {
+                        STANDARD_RHMIN_PCT
+                    };
+                    kc_max(d.kc_max_base, u2, rh, height[i], kcb[i])
+                })
+                .collect();
+            let layer = EvaporationLayer {
+                tew_mm: d.tew_mm,
+                rew_mm: d.rew_mm,
+                initial_depletion_mm: initial_fraction * d.tew_mm,
+                fw_irrigation: d.fw,
+            };
+            (kcb, kc_max_day, height, layer)
+        });
+        let crop_coefficients = match &dual_inputs {
+            None => CropCoefficients::Single { kc: &kc },
+            Some((kcb, kc_max_day, height, layer)) => CropCoefficients::Dual {
+                kcb,
+                kc_max: kc_max_day,
+                layer: *layer,
+                few: ExposedWetted::FromCanopy {
+                    kc_min: KC_MIN,
+                    crop_height_m: height,
+                },
+            },
         };
         let run = simulate(
             &DailySeries {
                 et0_mm: et0,
                 rain_mm: rain,
-                crop: CropCoefficients::Single { kc: &kc },
+                crop: crop_coefficients,
                 root_depth_m: &root,
                 capillary_rise_mm: None,
             },
@@ -280,6 +399,11 @@ fn balance_cohort(
         )?;
         out.events = run.events.iter().map(|e| (a + e.day, e.net_mm)).collect();
         out.days = run.days;
+        out.evaporation = run.evaporation;
+        out.initial_depletion_mm = run.initial_depletion_mm;
+        out.initial_evaporation_depletion_mm = dual_inputs
+            .as_ref()
+            .map_or(0.0, |d| d.3.initial_depletion_mm);
         return Ok(out);
     }
 
@@ -421,6 +545,9 @@ fn paddy_season(
         days: balance_days,
         events,
         complete: true,
+        evaporation: Vec::new(),
+        initial_depletion_mm: 0.0,
+        initial_evaporation_depletion_mm: 0.0,
     });
     Ok(out)
 }
@@ -498,6 +625,7 @@ fn summarise(
         irrigation_count: 0.0,
         deep_perc_mm: 0.0,
         runoff_mm: 0.0,
+        evaporation_mm: 0.0,
         relative_yield_loss: 0.0,
         leaching_requirement: p.lr,
         irrigations: Vec::new(),
@@ -517,6 +645,11 @@ fn summarise(
             s.deep_perc_mm += w * d.deep_perc_mm;
             s.runoff_mm += w * d.runoff_mm;
         }
+        s.evaporation_mm += w * c.evaporation
+            [from.min(c.evaporation.len())..to.min(c.evaporation.len())]
+            .iter()
+            .map(|e| e.evaporation_mm)
+            .sum::<f64>();
         s.etc_mm += w * etc;
         s.etc_adj_mm += w * etc_adj;
         s.relative_yield_loss += w * relative_yield_loss(p.ky, etc_adj, etc)?;
@@ -602,6 +735,7 @@ fn run_common(
         etc_mm: vec![0.0; n],
         etc_adj_mm: vec![0.0; n],
         peff_mm: vec![0.0; n],
+        evaporation_mm: vec![0.0; n],
         seasons: Vec::new(),
         warnings: Vec::new(),
     };
@@ -615,6 +749,9 @@ fn run_common(
                 result.etc_mm[g] += w * d.etc_mm;
                 result.etc_adj_mm[g] += w * d.etc_adj_mm;
                 result.peff_mm[g] += w * d.peff_mm;
+            }
+            for (i, e) in c.evaporation.iter().enumerate() {
+                result.evaporation_mm[c.first + i] += w * e.evaporation_mm;
             }
         }
         if is_chain(spec) {
@@ -694,15 +831,118 @@ pub fn season_detail(
     weather: &PlantingWeather<'_>,
     season_start_year: i32,
 ) -> Result<SeasonDetail, PlantingError> {
-    let chain = is_chain(spec);
     let mut p = prepare(spec, weather)?;
     let outs = compute_plans(&mut p, None)?;
+    let (out, lo, hi, complete) = find_season(&p, &outs, season_start_year)?;
+    let mut days = vec![BalanceDay::default(); hi - lo];
+    for (g, day) in days.iter_mut().enumerate() {
+        day.et0_mm = weather.et0_mm[lo + g];
+        day.rain_mm = weather.rain_mm[lo + g];
+    }
+    let dual = out.cohorts.iter().any(|c| !c.evaporation.is_empty());
+    let mut evaporation = if dual {
+        vec![EvaporationDay::default(); hi - lo]
+    } else {
+        Vec::new()
+    };
+    for c in &out.cohorts {
+        let w = c.share;
+        for (i, d) in c.days.iter().enumerate() {
+            let g = c.first + i;
+            if g < lo || g >= hi {
+                continue;
+            }
+            let t = &mut days[g - lo];
+            t.kc += w * d.kc;
+            t.etc_mm += w * d.etc_mm;
+            t.etc_adj_mm += w * d.etc_adj_mm;
+            t.runoff_mm += w * d.runoff_mm;
+            t.peff_mm += w * d.peff_mm;
+            t.irrigation_mm += w * d.irrigation_mm;
+            t.capillary_rise_mm += w * d.capillary_rise_mm;
+            t.deep_perc_mm += w * d.deep_perc_mm;
+            t.depletion_mm += w * d.depletion_mm;
+            t.taw_mm += w * d.taw_mm;
+            t.raw_mm += w * d.raw_mm;
+            t.p += w * d.p;
+            t.ks += w * (d.ks - 1.0);
+        }
+        for (i, e) in c.evaporation.iter().enumerate() {
+            let g = c.first + i;
+            if g < lo || g >= hi {
+                continue;
+            }
+            let t = &mut evaporation[g - lo];
+            t.kcb += w * e.kcb;
+            t.kc_max += w * e.kc_max;
+            t.few += w * e.few;
+            t.kr += w * e.kr;
+            t.ke += w * e.ke;
+            t.evaporation_mm += w * e.evaporation_mm;
+            t.deep_perc_mm += w * e.deep_perc_mm;
+            t.depletion_mm += w * e.depletion_mm;
+        }
+    }
+    for t in &mut days {
+        // Ks: cohorts out of the field count as unstressed.
+        t.ks += 1.0;
+    }
+    Ok(SeasonDetail {
+        first_date: date_of(weather, lo),
+        complete,
+        days,
+        evaporation,
+    })
+}
+
+/// Each cohort's own daily balance (and evaporation layer, dual
+/// coefficient) for the season whose first planting date is in
+/// `season_start_year` (perennials: the chain), over its days inside the
+/// record. Paddy and period-method plantings give their pseudo-balance as in
+/// [`season_detail`].
+///
+/// # Errors
+/// As [`season_detail`].
+pub fn cohort_details(
+    spec: &PlantingSpec<'_>,
+    weather: &PlantingWeather<'_>,
+    season_start_year: i32,
+) -> Result<Vec<CohortDetail>, PlantingError> {
+    let mut p = prepare(spec, weather)?;
+    let outs = compute_plans(&mut p, None)?;
+    let (out, _, _, _) = find_season(&p, &outs, season_start_year)?;
+    let fw = p.dual.map_or(1.0, |d| d.fw);
+    Ok(out
+        .cohorts
+        .iter()
+        .map(|c| CohortDetail {
+            index: c.index,
+            area_share: c.share,
+            first_date: date_of(weather, c.first),
+            complete: c.complete,
+            initial_depletion_mm: c.initial_depletion_mm,
+            initial_evaporation_depletion_mm: c.initial_evaporation_depletion_mm,
+            fw_irrigation: fw,
+            days: c.days.clone(),
+            evaporation: c.evaporation.clone(),
+        })
+        .collect())
+}
+
+/// The computed season (or chain) of `season_start_year` and its weather
+/// index range `lo..hi` and completeness.
+fn find_season<'o>(
+    p: &Prepared<'_, '_>,
+    outs: &'o [PlanOut],
+    season_start_year: i32,
+) -> Result<(&'o PlanOut, usize, usize, bool), PlantingError> {
+    let chain = is_chain(p.spec);
     let missing = PlantingError::NoSuchSeason {
         year: season_start_year,
     };
     let (out, lo, hi, complete) = if chain {
         let out = outs.first().ok_or(missing.clone())?;
-        let (_, lo, hi, _, complete) = irrigation_years(&p, out)?
+        let (_, lo, hi, _, complete) = irrigation_years(p, out)?
             .into_iter()
             .find(|y| y.0 == season_start_year)
             .ok_or(missing)?;
@@ -726,43 +966,7 @@ pub fn season_detail(
             year: season_start_year,
         });
     }
-    let mut days = vec![BalanceDay::default(); hi - lo];
-    for (g, day) in days.iter_mut().enumerate() {
-        day.et0_mm = weather.et0_mm[lo + g];
-        day.rain_mm = weather.rain_mm[lo + g];
-    }
-    for c in &out.cohorts {
-        let w = c.share;
-        for (i, d) in c.days.iter().enumerate() {
-            let g = c.first + i;
-            if g < lo || g >= hi {
-                continue;
-            }
-            let t = &mut days[g - lo];
-            t.kc += w * d.kc;
-            t.etc_mm += w * d.etc_mm;
-            t.etc_adj_mm += w * d.etc_adj_mm;
-            t.runoff_mm += w * d.runoff_mm;
-            t.peff_mm += w * d.peff_mm;
-            t.irrigation_mm += w * d.irrigation_mm;
-            t.capillary_rise_mm += w * d.capillary_rise_mm;
-            t.deep_perc_mm += w * d.deep_perc_mm;
-            t.depletion_mm += w * d.depletion_mm;
-            t.taw_mm += w * d.taw_mm;
-            t.raw_mm += w * d.raw_mm;
-            t.p += w * d.p;
-            t.ks += w * (d.ks - 1.0);
-        }
-    }
-    for t in &mut days {
-        // Ks: cohorts out of the field count as unstressed.
-        t.ks += 1.0;
-    }
-    Ok(SeasonDetail {
-        first_date: date_of(weather, lo),
-        complete,
-        days,
-    })
+    Ok((out, lo, hi, complete))
 }
 
 /// One season's daily balance table (see [`season_detail`], which also

@@ -26,12 +26,21 @@ pub mod validate;
 use chrono::{Datelike, NaiveDate};
 use serde::{Deserialize, Serialize};
 
+use crate::weather_import::ImportSettings;
+
 pub use scenario::{Override, Scenario, ScenarioError, WeatherPerturbation};
 pub use validate::{CropSeasonLengths, ItemKind, ValidationContext, ValidationProblem};
 
 /// The schema version this build writes. Files with a lower version are
 /// migrated on load; files with a higher version are refused.
-pub const CURRENT_SCHEMA: u32 = 1;
+///
+/// * 2 — `weather.import` ([`ImportSettings`]: full column mapping with
+///   units, date format, delimiter, decimal separator, missing markers)
+///   replaces schema 1's minimal `weather.mapping`.
+/// * 1 — efficiencies as fractions, planting areas and month-day windows,
+///   reservoir, scenarios.
+/// * 0 — the first layout.
+pub const CURRENT_SCHEMA: u32 = 2;
 
 /// A whole project: what `offtake run` computes and what the app saves.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -289,6 +298,160 @@ pub struct Planting {
     /// Override of the crop library's season length in days, if any.
     #[serde(default)]
     pub season_length_days: Option<u32>,
+    /// Paddy rice inputs (ponding, seepage and percolation, land
+    /// preparation, nursery, drainage) and the paddy field efficiency.
+    /// Used only when the crop is paddy rice; `None` there means
+    /// [`PaddyInputs::default`]. Older files without the field load as
+    /// `None`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub paddy: Option<PaddyInputs>,
+    /// Crop coefficient approach: single Kc (default) or dual Kcb + Ke.
+    /// Older files without the field load as single Kc.
+    #[serde(default, skip_serializing_if = "CoefficientChoice::is_single")]
+    pub coefficients: CoefficientChoice,
+}
+
+/// The crop coefficient approach of a planting.
+#[derive(Debug, Clone, Copy, PartialEq, Default, Serialize, Deserialize)]
+pub enum CoefficientChoice {
+    /// Single time-averaged Kc (FAO-56 Chapter 6), the default.
+    #[default]
+    Single,
+    /// Dual coefficient Kcb + Ke with the soil evaporation layer (FAO-56
+    /// Chapter 7), for row crops, drip and frequent wetting.
+    Dual {
+        /// Fraction of the surface wetted by irrigation, fw (FAO-56
+        /// Table 20), in (0, 1]; `None` takes it from the block's
+        /// irrigation method name (basin, furrow, sprinkler, drip…).
+        #[serde(default)]
+        wetted_fraction: Option<f64>,
+    },
+}
+
+impl CoefficientChoice {
+    /// True for the default single-Kc approach.
+    pub fn is_single(&self) -> bool {
+        matches!(self, Self::Single)
+    }
+}
+
+/// Inputs of a paddy rice planting (see [`crate::paddy`] for the balance).
+///
+/// Every field has a default, so a file may give only those it changes,
+/// e.g. `paddy: (percolation_seepage_mm_day: 2.0)`.
+///
+/// # Typical ranges (published-check-values §10.2; inputs, not constants)
+///
+/// * Seepage and percolation: about 3 mm/day in poorly drained and 6 mm/day
+///   in well drained soils (Sri Lanka Department of Agriculture, rice water
+///   management); about 1–2 mm/day on heavy clay up to 6–10 mm/day on sandy
+///   soils (FAO Training Manuals 3 and 4, from memory: verify).
+/// * Pond depth: 0.10–0.20 m in the initial stage (FAO-56, Table 14 note);
+///   a standing layer of 50–100 mm through the season (FAO TM3/TM4, from
+///   memory: verify).
+/// * Land preparation: starts about one, sometimes two, months before
+///   transplanting (FAO Training Manual No. 4, Ch. 4); about 200 mm to
+///   saturate the puddled layer (150–250 mm commonly quoted for
+///   presaturation) plus the water layer (FAO TM3/TM4, from memory: verify).
+/// * Nursery: usually 5–10 % of the area to be planted (FAO Training Manual
+///   No. 4, Ch. 4).
+///
+/// # Field efficiency
+///
+/// The paddy NIR already contains seepage and percolation, land
+/// preparation and the pond. The paddy field efficiency must therefore cover
+/// operational losses only (spills from management, uneven levelling,
+/// overflow when the pond is topped up), not percolation again: it is used
+/// **instead of** the block's method efficiency Ea, so GIR = NIR ÷
+/// (field efficiency × Eb). The default 0.9 is common practice for this
+/// operational-only efficiency (not a published value); 0.8–0.95 is the
+/// range we document for it. An overall rice field efficiency such as
+/// FAO-24's 0.32 (Doorenbos & Pruitt 1977, after Bos & Nugteren 1974; from
+/// memory, reference §10.1) includes the percolation losses and must not be
+/// used with this NIR.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(default, deny_unknown_fields)]
+pub struct PaddyInputs {
+    /// Bund height (mm): the most water the field holds; rain above spills.
+    pub bund_height_mm: f64,
+    /// Pond depth irrigation keeps (mm), ≤ bund height; also the pond set up
+    /// by land preparation.
+    pub target_ponding_mm: f64,
+    /// Seepage and percolation while water stands (mm/day).
+    pub percolation_seepage_mm_day: f64,
+    /// Water to saturate the puddled layer during land preparation (mm).
+    pub land_preparation_mm: f64,
+    /// Days of land preparation before each part of the area is
+    /// transplanted (≥ 1).
+    pub land_preparation_days: u32,
+    /// Nursery area as a share of the planted area (0 = no nursery;
+    /// FAO TM4: 0.05–0.10).
+    pub nursery_share: f64,
+    /// Days the nursery is kept before transplanting (≥ 1 when a nursery is
+    /// given).
+    pub nursery_days: u32,
+    /// Days before harvest when irrigation stops and the field is drained.
+    pub drain_days_before_harvest: u32,
+    /// Paddy field efficiency (fraction in (0, 1]): operational losses only,
+    /// used instead of the block's Ea (see the type's docs).
+    pub field_efficiency: f64,
+}
+
+/// Default paddy field efficiency: operational losses only (common
+/// practice, not a published value; see [`PaddyInputs`]).
+pub const DEFAULT_PADDY_FIELD_EFFICIENCY: f64 = 0.9;
+
+impl Default for PaddyInputs {
+    /// The paddy module's planting defaults ([`crate::paddy::PaddyField`],
+    /// [`crate::paddy::LandPreparation`]): bund 200 mm, pond 100 mm, S&P
+    /// 4 mm/day, 200 mm saturation over 30 days, drained 10 days before
+    /// harvest; no nursery (25 days when a share is given, from memory of
+    /// common practice); field efficiency 0.9 (common practice).
+    fn default() -> Self {
+        let field = crate::paddy::PaddyField::default();
+        let prep = crate::paddy::LandPreparation::default();
+        Self {
+            bund_height_mm: field.bund_height_mm,
+            target_ponding_mm: field.target_ponding_mm,
+            percolation_seepage_mm_day: field.percolation_seepage_mm_day,
+            land_preparation_mm: prep.saturation_mm,
+            land_preparation_days: u32::try_from(prep.duration_days).unwrap_or(30),
+            nursery_share: 0.0,
+            nursery_days: 25,
+            drain_days_before_harvest: u32::try_from(field.drain_days_before_harvest).unwrap_or(10),
+            field_efficiency: DEFAULT_PADDY_FIELD_EFFICIENCY,
+        }
+    }
+}
+
+impl PaddyInputs {
+    /// The paddy module's settings for these inputs. Land preparation sets
+    /// up the target pond and evaporates at Kc 1.05 (FAO-56 Table 12, rice
+    /// Kc ini); the nursery, when given, uses the same Kc and needs the same
+    /// saturation and pond depth as the main field.
+    pub fn paddy_options(&self) -> crate::planting::PaddyOptions {
+        let prep_kc = crate::paddy::LandPreparation::default().prep_kc;
+        crate::planting::PaddyOptions {
+            field: crate::paddy::PaddyField {
+                bund_height_mm: self.bund_height_mm,
+                target_ponding_mm: self.target_ponding_mm,
+                percolation_seepage_mm_day: self.percolation_seepage_mm_day,
+                drain_days_before_harvest: self.drain_days_before_harvest as usize,
+            },
+            land_prep: crate::paddy::LandPreparation {
+                duration_days: self.land_preparation_days as usize,
+                saturation_mm: self.land_preparation_mm,
+                ponding_mm: self.target_ponding_mm,
+                prep_kc,
+            },
+            nursery: (self.nursery_share > 0.0).then_some(crate::paddy::Nursery {
+                area_share: self.nursery_share,
+                duration_days: self.nursery_days as usize,
+                kc: prep_kc,
+                establishment_mm: self.land_preparation_mm + self.target_ponding_mm,
+            }),
+        }
+    }
 }
 
 impl Planting {
@@ -299,30 +462,9 @@ impl Planting {
     }
 }
 
-/// A minimal serde form of the weather CSV column mapping (which source
-/// header holds which quantity, in which unit).
-///
-/// The weather importer owns the full mapping type; this document form keeps
-/// the user's choice in the project file until the two are reconciled.
-#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct WeatherMapping {
-    /// One entry per mapped column.
-    pub columns: Vec<ColumnMap>,
-}
-
-/// One mapped weather column.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-#[serde(deny_unknown_fields)]
-pub struct ColumnMap {
-    /// Header in the source file.
-    pub source: String,
-    /// Our column name (`tmax_c`, `rain_mm`, …, see DESIGN.md).
-    pub target: String,
-    /// Unit of the source column (e.g. "degF", "in"), if not our unit.
-    #[serde(default)]
-    pub unit: Option<String>,
-}
+/// Largest difference (m) between the project's wind height and the import
+/// mapping's stated wind height that still counts as the same height.
+pub const WIND_HEIGHT_TOLERANCE_M: f64 = 1e-6;
 
 /// Where the weather series comes from and where it was measured.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -335,11 +477,15 @@ pub struct WeatherSource {
     pub latitude_deg: f64,
     /// Station elevation above sea level in metres.
     pub elevation_m: f64,
-    /// Height of the wind measurement above ground in metres.
+    /// Height of the wind measurement above ground in metres. This is the
+    /// height the computation uses; a height stated by the import mapping's
+    /// wind column must equal it (see [`WeatherSource::set_import`]).
     pub wind_height_m: f64,
-    /// Column mapping for files that do not use our column names.
+    /// How to read the file (column mapping, units, date format, delimiter,
+    /// decimal separator, missing markers). `None`: the file uses Offtake's
+    /// own column names and everything else is detected.
     #[serde(default)]
-    pub mapping: Option<WeatherMapping>,
+    pub import: Option<ImportSettings>,
 }
 
 impl Default for WeatherSource {
@@ -349,8 +495,51 @@ impl Default for WeatherSource {
             latitude_deg: 0.0,
             elevation_m: 0.0,
             wind_height_m: 2.0,
-            mapping: None,
+            import: None,
         }
+    }
+}
+
+impl WeatherSource {
+    /// Attaches import settings (or clears them with `None`). When the
+    /// settings' wind column states a measurement height, that height wins:
+    /// it becomes [`WeatherSource::wind_height_m`], so the two never
+    /// contradict after this call.
+    pub fn set_import(&mut self, import: Option<ImportSettings>) {
+        if let Some(h) = import
+            .as_ref()
+            .and_then(ImportSettings::stated_wind_height_m)
+        {
+            self.wind_height_m = h;
+        }
+        self.import = import;
+    }
+
+    /// Sets the wind measurement height (m), also in the import mapping's
+    /// wind column if it states one, so the two stay equal.
+    pub fn set_wind_height_m(&mut self, height_m: f64) {
+        self.wind_height_m = height_m;
+        if let Some(m) = self.import.as_mut().and_then(|i| i.mapping.as_mut())
+            && m.wind_column().is_some_and(|(_, h)| h.is_some())
+        {
+            m.set_wind_height_m(Some(height_m));
+        }
+    }
+
+    /// The wind height stated by the import mapping when it differs from
+    /// [`WeatherSource::wind_height_m`]: `(wind column header, stated height)`.
+    pub fn wind_height_mismatch(&self) -> Option<(&str, f64)> {
+        let (header, stated) = self.import.as_ref()?.mapping.as_ref()?.wind_column()?;
+        let stated = stated?;
+        // `set_import` / `set_wind_height_m` copy one into the other, so
+        // equal heights are equal to the last bit; the tolerance (1 µm) only
+        // forgives a decimal written out and read back.
+        // A NaN on either side counts as a mismatch.
+        let same = (stated - self.wind_height_m)
+            .abs()
+            .partial_cmp(&WIND_HEIGHT_TOLERANCE_M)
+            .is_some_and(std::cmp::Ordering::is_le);
+        (!same).then_some((header, stated))
     }
 }
 

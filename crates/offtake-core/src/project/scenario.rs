@@ -393,6 +393,11 @@ fn shift_crop_share(
             season: pl.season.clone(),
             strategy: strategy.unwrap_or(pl.strategy),
             season_length_days,
+            // The share moves to another crop: the paddy inputs stay with
+            // the rice (a paddy crop shifted to takes the paddy defaults).
+            paddy: None,
+            // The coefficient approach belongs to how the block is farmed.
+            coefficients: pl.coefficients,
         });
     }
     if added.is_empty() {

@@ -58,6 +58,8 @@ fn planting(
             trigger_pct_of_raw: 100.0,
         },
         season_length_days: None,
+        paddy: None,
+        coefficients: crate::project::CoefficientChoice::Single,
     }
 }
 
@@ -113,7 +115,7 @@ fn fixture() -> Project {
             latitude_deg: 18.0,
             elevation_m: 350.0,
             wind_height_m: 2.0,
-            mapping: None,
+            import: None,
         },
         scenarios: vec![Scenario {
             name: "shift".into(),
@@ -543,4 +545,123 @@ fn month_day_rules() {
     assert!(MonthDay::new(13, 1).is_none());
     assert_eq!(MonthDay::new(3, 1).unwrap().day_of_year0(), Some(59));
     assert_eq!(PlantingArea::PercentOfBlock(25.0).hectares(80.0), 20.0);
+}
+
+fn foreign_import(height_m: Option<f64>) -> crate::weather_import::ImportSettings {
+    use crate::weather_import::units::{TemperatureUnit, WindUnit};
+    use crate::weather_import::{
+        ColumnMapping, DateFormat, DecimalSeparator, Delimiter, ImportSettings, MappedColumn,
+        Quantity,
+    };
+    ImportSettings {
+        mapping: Some(ColumnMapping {
+            date_column: "Day".into(),
+            columns: vec![
+                MappedColumn {
+                    header: "Tmax F".into(),
+                    quantity: Quantity::Tmax(TemperatureUnit::Fahrenheit),
+                },
+                MappedColumn {
+                    header: "Wind kmh".into(),
+                    quantity: Quantity::Wind {
+                        unit: WindUnit::KilometresPerHour,
+                        height_m,
+                    },
+                },
+            ],
+        }),
+        date_format: Some(DateFormat::DayMonthYear),
+        delimiter: Some(Delimiter::Semicolon),
+        decimal: Some(DecimalSeparator::Comma),
+        missing_markers: Vec::new(),
+    }
+}
+
+#[test]
+fn attaching_import_settings_adopts_the_stated_wind_height() {
+    let mut w = WeatherSource::default();
+    assert!((w.wind_height_m - 2.0).abs() < 1e-12);
+    w.set_import(Some(foreign_import(Some(10.0))));
+    assert!((w.wind_height_m - 10.0).abs() < 1e-12);
+    assert_eq!(w.wind_height_mismatch(), None);
+    // Changing the height keeps the mapping's stated height equal.
+    w.set_wind_height_m(3.0);
+    let stated = w
+        .import
+        .as_ref()
+        .and_then(crate::weather_import::ImportSettings::stated_wind_height_m);
+    assert_eq!(stated, Some(3.0));
+    assert_eq!(w.wind_height_mismatch(), None);
+    // A mapping that states no height leaves the source's height alone.
+    w.set_import(Some(foreign_import(None)));
+    assert!((w.wind_height_m - 3.0).abs() < 1e-12);
+    w.set_wind_height_m(4.0);
+    assert_eq!(
+        w.import
+            .as_ref()
+            .and_then(crate::weather_import::ImportSettings::stated_wind_height_m),
+        None
+    );
+    assert_eq!(w.wind_height_mismatch(), None);
+}
+
+#[test]
+fn contradicting_wind_heights_are_reported_by_validation() {
+    let mut p = fixture();
+    p.weather.import = Some(foreign_import(Some(10.0)));
+    let problems = p.validate(&ctx());
+    assert!(
+        problems.iter().any(|q| matches!(
+            q,
+            ValidationProblem::WindHeightMismatch { source_m, column, mapping_m }
+                if (*source_m - 2.0).abs() < 1e-12
+                    && column == "Wind kmh"
+                    && (*mapping_m - 10.0).abs() < 1e-12
+        )),
+        "{problems:?}"
+    );
+    p.weather.wind_height_m = 10.0;
+    assert!(p.validate(&ctx()).is_empty(), "{:?}", p.validate(&ctx()));
+}
+
+#[test]
+fn contradictory_import_settings_are_reported_by_validation() {
+    let mut p = fixture();
+    let mut import = foreign_import(None);
+    import.delimiter = Some(crate::weather_import::Delimiter::Comma);
+    p.weather.import = Some(import);
+    let problems = p.validate(&ctx());
+    assert!(
+        problems.iter().any(|q| matches!(
+            q,
+            ValidationProblem::WeatherImport(
+                crate::weather_import::ImportSettingsProblem::DecimalCommaWithCommaDelimiter
+            )
+        )),
+        "{problems:?}"
+    );
+}
+#[test]
+fn paddy_inputs_out_of_range_are_listed() {
+    let mut p = fixture();
+    p.plantings[0].paddy = Some(super::PaddyInputs::default());
+    assert!(p.validate(&ctx()).is_empty());
+    p.plantings[0].paddy = Some(super::PaddyInputs {
+        field_efficiency: 1.2,
+        target_ponding_mm: 300.0,
+        percolation_seepage_mm_day: -1.0,
+        land_preparation_days: 0,
+        ..super::PaddyInputs::default()
+    });
+    let problems = p.validate(&ctx());
+    let text: Vec<String> = problems.iter().map(ToString::to_string).collect();
+    assert_eq!(problems.len(), 4, "{text:#?}");
+    for field in [
+        "field_efficiency",
+        "target_ponding_mm",
+        "percolation_seepage_mm_day",
+        "land_preparation_days",
+    ] {
+        assert!(text.iter().any(|t| t.contains(field)), "{field}: {text:#?}");
+    }
 }

@@ -24,6 +24,7 @@ use thiserror::Error;
 
 use super::tree::TreeError;
 use super::{AvailableSupply, EffectiveRain, HEADWORKS, Planting, Project, Strategy, SupplyFlow};
+use crate::weather_import::ImportSettingsProblem;
 
 /// Days in the cropping-plan year used for the occupancy check.
 const PLAN_YEAR_DAYS: usize = 365;
@@ -258,6 +259,22 @@ pub enum ValidationProblem {
         /// What was expected.
         expected: &'static str,
     },
+    /// The weather import settings contradict themselves.
+    #[error("{0}")]
+    WeatherImport(ImportSettingsProblem),
+    /// The import mapping's wind column states a measurement height other
+    /// than the weather source's `wind_height_m`.
+    #[error(
+        "weather: wind_height_m = {source_m} m but the import mapping's wind column {column:?} states {mapping_m} m; set one height (the computation uses wind_height_m)"
+    )]
+    WindHeightMismatch {
+        /// The weather source's wind height (m).
+        source_m: f64,
+        /// The wind column's header.
+        column: String,
+        /// The height the mapping states (m).
+        mapping_m: f64,
+    },
     /// A scenario cannot be applied.
     #[error("{0}")]
     Scenario(super::ScenarioError),
@@ -484,6 +501,21 @@ impl Project {
                 }
             }
             check_strategy(&subject, &p.strategy, out);
+            if let Some(paddy) = &p.paddy {
+                check_paddy(&subject, &p.id, paddy, out);
+            }
+            if let super::CoefficientChoice::Dual {
+                wetted_fraction: Some(fw),
+            } = p.coefficients
+                && !(fw > 0.0 && fw <= 1.0)
+            {
+                out.push(ValidationProblem::BadValue {
+                    subject: subject.clone(),
+                    field: "coefficients wetted_fraction",
+                    value: fw,
+                    expected: "a fraction of the surface wetted in (0, 1] (FAO-56 Table 20)",
+                });
+            }
             let day_ok = p.first_planting.is_valid();
             if !day_ok {
                 out.push(ValidationProblem::InvalidPlantingDay {
@@ -624,6 +656,21 @@ impl Project {
             });
         }
         check_positive("weather", "wind_height_m", w.wind_height_m, out);
+        if let Some(import) = &w.import {
+            out.extend(
+                import
+                    .problems()
+                    .into_iter()
+                    .map(ValidationProblem::WeatherImport),
+            );
+        }
+        if let Some((column, mapping_m)) = w.wind_height_mismatch() {
+            out.push(ValidationProblem::WindHeightMismatch {
+                source_m: w.wind_height_m,
+                column: column.to_owned(),
+                mapping_m,
+            });
+        }
         if let Some(r) = &self.reservoir {
             let subject = format!("reservoir {:?}", r.name);
             for &a in &r.surface_area_ha {
@@ -776,6 +823,70 @@ fn check_id_list<'a>(
             });
         }
     }
+}
+
+/// Ranges of the paddy inputs (the paddy balance refuses the same values;
+/// listing them here names every one at once).
+fn check_paddy(subject: &str, id: &str, p: &super::PaddyInputs, out: &mut Vec<ValidationProblem>) {
+    check_efficiency(
+        ItemKind::Planting,
+        id,
+        "paddy field_efficiency",
+        p.field_efficiency,
+        out,
+    );
+    let mut bad = |field: &'static str, value: f64, ok: bool, expected: &'static str| {
+        if !(value.is_finite() && ok) {
+            out.push(ValidationProblem::BadValue {
+                subject: subject.to_owned(),
+                field,
+                value,
+                expected,
+            });
+        }
+    };
+    bad(
+        "paddy bund_height_mm",
+        p.bund_height_mm,
+        p.bund_height_mm > 0.0,
+        "a height > 0 mm",
+    );
+    bad(
+        "paddy target_ponding_mm",
+        p.target_ponding_mm,
+        p.target_ponding_mm >= 0.0 && p.target_ponding_mm <= p.bund_height_mm,
+        "0 ≤ pond depth ≤ bund height (mm)",
+    );
+    bad(
+        "paddy percolation_seepage_mm_day",
+        p.percolation_seepage_mm_day,
+        p.percolation_seepage_mm_day >= 0.0,
+        "a rate ≥ 0 mm/day",
+    );
+    bad(
+        "paddy land_preparation_mm",
+        p.land_preparation_mm,
+        p.land_preparation_mm >= 0.0,
+        "a depth ≥ 0 mm",
+    );
+    bad(
+        "paddy land_preparation_days",
+        f64::from(p.land_preparation_days),
+        p.land_preparation_days >= 1,
+        "at least 1 day",
+    );
+    bad(
+        "paddy nursery_share",
+        p.nursery_share,
+        (0.0..=1.0).contains(&p.nursery_share),
+        "a share 0 to 1",
+    );
+    bad(
+        "paddy nursery_days",
+        f64::from(p.nursery_days),
+        p.nursery_share == 0.0 || p.nursery_days >= 1,
+        "at least 1 day when a nursery is given",
+    );
 }
 
 fn check_efficiency(

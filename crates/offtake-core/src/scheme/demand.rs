@@ -30,6 +30,13 @@ use crate::units::{depth_mm_over_area_ha_to_m3, m3_day_to_l_s};
 ///
 /// A block may have several series (plantings); series with the same crop
 /// label are summed in the per-crop breakdown.
+///
+/// The series' GIR at the block outlet is NIR ÷ (Ea × Eb), with Ea the
+/// block's field application efficiency unless `application_efficiency`
+/// overrides it for this series. The override is for plantings whose NIR
+/// already holds losses a method efficiency would count again: a paddy NIR
+/// contains seepage, percolation and land preparation, so its efficiency
+/// covers operational losses only (issue 4, [`crate::paddy`]).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct NirSeries {
     /// Name of the block the planting is on.
@@ -39,6 +46,10 @@ pub struct NirSeries {
     /// Net irrigation requirement of the planting, m³/day, one value per day
     /// from the scheme's start date.
     pub nir_m3_day: Vec<f64>,
+    /// Field application efficiency Ea of this series (fraction in (0, 1]);
+    /// `None`: the block's.
+    #[serde(default)]
+    pub application_efficiency: Option<f64>,
 }
 
 impl NirSeries {
@@ -57,7 +68,16 @@ impl NirSeries {
                 .iter()
                 .map(|&d| depth_mm_over_area_ha_to_m3(d, area_ha))
                 .collect(),
+            application_efficiency: None,
         }
+    }
+
+    /// The same series with its own field application efficiency Ea
+    /// (used instead of the block's for this series' GIR).
+    #[must_use]
+    pub fn with_application_efficiency(mut self, application_efficiency: f64) -> Self {
+        self.application_efficiency = Some(application_efficiency);
+        self
     }
 }
 
@@ -168,6 +188,7 @@ pub struct SchemeDemand {
     days: usize,
     crops: Vec<String>,
     block_nir_m3_day: Vec<f64>,
+    block_gir_m3_day: Vec<f64>,
     node_m3_day: Vec<f64>,
     node_crop_m3_day: Vec<f64>,
 }
@@ -179,8 +200,9 @@ impl SchemeDemand {
     ///
     /// # Errors
     /// [`SchemeError::Invalid`] listing every series on a missing block,
-    /// every series of the wrong length and every negative or non-finite value
-    /// (the first bad day of each series).
+    /// every series of the wrong length, every negative or non-finite value
+    /// (the first bad day of each series) and every efficiency override
+    /// outside (0, 1].
     pub fn compute(
         network: &Network,
         start: NaiveDate,
@@ -221,6 +243,15 @@ impl SchemeDemand {
                     value,
                 });
             }
+            if let Some(ea) = s.application_efficiency
+                && !(ea.is_finite() && ea > 0.0 && ea <= 1.0)
+            {
+                problems.push(NetworkProblem::EfficiencyOutOfRange {
+                    kind: "Ea",
+                    item: format!("{} ({})", s.block, s.crop),
+                    value: ea,
+                });
+            }
             let ci = if let Some(i) = crops.iter().position(|c| *c == s.crop) {
                 i
             } else {
@@ -238,23 +269,31 @@ impl SchemeDemand {
         let n_nodes = n_canals + 1;
         let n_crops = crops.len();
         let mut block_nir_m3_day = vec![0.0; n_blocks * days];
+        let mut block_gir_m3_day = vec![0.0; n_blocks * days];
         let mut node_crop_m3_day = vec![0.0; n_nodes * n_crops * days];
 
-        // Blocks: NIR into the block rows; GIR = NIR ÷ (Ea × Eb) into the
-        // (canal, crop) row of the canal the block takes from.
+        // Blocks: NIR into the block rows; GIR = NIR ÷ (Ea × Eb), with the
+        // series' Ea where it overrides the block's, into the block's GIR
+        // row and the (canal, crop) row of the canal the block takes from.
         for ((s, &b), &c) in nir.iter().zip(&series_block).zip(&series_crop) {
             let block = &network.blocks()[b];
-            let to_gir = 1.0 / (block.application_efficiency * block.field_canal_efficiency);
+            let ea = s
+                .application_efficiency
+                .unwrap_or(block.application_efficiency);
+            let to_gir = 1.0 / (ea * block.field_canal_efficiency);
             let canal = network.block_canal(b);
             let at = (canal * n_crops + c) * days;
             let block_row = &mut block_nir_m3_day[b * days..(b + 1) * days];
+            let block_gir_row = &mut block_gir_m3_day[b * days..(b + 1) * days];
             let node_row = &mut node_crop_m3_day[at..at + days];
-            for ((nir_acc, gir_acc), &v) in block_row
+            for (((nir_acc, block_gir_acc), gir_acc), &v) in block_row
                 .iter_mut()
+                .zip(block_gir_row.iter_mut())
                 .zip(node_row.iter_mut())
                 .zip(&s.nir_m3_day)
             {
                 *nir_acc += v;
+                *block_gir_acc += v * to_gir;
                 *gir_acc += v * to_gir;
             }
         }
@@ -296,6 +335,7 @@ impl SchemeDemand {
             days,
             crops,
             block_nir_m3_day,
+            block_gir_m3_day,
             node_m3_day,
             node_crop_m3_day,
         })
@@ -362,14 +402,16 @@ impl SchemeDemand {
         &self.block_nir_m3_day[block * self.days..(block + 1) * self.days]
     }
 
-    /// Daily GIR of a block at its outlet (m³/day): NIR ÷ (Ea × Eb).
+    /// Daily GIR of a block at its outlet (m³/day): Σ over its series of
+    /// NIR ÷ (Ea × Eb), each series with its own Ea where it overrides the
+    /// block's.
     pub fn block_gir_m3_day(&self, block: usize) -> Vec<f64> {
-        let b = &self.network.blocks()[block];
-        let k = 1.0 / (b.application_efficiency * b.field_canal_efficiency);
-        self.block_nir_m3_day(block)
-            .iter()
-            .map(|&v| v * k)
-            .collect()
+        self.block_gir_slice_m3_day(block).to_vec()
+    }
+
+    /// [`Self::block_gir_m3_day`] without a copy.
+    pub fn block_gir_slice_m3_day(&self, block: usize) -> &[f64] {
+        &self.block_gir_m3_day[block * self.days..(block + 1) * self.days]
     }
 
     /// Blocks served through `node`.
@@ -379,13 +421,14 @@ impl SchemeDemand {
             .collect()
     }
 
-    /// Share of block `block` in the demand at `node` (m³/day): its NIR ÷
-    /// (Ea × Eb × Π Ec up to the node). `None` when the block is not below it.
-    /// Over all blocks below a node these add up to the node's demand.
+    /// Share of block `block` in the demand at `node` (m³/day): its GIR ÷
+    /// Π Ec up to the node, i.e. Σ over its series of NIR ÷ (Ea × Eb × Π Ec).
+    /// `None` when the block is not below it. Over all blocks below a node
+    /// these add up to the node's demand.
     pub fn block_share_m3_day(&self, node: Node, block: usize) -> Option<Vec<f64>> {
-        let k = self.network.block_factor(block, node)?;
+        let k = self.network.conveyance_factor(block, node)?;
         Some(
-            self.block_nir_m3_day(block)
+            self.block_gir_slice_m3_day(block)
                 .iter()
                 .map(|&v| v * k)
                 .collect(),
@@ -441,7 +484,7 @@ impl SchemeDemand {
             .blocks_below(node)
             .into_iter()
             .map(|b| {
-                let gir = self.block_gir_m3_day(b);
+                let gir = self.block_gir_slice_m3_day(b);
                 (b, gir.iter().zip(&ratio).map(|(g, r)| g * r).collect())
             })
             .collect())

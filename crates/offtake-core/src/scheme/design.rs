@@ -24,6 +24,17 @@
 //! m³/s). Required capacity = design flow × 24 ÷ hours of operation per day
 //! (published-check-values §10.3).
 //!
+//! # Shortfall against an existing capacity
+//!
+//! The shortfall follows the design basis ([`capacity_shortfall_on_basis`]):
+//! with the default 10-day basis a calendar 10-day period is short when its
+//! mean flow exceeds what the canal can carry (capacity × hours ÷ 24 as a
+//! continuous flow), and the volume not delivered is Σ (mean − capacity) ×
+//! the period's days. Daily peaks of refill-style schedules (a whole block
+//! irrigated in one day) are never the default basis (issue 5): the days on
+//! which the daily demand exceeds the capacity are reported too, labelled as
+//! daily peaks, for information.
+//!
 //! Results are planning estimates: canal and structure designs must be
 //! checked by a qualified engineer against local codes and measured data.
 
@@ -47,6 +58,26 @@ pub enum DesignBasis {
     Monthly,
     /// Peak daily flow (small continuous-flow schemes).
     Daily,
+}
+
+impl DesignBasis {
+    /// Label of the averaging period: `10-day`, `monthly` or `daily`.
+    pub fn label(self) -> &'static str {
+        match self {
+            Self::TenDay => "10-day",
+            Self::Monthly => "monthly",
+            Self::Daily => "daily",
+        }
+    }
+
+    /// Plural noun of the periods: `10-day periods`, `months` or `days`.
+    pub fn periods_noun(self) -> &'static str {
+        match self {
+            Self::TenDay => "10-day periods",
+            Self::Monthly => "months",
+            Self::Daily => "days",
+        }
+    }
 }
 
 /// Options of the design-value computation.
@@ -149,8 +180,9 @@ pub struct NodeDesign {
     pub required_capacity_ls: f64,
     /// Existing capacity (l/s), if given.
     pub existing_capacity_ls: Option<f64>,
-    /// Shortfall against the existing capacity over the whole record, if a
-    /// capacity is given.
+    /// Shortfall against the existing capacity over the whole record, on
+    /// the design basis (with the daily peaks beside it), if a capacity is
+    /// given.
     pub shortfall: Option<Shortfall>,
 }
 
@@ -178,26 +210,66 @@ pub struct ShortfallPeriod {
     pub deficit_m3: f64,
 }
 
-/// Shortfall of a daily demand against an existing capacity.
+/// A period of the design basis (a calendar 10-day period, month or day)
+/// whose mean demand exceeds what the existing capacity can carry.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub struct BasisShortfallPeriod {
+    /// First calendar day of the period.
+    pub start: NaiveDate,
+    /// Calendar length of the period (days).
+    pub period_days: u32,
+    /// Days of the period inside the record (fewer only at its ends).
+    pub covered_days: u32,
+    /// Mean demand over the covered days, as a continuous flow (l/s).
+    pub mean_demand_ls: f64,
+    /// Volume not delivered (m³): (mean − deliverable per day) × covered days.
+    pub deficit_m3: f64,
+}
+
+/// Shortfall of a demand against an existing capacity.
+///
+/// The `basis_*` fields follow the design basis (the default 10-day mean
+/// flows); `days`, `periods` and `volume_not_delivered_m3` are **daily
+/// peaks**, reported for information (a refill schedule's one-day pulses
+/// make them large; they are not the design basis).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Shortfall {
     /// Volume the canal can deliver in a day: capacity × hours × 3600 (m³).
     pub deliverable_m3_day: f64,
-    /// Days of shortfall, in order.
+    /// Daily peaks: days whose demand exceeds the deliverable volume, in order.
     pub days: Vec<ShortfallDay>,
-    /// 10-day periods holding shortfall days, in order.
+    /// Daily peaks: 10-day periods holding such days, in order.
     pub periods: Vec<ShortfallPeriod>,
-    /// Total volume not delivered (m³): Σ max(0, demand − deliverable).
+    /// Daily peaks: volume not delivered (m³), Σ max(0, demand − deliverable)
+    /// over the days (water not carried over between days).
     pub volume_not_delivered_m3: f64,
+    /// Averaging period of the comparison in the `basis_*` fields.
+    #[serde(default)]
+    pub basis: DesignBasis,
+    /// Periods of the basis whose mean flow exceeds the capacity, in order.
+    #[serde(default)]
+    pub basis_periods: Vec<BasisShortfallPeriod>,
+    /// Volume not delivered on the basis (m³): Σ (mean − capacity) × period
+    /// days over the short periods.
+    #[serde(default)]
+    pub basis_volume_not_delivered_m3: f64,
+    /// Complete irrigation years holding at least one short period of the
+    /// basis (filled by [`design_values`]; empty otherwise).
+    #[serde(default)]
+    pub years_short: Vec<IrrigationYear>,
 }
 
-/// Days and 10-day periods on which a daily demand (m³/day from `start`)
-/// exceeds what a canal of capacity `capacity_m3s` running `hours_per_day`
-/// hours a day can deliver (capacity × hours × 3600 m³/day), and the volume
-/// not delivered (Σ max(0, demand − deliverable) over the days).
+/// Daily peaks: days and 10-day periods on which a daily demand (m³/day
+/// from `start`) exceeds what a canal of capacity `capacity_m3s` running
+/// `hours_per_day` hours a day can deliver (capacity × hours × 3600
+/// m³/day), and the volume not delivered (Σ max(0, demand − deliverable)
+/// over the days).
 ///
-/// A 10-day period is in shortfall when it holds at least one shortfall day;
-/// water is not carried over between days.
+/// A 10-day period is listed in `periods` when it holds at least one
+/// shortfall day; water is not carried over between days. The `basis_*`
+/// fields hold the same comparison day by day ([`DesignBasis::Daily`]).
+/// The design values use [`capacity_shortfall_on_basis`] instead, whose
+/// default basis is the 10-day mean flow.
 ///
 /// # Errors
 /// [`SchemeError::BadOption`] for a capacity that is not a positive finite
@@ -281,12 +353,78 @@ pub fn capacity_shortfall(
         date = date.succ_opt().unwrap_or(date);
     }
     close(&mut periods, &period_demand);
+    let basis_periods = days
+        .iter()
+        .map(|d| BasisShortfallPeriod {
+            start: d.date,
+            period_days: 1,
+            covered_days: 1,
+            mean_demand_ls: m3_day_to_l_s(d.demand_m3),
+            deficit_m3: d.deficit_m3,
+        })
+        .collect();
     Ok(Shortfall {
         deliverable_m3_day: deliverable,
         days,
         periods,
         volume_not_delivered_m3: total,
+        basis: DesignBasis::Daily,
+        basis_periods,
+        basis_volume_not_delivered_m3: total,
+        years_short: Vec::new(),
     })
+}
+
+/// Shortfall on a design basis: each calendar period of the basis (10-day
+/// periods 1–10, 11–20, 21–end; months; or days) is short when its mean
+/// demand exceeds what the canal can deliver per day (capacity × hours ×
+/// 3600 m³/day, i.e. a continuous flow of capacity × hours ÷ 24); the
+/// volume not delivered is Σ (mean − deliverable per day) × the period's
+/// days in the record. Periods cut by the ends of the record are compared
+/// on their mean over the days inside it.
+///
+/// The daily peaks ([`capacity_shortfall`]) are returned beside it in
+/// `days`, `periods` and `volume_not_delivered_m3`.
+///
+/// # Errors
+/// As [`capacity_shortfall`].
+pub fn capacity_shortfall_on_basis(
+    start: NaiveDate,
+    demand_m3_day: &[f64],
+    capacity_m3s: f64,
+    hours_per_day: f64,
+    basis: DesignBasis,
+) -> Result<Shortfall, SchemeError> {
+    let mut out = capacity_shortfall(start, demand_m3_day, capacity_m3s, hours_per_day)?;
+    if basis == DesignBasis::Daily {
+        return Ok(out);
+    }
+    let step = match basis {
+        DesignBasis::Monthly => super::demand::PeriodStep::Month,
+        _ => super::demand::PeriodStep::TenDay,
+    };
+    let deliverable = out.deliverable_m3_day;
+    let mut periods = Vec::new();
+    let mut total = 0.0;
+    for p in super::demand::aggregate_periods(start, demand_m3_day, step, 0.0) {
+        let days = f64::from(p.covered_days);
+        let mean_m3_day = p.volume_m3 / days;
+        let deficit = (mean_m3_day - deliverable) * days;
+        if mean_m3_day > deliverable {
+            total += deficit;
+            periods.push(BasisShortfallPeriod {
+                start: p.start,
+                period_days: p.period_days,
+                covered_days: p.covered_days,
+                mean_demand_ls: p.mean_flow_ls,
+                deficit_m3: deficit,
+            });
+        }
+    }
+    out.basis = basis;
+    out.basis_periods = periods;
+    out.basis_volume_not_delivered_m3 = total;
+    Ok(out)
 }
 
 /// Largest mean flow (l/s) over consecutive groups of days sharing a key, with
@@ -446,7 +584,21 @@ pub fn design_values(
             required_capacity_ls: required_capacity_ls(design_flow_ls, hours_per_day),
             existing_capacity_ls: capacity_m3s.map(|c| c * 1000.0),
             shortfall: capacity_m3s
-                .map(|c| capacity_shortfall(first, series, c, hours_per_day))
+                .map(|c| {
+                    capacity_shortfall_on_basis(first, series, c, hours_per_day, options.basis).map(
+                        |mut s| {
+                            // A complete year is short when its peak on the
+                            // basis exceeds the continuous-flow capacity.
+                            let capacity_ls = c * 1000.0 * hours_per_day / 24.0;
+                            s.years_short = years
+                                .iter()
+                                .filter(|y| y.peak_ls(options.basis) > capacity_ls)
+                                .map(|y| y.year)
+                                .collect();
+                            s
+                        },
+                    )
+                })
                 .transpose()?,
             years,
         });

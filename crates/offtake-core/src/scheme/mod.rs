@@ -21,8 +21,8 @@ pub use demand::{
     NirSeries, PeriodDemand, PeriodStep, SchemeDemand, aggregate_periods, storage_losses_m3_day,
 };
 pub use design::{
-    DesignBasis, DesignOptions, NodeDesign, Shortfall, ShortfallDay, ShortfallPeriod, YearValues,
-    capacity_shortfall, design_values,
+    BasisShortfallPeriod, DesignBasis, DesignOptions, NodeDesign, Shortfall, ShortfallDay,
+    ShortfallPeriod, YearValues, capacity_shortfall, capacity_shortfall_on_basis, design_values,
 };
 pub use network::{Block, Canal, Network, NetworkProblem, Node};
 

@@ -514,7 +514,31 @@ impl Network {
     /// the node.
     pub fn block_factor(&self, block: usize, node: Node) -> Option<f64> {
         let b = &self.blocks[block];
-        let mut factor = 1.0 / (b.application_efficiency * b.field_canal_efficiency);
+        self.block_factor_with_efficiency(block, node, b.application_efficiency)
+    }
+
+    /// As [`Self::block_factor`], with the field application efficiency Ea
+    /// of one planting instead of the block's (e.g. a paddy planting whose
+    /// efficiency covers operational losses only):
+    /// 1 ÷ (Ea × Eb × Π Ec). `None` when the block is not below the node.
+    pub fn block_factor_with_efficiency(
+        &self,
+        block: usize,
+        node: Node,
+        application_efficiency: f64,
+    ) -> Option<f64> {
+        let b = &self.blocks[block];
+        self.conveyance_factor(block, node)
+            .map(|k| k / (application_efficiency * b.field_canal_efficiency))
+    }
+
+    /// Factor turning block `block`'s GIR at its outlet (m³/day) into its
+    /// share of the demand at `node`: 1 ÷ Π Ec over the canals from the
+    /// block's canal up to and including `node`'s canal (all canals to the
+    /// headworks for [`Node::Headworks`]). `None` when the block is not
+    /// below the node.
+    pub fn conveyance_factor(&self, block: usize, node: Node) -> Option<f64> {
+        let mut factor = 1.0;
         let mut at = Some(self.block_canal[block]);
         while let Some(c) = at {
             factor /= self.canals[c].conveyance_efficiency;

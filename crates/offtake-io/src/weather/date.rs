@@ -1,30 +1,7 @@
 //! Date formats of weather files and their parsing.
 
 use chrono::NaiveDate;
-use serde::{Deserialize, Serialize};
-
-/// How dates are written in a weather file. Four-digit years only.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
-#[non_exhaustive]
-pub enum DateFormat {
-    /// Year-month-day, ISO 8601 (`2024-03-15`; `/` also accepted).
-    Iso,
-    /// Day/month/year (`15/03/2024`; `-` and `.` also accepted).
-    DayMonthYear,
-    /// Month/day/year (`03/15/2024`; `-` and `.` also accepted).
-    MonthDayYear,
-}
-
-impl DateFormat {
-    /// Human description for messages.
-    pub fn describe(self) -> &'static str {
-        match self {
-            Self::Iso => "a date YYYY-MM-DD",
-            Self::DayMonthYear => "a date DD/MM/YYYY (day/month/year)",
-            Self::MonthDayYear => "a date MM/DD/YYYY (month/day/year)",
-        }
-    }
-}
+pub use offtake_core::weather_import::DateFormat;
 
 /// The shape of a date cell before a format is chosen.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

@@ -11,6 +11,12 @@
 //! semicolon or tab; numbers with decimal point or (with a non-comma
 //! delimiter) decimal comma; UTF-8 with or without byte-order mark.
 //!
+//! The document types (mapping, units, date format, delimiter, decimal
+//! separator, gathered as [`ImportSettings`]) live in
+//! [`offtake_core::weather_import`] so a project can hold them; they are
+//! re-exported here. [`load_project_weather`] reads a project's weather file
+//! with the project's saved settings.
+//!
 //! [`WeatherReader`] streams one day at a time; [`import_weather_file`]
 //! collects a whole series and every problem up to a cap. Every rejected cell
 //! is reported as `file:line:column: column: found "...", expected ...`.
@@ -20,6 +26,7 @@
 mod date;
 mod error;
 mod mapping;
+mod project;
 mod reader;
 pub mod units;
 
@@ -29,7 +36,10 @@ pub use error::{
 };
 pub use mapping::{
     ColumnMapping, MappedColumn, MappingGuess, OWN_COLUMNS, Quantity, guess_mapping,
+    mapping_from_ron_str, mapping_to_ron_string,
 };
+pub use offtake_core::weather_import::{ImportSettings, ImportSettingsProblem};
+pub use project::{ProjectWeather, ProjectWeatherError, load_project_weather};
 pub use reader::{
     DEFAULT_MAX_PROBLEMS, DecimalSeparator, Delimiter, ImportOptions, ImportedSeries,
     MAGNITUDE_LIMIT, ReadDay, WeatherReader, import_weather_file, import_weather_reader,

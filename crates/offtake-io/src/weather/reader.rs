@@ -7,6 +7,8 @@ use std::path::Path;
 
 use chrono::NaiveDate;
 use offtake_core::weather::WeatherDay;
+use offtake_core::weather_import::ImportSettings;
+pub use offtake_core::weather_import::{DecimalSeparator, Delimiter};
 use serde::{Deserialize, Serialize};
 
 use super::date::{self, DateFormat, Evidence};
@@ -26,41 +28,12 @@ pub const MAGNITUDE_LIMIT: f64 = 1.0e6;
 /// Default cap on the number of problems an import lists.
 pub const DEFAULT_MAX_PROBLEMS: usize = 100;
 
-/// Field delimiter of a weather file.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
-#[non_exhaustive]
-pub enum Delimiter {
-    /// `,`
-    Comma,
-    /// `;`
-    Semicolon,
-    /// Tab.
-    Tab,
-}
-
-impl Delimiter {
-    fn byte(self) -> u8 {
-        match self {
-            Self::Comma => b',',
-            Self::Semicolon => b';',
-            Self::Tab => b'\t',
-        }
-    }
-}
-
-/// Decimal separator of numbers in a weather file.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
-#[non_exhaustive]
-pub enum DecimalSeparator {
-    /// `12.5`
-    Point,
-    /// `12,5` (only possible when the delimiter is not a comma).
-    Comma,
-}
-
-/// How to read a weather file. Saved with a project (serde) so re-import is
-/// one step. `None` fields are detected from the file; detection never
-/// guesses between day/month and month/day order.
+/// How to read a weather file: the saved [`ImportSettings`] of a file plus
+/// the run-time cap on listed problems. `None` fields are detected from the
+/// file; detection never guesses between day/month and month/day order.
+///
+/// Convert with [`ImportOptions::from_settings`] and
+/// [`ImportOptions::settings`]; a project saves only the settings.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct ImportOptions {
     /// Column mapping; `None` means the file uses Offtake's own column names.
@@ -91,6 +64,45 @@ impl Default for ImportOptions {
             missing_markers: Vec::new(),
             max_problems: DEFAULT_MAX_PROBLEMS,
         }
+    }
+}
+
+impl ImportOptions {
+    /// Options that read a file as `settings` say, with the default problem cap.
+    pub fn from_settings(settings: &ImportSettings) -> Self {
+        let ImportSettings {
+            mapping,
+            date_format,
+            delimiter,
+            decimal,
+            missing_markers,
+        } = settings.clone();
+        Self {
+            mapping,
+            date_format,
+            delimiter,
+            decimal,
+            missing_markers,
+            max_problems: DEFAULT_MAX_PROBLEMS,
+        }
+    }
+
+    /// The part of the options that describes the file, for saving with a
+    /// project.
+    pub fn settings(&self) -> ImportSettings {
+        ImportSettings {
+            mapping: self.mapping.clone(),
+            date_format: self.date_format,
+            delimiter: self.delimiter,
+            decimal: self.decimal,
+            missing_markers: self.missing_markers.clone(),
+        }
+    }
+}
+
+impl From<&ImportSettings> for ImportOptions {
+    fn from(settings: &ImportSettings) -> Self {
+        Self::from_settings(settings)
     }
 }
 
@@ -271,7 +283,7 @@ impl<R: Read> WeatherReader<R> {
             });
         }
         let delimiter = match options.delimiter {
-            Some(d) => d.byte(),
+            Some(d) => d.as_byte(),
             None => detect_delimiter(&header_text).ok_or_else(|| ImportError::Header {
                 at: at(1, 1),
                 found: format!("header \"{header_text}\" with no comma, semicolon or tab"),
@@ -905,7 +917,7 @@ pub fn load_mapping(path: &Path) -> Result<ColumnMapping, ImportError> {
         path: path.to_path_buf(),
         source,
     })?;
-    ColumnMapping::from_ron_str(&text).map_err(|error| ImportError::MappingFile {
+    super::mapping::mapping_from_ron_str(&text).map_err(|error| ImportError::MappingFile {
         path: path.to_path_buf(),
         error: Box::new(error),
     })
