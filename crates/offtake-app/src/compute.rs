@@ -223,7 +223,7 @@ fn et0_band(
 /// A weather file read once and kept while its path and modification time
 /// stay the same.
 struct WeatherCache {
-    key: Option<(PathBuf, Option<std::time::SystemTime>)>,
+    key: Option<WeatherKey>,
     days: Result<Vec<WeatherDay>, String>,
     warnings: Vec<String>,
     /// ET₀ results of the last run and the station and method they used:
@@ -274,8 +274,9 @@ pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
     })
 }
 
-/// The weather file and its modification time.
-type WeatherKey = (PathBuf, Option<std::time::SystemTime>);
+/// The weather file, its modification time and the project's import
+/// settings (column mapping, units, date format), as text.
+type WeatherKey = (PathBuf, Option<std::time::SystemTime>, String);
 
 /// What engine results depend on: the project, the scenario shown, the
 /// weather file.
@@ -298,7 +299,7 @@ impl EngineCache {
     fn update(
         &mut self,
         snap: &Snapshot,
-        weather_key: Option<(PathBuf, Option<std::time::SystemTime>)>,
+        weather_key: Option<WeatherKey>,
         days: &[WeatherDay],
         libraries: &Libraries,
     ) {
@@ -392,8 +393,9 @@ impl EngineCache {
 }
 
 /// The weather as the engine prepares it for the plantings: days that the
-/// ET₀ checks reject become gaps (rain kept), gaps are filled (offtake-core
-/// `gapfill`, default options), then ET₀, u2 and RHmin per day.
+/// ET₀ checks reject become gaps (rain kept) and gaps are filled (offtake-core
+/// `gapfill::repair_for_daily_balance`, default options, the engine's call),
+/// then ET₀, u2 and RHmin per day.
 ///
 /// # Errors
 /// The engine's error text.
@@ -403,20 +405,14 @@ pub fn prepared_weather(
     perturbation: &offtake_core::project::WeatherPerturbation,
 ) -> Result<PreparedWeather, String> {
     use offtake_core::et0::{Et0Context, Et0Options};
-    use offtake_core::gapfill::{GapFillOptions, fill_gaps};
+    use offtake_core::gapfill::{GapFillOptions, repair_for_daily_balance};
     let site = engine::site_of(project);
     let checker = Et0Context::new(&site, &Et0Options::default()).map_err(|e| e.to_string())?;
-    let cleaned: Vec<WeatherDay> = days
-        .iter()
-        .map(|d| match checker.et0_mm_day(d) {
-            Err(_) if d.tmax_c.is_some() && d.tmin_c.is_some() => WeatherDay {
-                rain_mm: d.rain_mm,
-                ..WeatherDay::empty(d.date)
-            },
-            _ => *d,
-        })
-        .collect();
-    let filled = fill_gaps(&cleaned, &GapFillOptions::default(), &[]).map_err(|e| e.to_string())?;
+    let filled = repair_for_daily_balance(days, &GapFillOptions::default(), |d| {
+        checker.et0_mm_day(d).map(|_| ()).map_err(|e| e.to_string())
+    })
+    .map_err(|e| e.to_string())?
+    .filled;
     engine::weather_prep::prepare_weather(
         &filled.days,
         &site,
@@ -439,7 +435,9 @@ pub fn season_view(
     req: &SeasonRequest,
     default_year: Option<i32>,
 ) -> Result<SeasonView, String> {
-    use offtake_core::engine::planting_step::{balance_strategy, effective_rain_method};
+    use offtake_core::engine::planting_step::{
+        balance_strategy, coefficient_mode, effective_rain_method, is_paddy, paddy_inputs,
+    };
     use offtake_core::planting::{PlantingSpec, PlantingWeather, season_detail};
     let p = project
         .plantings
@@ -462,6 +460,10 @@ pub fn season_view(
     spec.season_length_days = p.season_length_days;
     spec.strategy = balance_strategy(p.strategy, crop);
     spec.effective_rain = effective_rain_method(project.options.effective_rain, crop, soil);
+    spec.coefficients = coefficient_mode(p, b).0;
+    if is_paddy(crop) {
+        spec.paddy = Some(paddy_inputs(p).paddy_options());
+    }
     let weather = PlantingWeather {
         start: w.start,
         et0_mm: &w.et0_mm,
@@ -501,10 +503,16 @@ fn weather(
         None => PathBuf::from(&p.weather.path),
     };
     let modified = std::fs::metadata(&file).and_then(|m| m.modified()).ok();
-    let key = (file.clone(), modified);
+    // The project's saved import settings apply, as in `offtake run`.
+    let options = p
+        .weather
+        .import
+        .as_ref()
+        .map_or_else(ImportOptions::default, ImportOptions::from_settings);
+    let key = (file.clone(), modified, format!("{:?}", p.weather.import));
     if cache.key.as_ref() != Some(&key) {
         cache.key = Some(key);
-        match import_weather_file(&file, &ImportOptions::default()) {
+        match import_weather_file(&file, &options) {
             Ok(series) => {
                 cache.warnings = series.warnings.iter().map(ToString::to_string).collect();
                 cache.days = Ok(series.days);

@@ -14,11 +14,11 @@ use std::path::Path;
 
 use offtake_core::engine::Results;
 use offtake_core::project::Project;
-use offtake_core::scheme::{Node, PeriodStep};
+use offtake_core::scheme::{DesignBasis, Node, PeriodStep};
 use offtake_io::export::{
     self, BLOCK_REQUIREMENTS_DAILY_CSV, BLOCK_REQUIREMENTS_DAILY_HEADERS, Cell, DESIGN_VALUES_CSV,
     DESIGN_VALUES_HEADERS, ExportError, NODE_DEMAND_DAILY_CSV, NODE_DEMAND_DAILY_HEADERS,
-    RESULTS_WORKBOOK, Table,
+    RESULTS_WORKBOOK, Table, decimals as dec,
 };
 
 /// 10-day table file.
@@ -59,6 +59,25 @@ fn fmt_int(v: f64) -> String {
     if v < -0.5 { format!("-{out}") } else { out }
 }
 
+/// A value to 3 significant figures, with thousands separators
+/// (5,575.2 → "5,580"; 638.8 → "639"; 1.9159 → "1.92").
+pub fn fmt_sig3(v: f64) -> String {
+    if v == 0.0 || !v.is_finite() {
+        return format!("{v}");
+    }
+    let digits_of = |x: f64| x.abs().log10().floor() as i32 + 1;
+    let unit = 10_f64.powi(digits_of(v) - 3);
+    let v = (v / unit).round() * unit;
+    // Rounding may add a digit (99.96 → 100).
+    let digits = digits_of(v);
+    if digits >= 3 {
+        fmt_int(v)
+    } else {
+        let decimals = usize::try_from(3 - digits).unwrap_or(0);
+        format!("{v:.decimals$}")
+    }
+}
+
 fn fmt_opt(v: Option<f64>, decimals: usize) -> String {
     v.map_or_else(|| "-".to_owned(), |x| format!("{x:.decimals$}"))
 }
@@ -94,9 +113,9 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
             h.design_flow_ls / 1000.0,
             h.non_exceedance * 100.0,
             match h.basis {
-                offtake_core::scheme::DesignBasis::TenDay => "10-day",
-                offtake_core::scheme::DesignBasis::Monthly => "monthly",
-                offtake_core::scheme::DesignBasis::Daily => "daily",
+                DesignBasis::TenDay => "10-day",
+                DesignBasis::Monthly => "monthly",
+                DesignBasis::Daily => "daily",
             },
             h.design_year.label()
         );
@@ -109,6 +128,7 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
             fmt_int(h.peak_daily_ls)
         );
     }
+    design_table(&mut s, r);
     let _ = writeln!(s, "Seasonal volume (mean per irrigation year):");
     for v in &r.season_volumes {
         let _ = writeln!(
@@ -136,16 +156,17 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
     if with_cap.is_empty() {
         let _ = writeln!(s, "No canal has an existing capacity.");
     } else {
-        let _ = writeln!(s, "Canals with an existing capacity:");
+        let basis = with_cap.first().map_or(DesignBasis::TenDay, |d| d.basis);
+        let _ = writeln!(
+            s,
+            "Canals with an existing capacity (shortfall on the design basis: a {} period is short when its mean flow exceeds the capacity):",
+            basis.label()
+        );
         for d in with_cap {
             let cap = d.existing_capacity_ls.unwrap_or(0.0);
-            let (days, vol) = d
-                .shortfall
-                .as_ref()
-                .map_or((0, 0.0), |f| (f.days.len(), f.volume_not_delivered_m3));
             let _ = writeln!(
                 s,
-                "  {}: capacity {} l/s, required {} l/s ({}); daily demand above capacity on {} days, {} m3 not delivered over the record",
+                "  {}: capacity {} l/s, required {} l/s ({})",
                 d.name,
                 fmt_int(cap),
                 fmt_int(d.required_capacity_ls),
@@ -154,9 +175,32 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
                 } else {
                     "sufficient"
                 },
-                days,
-                fmt_int(vol)
             );
+            if let Some(f) = &d.shortfall {
+                let years: Vec<String> = f.years_short.iter().map(|y| y.label()).collect();
+                let _ = writeln!(
+                    s,
+                    "    {} mean flow above capacity in {} {}, in {} of {} complete years{}; {} m3 not delivered over the record",
+                    f.basis.label(),
+                    f.basis_periods.len(),
+                    f.basis.periods_noun(),
+                    f.years_short.len(),
+                    d.years.len(),
+                    if years.is_empty() || years.len() > 8 {
+                        String::new()
+                    } else {
+                        format!(" ({})", years.join(", "))
+                    },
+                    fmt_int(f.basis_volume_not_delivered_m3)
+                );
+                if f.basis != DesignBasis::Daily {
+                    let _ = writeln!(
+                        s,
+                        "    daily peaks (for information, not the design basis): daily demand above capacity on {} days",
+                        f.days.len()
+                    );
+                }
+            }
         }
     }
     if let Some(sp) = &r.supply {
@@ -186,11 +230,11 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
         }
     }
     let _ = writeln!(s, "Warnings: {}", r.warnings.len());
-    for w in r.warnings.iter().take(5) {
+    for w in r.warnings.iter().take(15) {
         let _ = writeln!(s, "  - {w}");
     }
-    if r.warnings.len() > 5 {
-        let _ = writeln!(s, "  ... {} more", r.warnings.len() - 5);
+    if r.warnings.len() > 15 {
+        let _ = writeln!(s, "  ... {} more", r.warnings.len() - 15);
     }
     let _ = writeln!(
         s,
@@ -198,6 +242,70 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
         r.timing.total.as_secs_f64()
     );
     s
+}
+
+/// The per-canal design flow table of the summary: every canal and the
+/// headworks, design flow and capacities to 3 significant figures.
+fn design_table(s: &mut String, r: &Results) {
+    let Some(first) = r.design.first() else {
+        return;
+    };
+    let _ = writeln!(
+        s,
+        "Design flows per canal ({:.0} % non-exceedance of the yearly peak {} mean flow over {} complete irrigation years; flows to 3 significant figures):",
+        first.non_exceedance * 100.0,
+        first.basis.label(),
+        first.years.len()
+    );
+    let head = [
+        "node",
+        "area ha",
+        "design l/s",
+        "duty l/s/ha",
+        "required l/s",
+        "existing l/s",
+        "design year",
+    ];
+    let rows: Vec<[String; 7]> = r
+        .design
+        .iter()
+        .map(|d| {
+            [
+                d.name.clone(),
+                fmt_int(d.area_ha),
+                fmt_sig3(d.design_flow_ls),
+                fmt_opt(d.duty_ls_ha, 2),
+                fmt_sig3(d.required_capacity_ls),
+                d.existing_capacity_ls.map_or_else(|| "-".into(), fmt_int),
+                d.design_year.label(),
+            ]
+        })
+        .collect();
+    let widths: Vec<usize> = (0..head.len())
+        .map(|i| {
+            rows.iter()
+                .map(|row| row[i].chars().count())
+                .chain(std::iter::once(head[i].chars().count()))
+                .max()
+                .unwrap_or(0)
+        })
+        .collect();
+    let line = |cells: &[&str]| {
+        let mut out = String::from(" ");
+        for (i, (c, w)) in cells.iter().zip(&widths).enumerate() {
+            if i == 0 {
+                let _ = write!(out, " {c:<w$}");
+            } else {
+                let _ = write!(out, "  {c:>w$}");
+            }
+        }
+        out
+    };
+    let _ = writeln!(s, "{}", line(&head));
+    for row in &rows {
+        let cells: Vec<&str> = row.iter().map(String::as_str).collect();
+        let _ = writeln!(s, "{}", line(&cells));
+    }
 }
 
 fn node_order(r: &Results) -> Vec<Node> {
@@ -218,14 +326,14 @@ pub fn tables(r: &Results, project: &Project) -> Vec<Table> {
     for d in &r.design {
         design.push_row(vec![
             Cell::Text(d.name.clone()),
-            Cell::Number(d.area_ha),
-            Cell::Number(d.design_flow_ls),
-            Cell::Number(d.required_capacity_ls),
-            Cell::from(d.existing_capacity_ls),
-            Cell::Number(d.peak_daily_ls),
-            Cell::Number(d.peak_10day_ls),
-            Cell::from(d.duty_ls_ha),
-            Cell::Number(d.seasonal_volume_m3),
+            Cell::rounded(d.area_ha, dec::AREA_HA),
+            Cell::rounded(d.design_flow_ls, dec::FLOW_LS),
+            Cell::rounded(d.required_capacity_ls, dec::FLOW_LS),
+            Cell::rounded_opt(d.existing_capacity_ls, dec::FLOW_LS),
+            Cell::rounded(d.peak_daily_ls, dec::FLOW_LS),
+            Cell::rounded(d.peak_10day_ls, dec::FLOW_LS),
+            Cell::rounded_opt(d.duty_ls_ha, dec::DUTY_LS_HA),
+            Cell::rounded(d.seasonal_volume_m3, dec::VOLUME_M3),
             Cell::Text(d.design_year.label()),
         ]);
     }
@@ -238,7 +346,7 @@ pub fn tables(r: &Results, project: &Project) -> Vec<Table> {
             node_daily.push_row(vec![
                 Cell::Date(date),
                 Cell::Text(net.node_name(n).to_owned()),
-                Cell::Number(flows[k][day]),
+                Cell::rounded(flows[k][day], dec::FLOW_LS),
             ]);
         }
     }
@@ -257,10 +365,10 @@ pub fn tables(r: &Results, project: &Project) -> Vec<Table> {
             blocks.push_row(vec![
                 Cell::Date(date),
                 Cell::Text(blk.name.clone()),
-                Cell::Number(nir_m3 / per_mm),
-                Cell::Number(gir[b][day] / per_mm),
-                Cell::Number(nir_m3),
-                Cell::Number(gir[b][day]),
+                Cell::rounded(nir_m3 / per_mm, dec::DEPTH_MM),
+                Cell::rounded(gir[b][day] / per_mm, dec::DEPTH_MM),
+                Cell::rounded(nir_m3, dec::VOLUME_M3),
+                Cell::rounded(gir[b][day], dec::VOLUME_M3),
             ]);
         }
     }
@@ -276,9 +384,9 @@ pub fn tables(r: &Results, project: &Project) -> Vec<Table> {
                     Cell::Text(net.node_name(n).to_owned()),
                     Cell::Date(p.start),
                     Cell::Integer(i64::from(p.period_days)),
-                    Cell::Number(p.mean_flow_ls),
-                    Cell::Number(p.mean_flow_ls * 86.4 * f64::from(p.covered_days)),
-                    Cell::Number(p.depth_mm),
+                    Cell::rounded(p.mean_flow_ls, dec::FLOW_LS),
+                    Cell::rounded(p.volume_m3, dec::VOLUME_M3),
+                    Cell::rounded(p.depth_mm, dec::DEPTH_MM),
                 ]);
             }
         }
@@ -293,8 +401,8 @@ pub fn tables(r: &Results, project: &Project) -> Vec<Table> {
                 Cell::Text(e.unit_name.clone()),
                 Cell::Text(e.start.format("%Y-%m-%d %H:%M").to_string()),
                 Cell::Text(e.end.format("%Y-%m-%d %H:%M").to_string()),
-                Cell::Number(e.flow_ls),
-                Cell::Number(e.volume_m3),
+                Cell::rounded(e.flow_ls, dec::FLOW_LS),
+                Cell::rounded(e.volume_m3, dec::VOLUME_M3),
             ]);
         }
         out.push(t);
