@@ -416,7 +416,8 @@ fn design_table(
                             commands.push(Command::Select(me));
                         }
                         ui.label(format_sig(d.area_ha, 3));
-                        ui.label(RichText::new(format_sig(d.design_flow_ls, 3)).strong());
+                        ui.label(RichText::new(format_sig(d.design_flow_ls, 3)).strong())
+                            .on_hover_text(explanation(project, r, d));
                         ui.label(format_sig(d.required_capacity_ls, 3));
                         match d.existing_capacity_ls {
                             Some(cap) if cap < d.required_capacity_ls => {
