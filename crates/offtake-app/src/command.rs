@@ -151,4 +151,9 @@ pub enum Command {
     DeleteSelected,
     /// Run a command after the user agreed to discard unsaved changes.
     DiscardAndRun(Box<Command>),
+    /// Show the season starting in this year on the Water balance and Crop
+    /// curves tabs.
+    SetSeasonYear(i32),
+    /// Show the results of a scenario (`None` = the base plan) in every tab.
+    ShowScenario(Option<String>),
 }
