@@ -100,6 +100,8 @@ pub struct OfftakeApp {
     requested: (Option<SeasonRequest>, bool),
     /// A running export of the result tables.
     export_job: Option<Receiver<ExportOutcome>>,
+    /// The scenario editor window (see [`crate::scenario_editor`]).
+    pub scenario_editor: crate::scenario_editor::ScenarioEditor,
 }
 
 /// The folder an export wrote to and the files written, or why it failed.
@@ -171,6 +173,7 @@ impl OfftakeApp {
             import: None,
             requested: (None, false),
             export_job: None,
+            scenario_editor: crate::scenario_editor::ScenarioEditor::default(),
         }
     }
 
@@ -434,6 +437,13 @@ impl OfftakeApp {
             };
             self.tabs.ui(ui, self.state.tab, &view, &mut commands);
         });
+        crate::scenario_editor::window(
+            ui.ctx(),
+            &mut self.scenario_editor,
+            project,
+            &self.libraries,
+            &mut commands,
+        );
         self.help_windows(ui.ctx());
         self.discard_guard(ui.ctx());
         self.recovery_window(ui.ctx());
@@ -565,6 +575,7 @@ impl OfftakeApp {
                 self.state.scenario = name;
                 self.request_recompute();
             }
+            Command::EditScenario(name) => self.scenario_editor.open(name),
         }
     }
 

@@ -156,4 +156,6 @@ pub enum Command {
     SetSeasonYear(i32),
     /// Show the results of a scenario (`None` = the base plan) in every tab.
     ShowScenario(Option<String>),
+    /// Open the scenario editor on this scenario (`None` closes it).
+    EditScenario(Option<String>),
 }

@@ -90,6 +90,16 @@ pub enum DocEdit {
     Insert(Box<Subtree>),
     /// Remove an item with everything below it.
     Remove(ItemRef),
+    // --- scenario editor (crate::scenario_editor) ---
+    /// Replace the scenario named `name` with a new record (its overrides,
+    /// weather change, description; a new name renames it). The inverse is
+    /// the same replacement with the old record: the base plan is untouched.
+    SetScenario {
+        /// Name of the scenario to replace.
+        name: String,
+        /// The new record.
+        scenario: Box<offtake_core::project::Scenario>,
+    },
 }
 
 /// Why an edit did not fit the document.
@@ -277,6 +287,7 @@ impl Edit<Project> for DocEdit {
             }
             DocEdit::Insert(sub) => DocEdit::Remove(insert(doc, *sub)?),
             DocEdit::Remove(item) => DocEdit::Insert(Box::new(remove(doc, &item)?)),
+            DocEdit::SetScenario { name, scenario } => set_scenario(doc, &name, *scenario)?,
         })
     }
 
@@ -300,8 +311,31 @@ impl Edit<Project> for DocEdit {
                 ItemRef::Block(id) => format!("delete block {id}"),
                 ItemRef::Planting(id) => format!("delete planting {id}"),
             },
+            DocEdit::SetScenario { name, .. } => format!("edit scenario {name}"),
         }
     }
+}
+
+/// Replaces the scenario `name` with `new`; returns the inverse edit.
+fn set_scenario(
+    doc: &mut Project,
+    name: &str,
+    new: offtake_core::project::Scenario,
+) -> Result<DocEdit, EditError> {
+    if new.name != name && doc.scenario(&new.name).is_some() {
+        return Err(EditError::DuplicateId(new.name));
+    }
+    let slot = doc
+        .scenarios
+        .iter_mut()
+        .find(|s| s.name == name)
+        .ok_or_else(|| EditError::Missing(format!("scenario {name:?}")))?;
+    let new_name = new.name.clone();
+    let old = std::mem::replace(slot, new);
+    Ok(DocEdit::SetScenario {
+        name: new_name,
+        scenario: Box::new(old),
+    })
 }
 
 /// A fresh id with `prefix` not used by any canal, block or planting.

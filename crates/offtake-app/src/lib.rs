@@ -16,6 +16,7 @@
 //!   [`compute::Computed`] out) — the plug for the computation chain.
 //! - [`export`]: the result tables and workbook, as `offtake run` writes them.
 //! - [`import`]: the weather import window (background read, preview, warnings).
+//! - [`scenario_editor`]: a scenario edited as a cropping pattern (window).
 //! - [`recovery`]: autosave to a recovery file and restore after a crash.
 //! - [`state`]: runtime state beside the document.
 //! - [`menu`], [`tree`], [`inspector`], [`fields`], [`status`], [`help`]: the panels.
@@ -58,6 +59,7 @@ pub mod menu;
 pub mod palette;
 pub mod plot;
 pub mod recovery;
+pub mod scenario_editor;
 pub mod state;
 pub mod status;
 pub mod tabs;

@@ -125,6 +125,15 @@ impl CompareTab {
             if chosen.as_deref() != view.scenario {
                 commands.push(Command::ShowScenario(chosen));
             }
+            // Scenario editor: edit the scenario shown.
+            if ui
+                .add_enabled(view.scenario.is_some(), egui::Button::new("Edit scenario…"))
+                .on_hover_text("Change its crops, areas, planting windows, crop shifts and weather")
+                .on_disabled_hover_text("Choose a scenario above to edit it (the base plan is edited in the scheme tree)")
+                .clicked()
+            {
+                commands.push(Command::EditScenario(view.scenario.map(str::to_owned)));
+            }
             if ui
                 .button("Create scenario from the current plan")
                 .on_hover_text(
@@ -133,9 +142,12 @@ impl CompareTab {
                 .clicked()
             {
                 let mut list = project.scenarios.clone();
+                let name = fresh_name(project);
+                // Scenario editor: the new scenario opens for editing.
+                commands.push(Command::EditScenario(Some(name.clone())));
                 list.push(Scenario {
-                    name: fresh_name(project),
-                    description: "The base plan as it stands (no overrides).".to_owned(),
+                    name,
+                    description: "Made from the base plan; its changes are listed in the scenario editor.".to_owned(),
                     overrides: Vec::new(),
                     weather: offtake_core::project::WeatherPerturbation::default(),
                 });
@@ -167,9 +179,15 @@ impl CompareTab {
             }
         };
         for s in &project.scenarios {
-            if !s.description.is_empty() {
-                ui.label(RichText::new(format!("{}: {}", s.name, s.description)).weak());
-            }
+            // Scenario editor: one button per scenario.
+            ui.horizontal(|ui| {
+                if ui.button(format!("Edit {}", s.name)).clicked() {
+                    commands.push(Command::EditScenario(Some(s.name.clone())));
+                }
+                if !s.description.is_empty() {
+                    ui.label(RichText::new(format!("{}: {}", s.name, s.description)).weak());
+                }
+            });
         }
         let h = ui.available_height();
         ui.allocate_ui(

@@ -1,0 +1,1235 @@
+//! The scenario editor: a scenario edited as a cropping pattern, not as raw
+//! overrides.
+//!
+//! The window lists the plan as the scenario makes it (the base plantings
+//! with the scenario's overrides applied) and lets the engineer change a
+//! planting's crop, area, planting window and strategy, remove a planting,
+//! add one to a block, move a share of one crop to another, and change the
+//! weather (temperature shift, rain, radiation and wind). Each change is
+//! stored in the scenario as the matching [`Override`] — an earlier override
+//! of the same planting field is replaced, never stacked — through one
+//! undoable [`DocEdit::SetScenario`]. The base plan is never changed.
+//!
+//! The pure part (what a change does to a [`Scenario`]) is in free
+//! functions ([`plan`], [`with_planting_override`], [`with_planting_removed`],
+//! [`with_shift`], [`without_override`], [`sentence`]) so it is tested
+//! without a window.
+
+use egui::{Id, RichText, Ui};
+use offtake_core::project::{
+    MonthDay, Override, Planting, PlantingArea, Project, Scenario, ScenarioError, Strategy,
+    WeatherPerturbation,
+};
+use offtake_io::library::Libraries;
+
+use crate::command::Command;
+use crate::edit::DocEdit;
+use crate::fields::{Bounds, date_free_month_day, format_number, number_field, parse_number};
+
+/// Allowed ranges of the scenario's weather change, in the units shown.
+/// They bound a sensitivity study, not the climate: rain −100 % is no rain.
+pub mod bounds {
+    use crate::fields::Bounds;
+
+    /// Shift of every air temperature.
+    pub const TEMPERATURE: Bounds = Bounds::new("Temperature shift", "°C", -10.0, 10.0);
+    /// Change of daily rain.
+    pub const RAIN: Bounds = Bounds::new("Rain change", "%", -100.0, 200.0);
+    /// Change of solar radiation.
+    pub const RADIATION: Bounds = Bounds::new("Radiation change", "%", -50.0, 50.0);
+    /// Change of wind speed.
+    pub const WIND: Bounds = Bounds::new("Wind change", "%", -100.0, 200.0);
+    /// Area of a planting in hectares.
+    pub const AREA_HA: Bounds = Bounds::new("Area", "ha", 0.0, 1.0e6);
+    /// Area of a planting as a share of its block.
+    pub const AREA_PCT: Bounds = Bounds::new("Share of block", "%", 0.0, 100.0);
+    /// Spread of the planting window.
+    pub const SPREAD: Bounds = Bounds::new("Planting spread", "days", 0.0, 365.0);
+}
+
+/// The plan as a scenario makes it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ScenarioPlan {
+    /// The base project with every override that applies applied in order.
+    pub project: Project,
+    /// Overrides that could not be applied: (position in the list, reason).
+    /// The engine refuses the whole scenario while any is left.
+    pub problems: Vec<(usize, String)>,
+}
+
+/// A reason for a scenario error, without the scenario name and index (the
+/// editor shows it beside the override it belongs to).
+fn reason(e: &ScenarioError) -> String {
+    match e {
+        ScenarioError::UnknownItem { kind, id, .. } => {
+            format!("no {kind} with id {id:?} in the plan")
+        }
+        ScenarioError::DuplicatePlanting { id, .. } => {
+            format!("a planting with id {id:?} already exists")
+        }
+        ScenarioError::ShareOutOfRange { value, .. } => {
+            format!("share {value} % is outside (0, 100]")
+        }
+        ScenarioError::CropNotGrown { crop, .. } => format!("no planting grows {crop:?}"),
+        other => other.to_string(),
+    }
+}
+
+/// One override applied to `p` (the core applies scenarios as a whole; a
+/// one-override scenario gives the step and its own error).
+fn apply_one(p: &Project, ov: &Override) -> Result<Project, String> {
+    let mut tmp = p.clone();
+    tmp.scenarios = vec![Scenario {
+        name: "step".to_owned(),
+        description: String::new(),
+        overrides: vec![ov.clone()],
+        weather: WeatherPerturbation::default(),
+    }];
+    tmp.apply_scenario("step")
+        .map(|mut q| {
+            q.scenarios.clear();
+            q
+        })
+        .map_err(|e| reason(&e))
+}
+
+/// The base plan with the scenario's overrides applied in order. An
+/// override that does not apply is skipped and reported, so the editor can
+/// still show the rest of the plan.
+pub fn plan(base: &Project, scenario: &Scenario) -> ScenarioPlan {
+    let mut project = base.clone();
+    project.scenarios.clear();
+    let mut problems = Vec::new();
+    for (i, ov) in scenario.overrides.iter().enumerate() {
+        match apply_one(&project, ov) {
+            Ok(next) => project = next,
+            Err(e) => problems.push((i, e)),
+        }
+    }
+    ScenarioPlan { project, problems }
+}
+
+/// The planting a planting-field override targets.
+fn planting_target(ov: &Override) -> Option<&str> {
+    match ov {
+        Override::SetPlantingCrop { planting, .. }
+        | Override::SetPlantingArea { planting, .. }
+        | Override::SetPlantingDate { planting, .. }
+        | Override::SetPlantingStrategy { planting, .. }
+        | Override::RemovePlanting { planting } => Some(planting),
+        _ => None,
+    }
+}
+
+/// Whether two overrides set the same thing (so the newer replaces the older).
+fn same_target(a: &Override, b: &Override) -> bool {
+    use Override as O;
+    match (a, b) {
+        (O::SetPlantingCrop { planting: x, .. }, O::SetPlantingCrop { planting: y, .. })
+        | (O::SetPlantingArea { planting: x, .. }, O::SetPlantingArea { planting: y, .. })
+        | (O::SetPlantingDate { planting: x, .. }, O::SetPlantingDate { planting: y, .. })
+        | (
+            O::SetPlantingStrategy { planting: x, .. },
+            O::SetPlantingStrategy { planting: y, .. },
+        )
+        | (O::RemovePlanting { planting: x }, O::RemovePlanting { planting: y })
+        | (O::SetBlockEfficiency { block: x, .. }, O::SetBlockEfficiency { block: y, .. })
+        | (O::SetCanalEfficiency { canal: x, .. }, O::SetCanalEfficiency { canal: y, .. })
+        | (O::SetCanalCapacity { canal: x, .. }, O::SetCanalCapacity { canal: y, .. })
+        | (O::SetCanalHours { canal: x, .. }, O::SetCanalHours { canal: y, .. }) => x == y,
+        (
+            O::ShiftCropShare {
+                from_crop: f1,
+                to_crop: t1,
+                ..
+            },
+            O::ShiftCropShare {
+                from_crop: f2,
+                to_crop: t2,
+                ..
+            },
+        ) => f1 == f2 && t1 == t2,
+        (O::AddPlanting(x), O::AddPlanting(y)) => x.id == y.id,
+        _ => false,
+    }
+}
+
+/// Whether `ov` would change nothing in `p` (the planting already has that value).
+fn is_noop(p: &Project, ov: &Override) -> bool {
+    let Some(pl) = planting_target(ov).and_then(|id| p.planting(id)) else {
+        return false;
+    };
+    match ov {
+        Override::SetPlantingCrop { crop, .. } => pl.crop == *crop,
+        Override::SetPlantingArea { area, .. } => pl.area == *area,
+        Override::SetPlantingDate {
+            first_planting,
+            spread_days,
+            ..
+        } => {
+            pl.first_planting == *first_planting && spread_days.is_none_or(|s| s == pl.spread_days)
+        }
+        Override::SetPlantingStrategy { strategy, .. } => pl.strategy == *strategy,
+        _ => false,
+    }
+}
+
+/// Applies a planting-field override to a planting record.
+fn patch_planting(pl: &mut Planting, ov: &Override) {
+    match ov {
+        Override::SetPlantingCrop { crop, .. } => pl.crop.clone_from(crop),
+        Override::SetPlantingArea { area, .. } => pl.area = *area,
+        Override::SetPlantingDate {
+            first_planting,
+            spread_days,
+            ..
+        } => {
+            pl.first_planting = *first_planting;
+            if let Some(s) = spread_days {
+                pl.spread_days = *s;
+            }
+        }
+        Override::SetPlantingStrategy { strategy, .. } => pl.strategy = *strategy,
+        _ => {}
+    }
+}
+
+/// The scenario with a planting-field override (crop, area, date or
+/// strategy) set.
+///
+/// - A planting the scenario itself adds is changed inside its
+///   `AddPlanting` record.
+/// - Otherwise an earlier override of the same field of the same planting
+///   is replaced: in place for crop, date and strategy (so a later crop
+///   shift still sees the crop chosen here); an area override moves to the
+///   end, so the area typed is the area the plan shows even after a shift.
+/// - An override that would leave the planting as the plan without it has
+///   it is dropped rather than stored.
+pub fn with_planting_override(base: &Project, scenario: &Scenario, ov: Override) -> Scenario {
+    let mut out = scenario.clone();
+    let Some(target) = planting_target(&ov).map(str::to_owned) else {
+        return out;
+    };
+    if let Some(Override::AddPlanting(pl)) = out
+        .overrides
+        .iter_mut()
+        .find(|o| matches!(o, Override::AddPlanting(p) if p.id == target))
+    {
+        patch_planting(pl, &ov);
+        return out;
+    }
+    let position = out.overrides.iter().position(|o| same_target(o, &ov));
+    let mut without = out.clone();
+    without.overrides.retain(|o| !same_target(o, &ov));
+    if is_noop(&plan(base, &without).project, &ov) {
+        return without;
+    }
+    match (position, &ov) {
+        (Some(i), ov) if !matches!(ov, Override::SetPlantingArea { .. }) => {
+            out.overrides[i] = ov.clone()
+        }
+        _ => {
+            out = without;
+            out.overrides.push(ov);
+        }
+    }
+    out
+}
+
+/// The scenario without the planting `id`: an added planting loses its
+/// `AddPlanting` record; any other gets a `RemovePlanting`. Overrides of
+/// that planting's fields go too (they would change nothing).
+pub fn with_planting_removed(scenario: &Scenario, id: &str) -> Scenario {
+    let mut out = scenario.clone();
+    let added = out
+        .overrides
+        .iter()
+        .any(|o| matches!(o, Override::AddPlanting(p) if p.id == id));
+    out.overrides.retain(|o| {
+        planting_target(o) != Some(id) && !matches!(o, Override::AddPlanting(p) if p.id == id)
+    });
+    if !added {
+        out.overrides.push(Override::RemovePlanting {
+            planting: id.to_owned(),
+        });
+    }
+    out
+}
+
+/// The scenario with a planting added (its id must be new in the plan).
+pub fn with_planting_added(scenario: &Scenario, planting: Planting) -> Scenario {
+    let mut out = scenario.clone();
+    out.overrides.push(Override::AddPlanting(planting));
+    out
+}
+
+/// The scenario with "move `share_pct` % of `from` to `to`": replaces an
+/// earlier shift between the same two crops, else is added at the end.
+pub fn with_shift(scenario: &Scenario, from: &str, to: &str, share_pct: f64) -> Scenario {
+    let ov = Override::ShiftCropShare {
+        from_crop: from.to_owned(),
+        to_crop: to.to_owned(),
+        share_pct,
+        strategy: None,
+        season_length_days: None,
+    };
+    let mut out = scenario.clone();
+    match out.overrides.iter().position(|o| same_target(o, &ov)) {
+        Some(i) => out.overrides[i] = ov,
+        None => out.overrides.push(ov),
+    }
+    out
+}
+
+/// The scenario without its override at `index`.
+pub fn without_override(scenario: &Scenario, index: usize) -> Scenario {
+    let mut out = scenario.clone();
+    if index < out.overrides.len() {
+        out.overrides.remove(index);
+    }
+    out
+}
+
+/// Checks the share of a crop shift as typed (percent, in (0, 100]).
+///
+/// # Errors
+/// The reason, with the allowed range.
+pub fn check_share(text: &str) -> Result<f64, String> {
+    let v = parse_number(text)?;
+    if v > 0.0 && v <= 100.0 {
+        Ok(v)
+    } else {
+        Err("Share moved must be more than 0 % and at most 100 %".to_owned())
+    }
+}
+
+fn month_abbrev(m: u32) -> &'static str {
+    const NAMES: [&str; 12] = [
+        "Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec",
+    ];
+    NAMES
+        .get(m.wrapping_sub(1) as usize)
+        .copied()
+        .unwrap_or("?")
+}
+
+/// A day of the year as "15 Jun".
+pub fn month_day_text(md: MonthDay) -> String {
+    format!("{} {}", md.day, month_abbrev(md.month))
+}
+
+/// An area as the user gave it ("40 % of the block", "12.5 ha").
+pub fn area_text(a: PlantingArea) -> String {
+    match a {
+        PlantingArea::Hectares(ha) => format!("{} ha", format_number(ha, 2)),
+        PlantingArea::PercentOfBlock(p) => format!("{} % of its block", format_number(p, 2)),
+    }
+}
+
+/// A strategy in words with its parameters and units.
+pub fn strategy_text(s: &Strategy) -> String {
+    match s {
+        Strategy::Refill { trigger_pct_of_raw } => format!(
+            "refill when depletion reaches {} % of RAW",
+            format_number(*trigger_pct_of_raw, 1)
+        ),
+        Strategy::Interval { days } => format!("every {days} days"),
+        Strategy::Depth { net_mm } => format!("fixed net depth {} mm", format_number(*net_mm, 1)),
+        Strategy::Deficit {
+            trigger_pct_of_taw,
+            refill_pct_of_depletion,
+        } => format!(
+            "deficit: at {} % of TAW, refill {} % of depletion",
+            format_number(*trigger_pct_of_taw, 1),
+            format_number(*refill_pct_of_depletion, 1)
+        ),
+        Strategy::Rainfed => "rainfed (no irrigation)".to_owned(),
+    }
+}
+
+fn crop_name<'a>(libs: &'a Libraries, id: &'a str) -> &'a str {
+    libs.crop(id).map_or(id, |c| c.name.as_str())
+}
+
+fn pct(fraction: f64) -> String {
+    format!("{} %", format_number(fraction * 100.0, 1))
+}
+
+/// One override as a readable sentence. `base` is the base plan (for what a
+/// planting grew before).
+pub fn sentence(ov: &Override, base: &Project, libs: &Libraries) -> String {
+    let was = |id: &str| {
+        base.planting(id)
+            .map(|p| format!(" (base plan: {})", crop_name(libs, &p.crop)))
+            .unwrap_or_default()
+    };
+    match ov {
+        Override::SetPlantingCrop { planting, crop } => format!(
+            "Planting {planting} grows {}{}.",
+            crop_name(libs, crop),
+            was(planting)
+        ),
+        Override::SetPlantingArea { planting, area } => {
+            format!("Planting {planting} covers {}.", area_text(*area))
+        }
+        Override::SetPlantingDate {
+            planting,
+            first_planting,
+            spread_days,
+        } => format!(
+            "Planting {planting} is first planted on {}{}.",
+            month_day_text(*first_planting),
+            spread_days.map_or_else(String::new, |d| format!(", spread over {d} days"))
+        ),
+        Override::SetPlantingStrategy { planting, strategy } => format!(
+            "Planting {planting} is irrigated: {}.",
+            strategy_text(strategy)
+        ),
+        Override::AddPlanting(p) => format!(
+            "Adds planting {}: {} on block {}, {}, first planted on {}.",
+            p.id,
+            crop_name(libs, &p.crop),
+            p.block,
+            area_text(p.area),
+            month_day_text(p.first_planting)
+        ),
+        Override::RemovePlanting { planting } => {
+            format!("Removes planting {planting}{}.", was(planting))
+        }
+        Override::ShiftCropShare {
+            from_crop,
+            to_crop,
+            share_pct,
+            ..
+        } => format!(
+            "Moves {} % of every {} planting to {}.",
+            format_number(*share_pct, 2),
+            crop_name(libs, from_crop),
+            crop_name(libs, to_crop)
+        ),
+        Override::SetBlockEfficiency {
+            block,
+            method,
+            field_canal_efficiency,
+        } => {
+            let mut parts = Vec::new();
+            if let Some(m) = method {
+                parts.push(format!(
+                    "method {} with application efficiency {}",
+                    m.name,
+                    pct(m.application_efficiency)
+                ));
+            }
+            if let Some(eb) = field_canal_efficiency {
+                parts.push(format!("field-canal efficiency {}", pct(*eb)));
+            }
+            format!("Block {block}: {}.", parts.join(", "))
+        }
+        Override::SetCanalEfficiency {
+            canal,
+            conveyance_efficiency,
+        } => format!(
+            "Canal {canal} conveys with {} efficiency.",
+            pct(*conveyance_efficiency)
+        ),
+        Override::SetCanalCapacity {
+            canal,
+            existing_capacity_m3s,
+        } => match existing_capacity_m3s {
+            Some(q) => format!(
+                "Canal {canal} has an existing capacity of {} m³/s.",
+                format_number(*q, 3)
+            ),
+            None => format!("Canal {canal} has no known existing capacity."),
+        },
+        Override::SetCanalHours {
+            canal,
+            operating_hours_per_day,
+        } => format!(
+            "Canal {canal} runs {} h/day.",
+            format_number(*operating_hours_per_day, 1)
+        ),
+        other => format!("{other:?}"),
+    }
+}
+
+/// The weather change in words ("recorded weather" when there is none).
+pub fn weather_text(w: &WeatherPerturbation) -> String {
+    if w.is_identity() {
+        return "Recorded weather (no change).".to_owned();
+    }
+    let signed = |v: f64, unit: &str| {
+        let n = format_number(v, 2);
+        if v > 0.0 {
+            format!("+{n} {unit}")
+        } else {
+            format!("{n} {unit}")
+        }
+    };
+    format!(
+        "Weather: temperature {}, rain {}, radiation {}, wind {}.",
+        signed(w.temperature_shift_c, "°C"),
+        signed(w.rain_change_pct, "%"),
+        signed(w.radiation_change_pct, "%"),
+        signed(w.wind_change_pct, "%")
+    )
+}
+
+/// How a planting of the scenario's plan differs from the base plan.
+fn status(base: &Project, plan: &Project, id: &str) -> &'static str {
+    match (base.planting(id), plan.planting(id)) {
+        (None, Some(_)) => "added",
+        (Some(b), Some(p)) if b != p => "changed",
+        (Some(_), Some(_)) => "as base",
+        _ => "",
+    }
+}
+
+/// View state of the scenario editor window.
+#[derive(Debug, Default)]
+pub struct ScenarioEditor {
+    /// The scenario being edited (`None`: the window is closed).
+    pub scenario: Option<String>,
+    /// The planting whose form is shown.
+    pub selected: Option<String>,
+    add_block: Option<String>,
+    add_crop: Option<String>,
+    shift_from: Option<String>,
+    shift_to: Option<String>,
+    shift_share: String,
+}
+
+impl ScenarioEditor {
+    /// Opens the editor on a scenario (`None` closes it).
+    pub fn open(&mut self, scenario: Option<String>) {
+        if scenario != self.scenario {
+            self.selected = None;
+        }
+        self.scenario = scenario;
+    }
+}
+
+fn fid(scenario: &str, item: &str, field: &str) -> Id {
+    Id::unique(("scenario-editor", scenario, item, field))
+}
+
+fn edit_command(name: &str, new: Scenario) -> Command {
+    Command::Edit(DocEdit::SetScenario {
+        name: name.to_owned(),
+        scenario: Box::new(new),
+    })
+}
+
+/// Draws the editor window when it is open.
+pub fn window(
+    ctx: &egui::Context,
+    editor: &mut ScenarioEditor,
+    base: Option<&Project>,
+    libs: &Libraries,
+    commands: &mut Vec<Command>,
+) {
+    let Some(name) = editor.scenario.clone() else {
+        return;
+    };
+    let Some(scenario) = base.and_then(|p| p.scenario(&name)) else {
+        // Gone (undo of its creation, another project): close.
+        editor.scenario = None;
+        return;
+    };
+    let base = base.unwrap_or_else(|| unreachable!("checked above"));
+    let mut open = true;
+    egui::Window::new(format!("Scenario editor: {name}"))
+        .id(Id::unique("scenario-editor-window"))
+        .open(&mut open)
+        .default_width(860.0)
+        .default_height(640.0)
+        .vscroll(true)
+        .show(ctx, |ui| {
+            editor_ui(ui, editor, base, scenario, libs, commands);
+        });
+    if !open {
+        editor.scenario = None;
+    }
+}
+
+fn editor_ui(
+    ui: &mut Ui,
+    editor: &mut ScenarioEditor,
+    base: &Project,
+    scenario: &Scenario,
+    libs: &Libraries,
+    commands: &mut Vec<Command>,
+) {
+    let name = scenario.name.as_str();
+    let made = plan(base, scenario);
+    ui.horizontal(|ui| {
+        ui.label(
+            RichText::new(
+                "Changes here are stored in this scenario only; the base plan stays as it is.",
+            )
+            .weak(),
+        );
+        if ui.button("Show this scenario in every tab").clicked() {
+            commands.push(Command::ShowScenario(Some(name.to_owned())));
+        }
+    });
+    if !scenario.description.is_empty() {
+        ui.label(&scenario.description);
+    }
+    if !made.problems.is_empty() {
+        ui.label(
+            RichText::new(
+                "This scenario cannot be computed until the changes marked below are fixed or deleted.",
+            )
+            .color(ui.visuals().error_fg_color),
+        );
+    }
+    ui.separator();
+    egui::CollapsingHeader::new("Cropping plan in this scenario")
+        .default_open(true)
+        .show(ui, |ui| plan_table(ui, editor, base, &made.project, libs));
+    if let Some(id) = editor.selected.clone() {
+        match made.project.planting(&id) {
+            Some(pl) => {
+                ui.separator();
+                planting_form(
+                    ui,
+                    base,
+                    scenario,
+                    &made.project,
+                    pl,
+                    libs,
+                    commands,
+                    editor,
+                );
+            }
+            None => editor.selected = None,
+        }
+    }
+    ui.separator();
+    add_planting_ui(ui, editor, scenario, &made.project, libs, commands);
+    ui.separator();
+    shift_ui(ui, editor, scenario, &made.project, libs, commands);
+    ui.separator();
+    weather_ui(ui, scenario, commands);
+    ui.separator();
+    overrides_ui(ui, base, scenario, &made.problems, libs, commands);
+}
+
+fn plan_table(
+    ui: &mut Ui,
+    editor: &mut ScenarioEditor,
+    base: &Project,
+    plan: &Project,
+    libs: &Libraries,
+) {
+    egui::ScrollArea::vertical()
+        .id_salt("scenario-plan")
+        .max_height(260.0)
+        .show(ui, |ui| {
+            egui::Grid::new("scenario-plan-grid")
+                .striped(true)
+                .show(ui, |ui| {
+                    for h in [
+                        "Planting",
+                        "Block",
+                        "Crop",
+                        "Area (ha)",
+                        "Area as given",
+                        "First planting",
+                        "Spread (days)",
+                        "Strategy",
+                        "Compared with base",
+                    ] {
+                        ui.label(RichText::new(h).strong());
+                    }
+                    ui.end_row();
+                    for block in &plan.blocks {
+                        for pl in plan.plantings.iter().filter(|p| p.block == block.id) {
+                            let selected = editor.selected.as_deref() == Some(pl.id.as_str());
+                            if ui
+                                .selectable_label(selected, &pl.id)
+                                .on_hover_text("Edit this planting in the scenario")
+                                .clicked()
+                            {
+                                editor.selected = Some(pl.id.clone());
+                            }
+                            ui.label(&block.name);
+                            ui.label(crop_name(libs, &pl.crop));
+                            ui.label(format_number(pl.area.hectares(block.area_ha), 1));
+                            ui.label(area_text(pl.area));
+                            ui.label(month_day_text(pl.first_planting));
+                            ui.label(pl.spread_days.to_string());
+                            ui.label(strategy_text(&pl.strategy));
+                            ui.label(status(base, plan, &pl.id));
+                            ui.end_row();
+                        }
+                    }
+                });
+        });
+    let removed: Vec<&str> = base
+        .plantings
+        .iter()
+        .filter(|p| plan.planting(&p.id).is_none())
+        .map(|p| p.id.as_str())
+        .collect();
+    if !removed.is_empty() {
+        ui.label(format!(
+            "Removed in this scenario: {} (delete the override below to restore).",
+            removed.join(", ")
+        ));
+    }
+    let total: f64 = plan
+        .plantings
+        .iter()
+        .map(|p| {
+            p.area
+                .hectares(plan.block(&p.block).map_or(0.0, |b| b.area_ha))
+        })
+        .sum();
+    let base_total: f64 = base
+        .plantings
+        .iter()
+        .map(|p| {
+            p.area
+                .hectares(base.block(&p.block).map_or(0.0, |b| b.area_ha))
+        })
+        .sum();
+    ui.label(format!(
+        "Planted area over the year: {} ha (base plan {} ha). Select a planting to change it.",
+        format_number(total, 1),
+        format_number(base_total, 1)
+    ));
+}
+
+fn crop_picker(ui: &mut Ui, label: &str, current: &mut String, libs: &Libraries) {
+    let shown = if current.is_empty() {
+        "(choose a crop)".to_owned()
+    } else {
+        crop_name(libs, current).to_owned()
+    };
+    egui::ComboBox::from_label(label)
+        .selected_text(shown)
+        .show_ui(ui, |ui| {
+            for c in &libs.crops {
+                ui.selectable_value(current, c.id.clone(), &c.name);
+            }
+        });
+}
+
+#[expect(
+    clippy::too_many_arguments,
+    reason = "the form reads the base, the scenario, its plan and the libraries"
+)]
+fn planting_form(
+    ui: &mut Ui,
+    base: &Project,
+    scenario: &Scenario,
+    plan: &Project,
+    pl: &Planting,
+    libs: &Libraries,
+    commands: &mut Vec<Command>,
+    editor: &mut ScenarioEditor,
+) {
+    let name = scenario.name.as_str();
+    let block = plan.block(&pl.block);
+    ui.label(
+        RichText::new(format!(
+            "Planting {} on {} ({})",
+            pl.id,
+            block.map_or("(missing block)", |b| b.name.as_str()),
+            status(base, plan, &pl.id)
+        ))
+        .strong(),
+    );
+    let mut push = |ov: Override| {
+        let new = with_planting_override(base, scenario, ov);
+        if new != *scenario {
+            commands.push(edit_command(name, new));
+        }
+    };
+    let mut crop = pl.crop.clone();
+    crop_picker(ui, "Crop in scenario", &mut crop, libs);
+    if crop != pl.crop {
+        push(Override::SetPlantingCrop {
+            planting: pl.id.clone(),
+            crop,
+        });
+    }
+    let block_ha = block.map_or(0.0, |b| b.area_ha);
+    let mut in_percent = matches!(pl.area, PlantingArea::PercentOfBlock(_));
+    ui.horizontal(|ui| {
+        ui.label("Area given in");
+        let before = in_percent;
+        ui.radio_value(&mut in_percent, false, "ha");
+        ui.radio_value(&mut in_percent, true, "% of block");
+        if before != in_percent {
+            let ha = pl.area.hectares(block_ha);
+            let area = if in_percent {
+                PlantingArea::PercentOfBlock(if block_ha > 0.0 {
+                    100.0 * ha / block_ha
+                } else {
+                    100.0
+                })
+            } else {
+                PlantingArea::Hectares(ha)
+            };
+            push(Override::SetPlantingArea {
+                planting: pl.id.clone(),
+                area,
+            });
+        }
+    });
+    let (value, b) = match pl.area {
+        PlantingArea::Hectares(ha) => (ha, bounds::AREA_HA),
+        PlantingArea::PercentOfBlock(p) => (p, bounds::AREA_PCT),
+    };
+    let out = number_field(
+        ui,
+        fid(name, &pl.id, "area"),
+        "Area in scenario",
+        value,
+        &b,
+        2,
+    );
+    if let (Some(v), None) = (out.committed, &out.error) {
+        let area = match pl.area {
+            PlantingArea::Hectares(_) => PlantingArea::Hectares(v),
+            PlantingArea::PercentOfBlock(_) => PlantingArea::PercentOfBlock(v),
+        };
+        push(Override::SetPlantingArea {
+            planting: pl.id.clone(),
+            area,
+        });
+    }
+    let out = date_free_month_day(
+        ui,
+        fid(name, &pl.id, "first"),
+        "First planting in scenario",
+        (pl.first_planting.month, pl.first_planting.day),
+    );
+    if let Some((month, day)) = out.committed {
+        push(Override::SetPlantingDate {
+            planting: pl.id.clone(),
+            first_planting: MonthDay { month, day },
+            spread_days: Some(pl.spread_days),
+        });
+    }
+    let out = number_field(
+        ui,
+        fid(name, &pl.id, "spread"),
+        "Spread in scenario",
+        f64::from(pl.spread_days),
+        &bounds::SPREAD,
+        0,
+    );
+    if out.error.is_none()
+        && let Some(v) = out.committed
+    {
+        if v.fract() == 0.0 {
+            push(Override::SetPlantingDate {
+                planting: pl.id.clone(),
+                first_planting: pl.first_planting,
+                spread_days: Some(v as u32),
+            });
+        }
+    }
+    if let Some(s) = strategy_editor(ui, name, &pl.id, pl.strategy) {
+        push(Override::SetPlantingStrategy {
+            planting: pl.id.clone(),
+            strategy: s,
+        });
+    }
+    if ui
+        .button("Remove this planting from the scenario")
+        .clicked()
+    {
+        commands.push(edit_command(name, with_planting_removed(scenario, &pl.id)));
+        editor.selected = None;
+    }
+}
+
+fn strategy_name(s: &Strategy) -> &'static str {
+    match s {
+        Strategy::Refill { .. } => "Refill at a share of RAW",
+        Strategy::Interval { .. } => "Fixed interval",
+        Strategy::Depth { .. } => "Fixed depth",
+        Strategy::Deficit { .. } => "Deficit",
+        Strategy::Rainfed => "Rainfed",
+    }
+}
+
+/// The strategy picker with its parameters; returns a changed strategy.
+fn strategy_editor(
+    ui: &mut Ui,
+    scenario: &str,
+    planting: &str,
+    current: Strategy,
+) -> Option<Strategy> {
+    use crate::inspector::bounds as b;
+    let mut s = current;
+    egui::ComboBox::from_label("Strategy in scenario")
+        .selected_text(strategy_name(&s))
+        .show_ui(ui, |ui| {
+            for choice in [
+                Strategy::Refill {
+                    trigger_pct_of_raw: 100.0,
+                },
+                Strategy::Interval { days: 7 },
+                Strategy::Depth { net_mm: 50.0 },
+                Strategy::Deficit {
+                    trigger_pct_of_taw: 70.0,
+                    refill_pct_of_depletion: 100.0,
+                },
+                Strategy::Rainfed,
+            ] {
+                let same = std::mem::discriminant(&choice) == std::mem::discriminant(&s);
+                if ui.selectable_label(same, strategy_name(&choice)).clicked() && !same {
+                    s = choice;
+                }
+            }
+        });
+    let param = |ui: &mut Ui, field: &str, label: &str, v: f64, bounds: &Bounds| {
+        let out = number_field(ui, fid(scenario, planting, field), label, v, bounds, 1);
+        out.committed.filter(|_| out.error.is_none())
+    };
+    match &mut s {
+        Strategy::Refill { trigger_pct_of_raw } => {
+            if let Some(v) = param(ui, "raw", "Trigger", *trigger_pct_of_raw, &b::TRIGGER_RAW) {
+                *trigger_pct_of_raw = v;
+            }
+        }
+        Strategy::Interval { days } => {
+            if let Some(v) = param(ui, "interval", "Interval", f64::from(*days), &b::INTERVAL)
+                && v.fract() == 0.0
+            {
+                *days = v as u32;
+            }
+        }
+        Strategy::Depth { net_mm } => {
+            if let Some(v) = param(ui, "depth", "Net depth", *net_mm, &b::DEPTH) {
+                *net_mm = v;
+            }
+        }
+        Strategy::Deficit {
+            trigger_pct_of_taw,
+            refill_pct_of_depletion,
+        } => {
+            if let Some(v) = param(ui, "taw", "Trigger", *trigger_pct_of_taw, &b::TRIGGER_TAW) {
+                *trigger_pct_of_taw = v;
+            }
+            if let Some(v) = param(ui, "refill", "Refill", *refill_pct_of_depletion, &b::REFILL) {
+                *refill_pct_of_depletion = v;
+            }
+        }
+        Strategy::Rainfed => {}
+    }
+    (s != current).then_some(s)
+}
+
+fn add_planting_ui(
+    ui: &mut Ui,
+    editor: &mut ScenarioEditor,
+    scenario: &Scenario,
+    plan: &Project,
+    libs: &Libraries,
+    commands: &mut Vec<Command>,
+) {
+    ui.label(RichText::new("Add a planting to a block").strong());
+    ui.horizontal(|ui| {
+        let block_name = editor
+            .add_block
+            .as_deref()
+            .and_then(|id| plan.block(id))
+            .map_or("(choose a block)", |b| b.name.as_str());
+        let mut chosen = editor.add_block.clone();
+        egui::ComboBox::from_label("Block for the new planting")
+            .selected_text(block_name)
+            .show_ui(ui, |ui| {
+                for b in &plan.blocks {
+                    ui.selectable_value(&mut chosen, Some(b.id.clone()), &b.name);
+                }
+            });
+        editor.add_block = chosen;
+        let mut crop = editor.add_crop.clone().unwrap_or_default();
+        crop_picker(ui, "Crop of the new planting", &mut crop, libs);
+        editor.add_crop = (!crop.is_empty()).then_some(crop);
+    });
+    let ready = editor.add_block.is_some() && editor.add_crop.is_some();
+    if ui
+        .add_enabled(ready, egui::Button::new("Add planting to the scenario"))
+        .on_disabled_hover_text("Choose a block and a crop first")
+        .on_hover_text("Covers the whole block from 1 January; change its area and window above")
+        .clicked()
+        && let (Some(block), Some(crop)) = (editor.add_block.clone(), editor.add_crop.clone())
+    {
+        let mut pl = crate::edit::new_planting(plan, &block);
+        pl.crop = crop;
+        editor.selected = Some(pl.id.clone());
+        commands.push(edit_command(
+            &scenario.name,
+            with_planting_added(scenario, pl),
+        ));
+    }
+}
+
+fn shift_ui(
+    ui: &mut Ui,
+    editor: &mut ScenarioEditor,
+    scenario: &Scenario,
+    plan: &Project,
+    libs: &Libraries,
+    commands: &mut Vec<Command>,
+) {
+    ui.label(RichText::new("Shift a share of one crop to another").strong());
+    let mut grown: Vec<&str> = plan.plantings.iter().map(|p| p.crop.as_str()).collect();
+    grown.sort_unstable();
+    grown.dedup();
+    let mut share_error = None;
+    ui.horizontal(|ui| {
+        let l = ui.label("Share moved");
+        ui.add(egui::TextEdit::singleline(&mut editor.shift_share).desired_width(60.0))
+            .labelled_by(l.id)
+            .on_hover_text("Share of every planting of the crop losing area, percent (0–100]");
+        ui.label("%");
+    });
+    ui.horizontal(|ui| {
+        let mut from = editor.shift_from.clone();
+        egui::ComboBox::from_label("Crop losing area")
+            .selected_text(
+                from.as_deref()
+                    .map_or("(a crop grown)", |c| crop_name(libs, c)),
+            )
+            .show_ui(ui, |ui| {
+                for c in &grown {
+                    ui.selectable_value(&mut from, Some((*c).to_owned()), crop_name(libs, c));
+                }
+            });
+        editor.shift_from = from;
+        let mut to = editor.shift_to.clone().unwrap_or_default();
+        crop_picker(ui, "Crop gaining area", &mut to, libs);
+        editor.shift_to = (!to.is_empty()).then_some(to);
+    });
+    let share = if editor.shift_share.trim().is_empty() {
+        None
+    } else {
+        match check_share(&editor.shift_share) {
+            Ok(v) => Some(v),
+            Err(e) => {
+                share_error = Some(e);
+                None
+            }
+        }
+    };
+    if let Some(e) = &share_error {
+        ui.label(RichText::new(e).color(ui.visuals().error_fg_color));
+    }
+    let same = editor.shift_from.is_some() && editor.shift_from == editor.shift_to;
+    if same {
+        ui.label(RichText::new("The two crops must differ").color(ui.visuals().error_fg_color));
+    }
+    let ready =
+        share.is_some() && editor.shift_from.is_some() && editor.shift_to.is_some() && !same;
+    if ui
+        .add_enabled(ready, egui::Button::new("Apply shift"))
+        .on_disabled_hover_text("Give the share (%), the crop losing area and the crop gaining it")
+        .clicked()
+        && let (Some(v), Some(from), Some(to)) =
+            (share, editor.shift_from.clone(), editor.shift_to.clone())
+    {
+        commands.push(edit_command(
+            &scenario.name,
+            with_shift(scenario, &from, &to, v),
+        ));
+    }
+}
+
+fn weather_ui(ui: &mut Ui, scenario: &Scenario, commands: &mut Vec<Command>) {
+    let name = scenario.name.as_str();
+    ui.label(RichText::new("Weather change for a sensitivity study").strong());
+    ui.label(
+        RichText::new(
+            "Added to every recorded temperature (relative humidity kept); rain, radiation and wind in % of the recorded values.",
+        )
+        .weak(),
+    );
+    let w = scenario.weather;
+    let mut new = w;
+    let fields: [(&str, &str, f64, Bounds); 4] = [
+        (
+            "temp",
+            "Temperature shift",
+            w.temperature_shift_c,
+            bounds::TEMPERATURE,
+        ),
+        ("rain", "Rain change", w.rain_change_pct, bounds::RAIN),
+        (
+            "radiation",
+            "Radiation change",
+            w.radiation_change_pct,
+            bounds::RADIATION,
+        ),
+        ("wind", "Wind change", w.wind_change_pct, bounds::WIND),
+    ];
+    for (key, label, value, b) in fields {
+        let out = number_field(ui, fid(name, "weather", key), label, value, &b, 2);
+        if out.error.is_none()
+            && let Some(v) = out.committed
+        {
+            match key {
+                "temp" => new.temperature_shift_c = v,
+                "rain" => new.rain_change_pct = v,
+                "radiation" => new.radiation_change_pct = v,
+                _ => new.wind_change_pct = v,
+            }
+        }
+    }
+    if new != w {
+        let mut s = scenario.clone();
+        s.weather = new;
+        commands.push(edit_command(name, s));
+    }
+}
+
+fn overrides_ui(
+    ui: &mut Ui,
+    base: &Project,
+    scenario: &Scenario,
+    problems: &[(usize, String)],
+    libs: &Libraries,
+    commands: &mut Vec<Command>,
+) {
+    ui.label(RichText::new("Changes stored in this scenario").strong());
+    if scenario.overrides.is_empty() {
+        ui.label("None yet: this scenario is the base plan.");
+    }
+    for (i, ov) in scenario.overrides.iter().enumerate() {
+        ui.horizontal_wrapped(|ui| {
+            ui.label(format!("{}. {}", i + 1, sentence(ov, base, libs)));
+            if ui.button(format!("Delete override {}", i + 1)).clicked() {
+                commands.push(edit_command(&scenario.name, without_override(scenario, i)));
+            }
+        });
+        for (_, why) in problems.iter().filter(|(k, _)| *k == i) {
+            ui.label(
+                RichText::new(format!("Cannot apply: {why}")).color(ui.visuals().error_fg_color),
+            );
+        }
+    }
+    ui.horizontal(|ui| {
+        ui.label(weather_text(&scenario.weather));
+        if !scenario.weather.is_identity() && ui.button("Use the recorded weather").clicked() {
+            let mut s = scenario.clone();
+            s.weather = WeatherPerturbation::default();
+            commands.push(edit_command(&scenario.name, s));
+        }
+    });
+}
+
+#[cfg(test)]
+#[allow(clippy::unwrap_used)]
+mod tests {
+    use super::*;
+
+    fn demo() -> Project {
+        offtake_io::project_file::load_project(std::path::Path::new(concat!(
+            env!("CARGO_MANIFEST_DIR"),
+            "/../../demo-projects/demo-scheme/scheme.ron"
+        )))
+        .unwrap()
+    }
+
+    fn empty(name: &str) -> Scenario {
+        Scenario {
+            name: name.to_owned(),
+            description: String::new(),
+            overrides: Vec::new(),
+            weather: WeatherPerturbation::default(),
+        }
+    }
+
+    fn crop(id: &str, c: &str) -> Override {
+        Override::SetPlantingCrop {
+            planting: id.to_owned(),
+            crop: c.to_owned(),
+        }
+    }
+
+    #[test]
+    fn a_second_change_of_the_same_field_replaces_the_first() {
+        let base = demo();
+        let s = with_planting_override(&base, &empty("a"), crop("C1-rice", "maize-grain"));
+        let s = with_planting_override(&base, &s, crop("C1-rice", "cotton"));
+        assert_eq!(s.overrides, vec![crop("C1-rice", "cotton")]);
+        let p = plan(&base, &s);
+        assert!(p.problems.is_empty());
+        assert_eq!(p.project.planting("C1-rice").unwrap().crop, "cotton");
+        // Back to the base crop: the override goes, nothing is stacked.
+        let s = with_planting_override(&base, &s, crop("C1-rice", "rice-paddy"));
+        assert!(s.overrides.is_empty());
+    }
+
+    #[test]
+    fn an_added_planting_is_edited_inside_its_record_and_removed_with_it() {
+        let base = demo();
+        let mut pl = crate::edit::new_planting(&base, "C1");
+        pl.crop = "maize-grain".into();
+        let id = pl.id.clone();
+        let s = with_planting_added(&empty("a"), pl);
+        let s = with_planting_override(&base, &s, crop(&id, "cotton"));
+        assert_eq!(s.overrides.len(), 1);
+        assert!(matches!(&s.overrides[0], Override::AddPlanting(p) if p.crop == "cotton"));
+        assert!(with_planting_removed(&s, &id).overrides.is_empty());
+    }
+
+    #[test]
+    fn removing_a_base_planting_drops_its_field_overrides() {
+        let base = demo();
+        let s = with_planting_override(&base, &empty("a"), crop("C1-rice", "cotton"));
+        let s = with_planting_removed(&s, "C1-rice");
+        assert_eq!(
+            s.overrides,
+            vec![Override::RemovePlanting {
+                planting: "C1-rice".into()
+            }]
+        );
+        assert!(plan(&base, &s).project.planting("C1-rice").is_none());
+        // The base plan is a separate record, never touched.
+        assert!(base.planting("C1-rice").is_some());
+    }
+
+    #[test]
+    fn shifts_between_the_same_crops_replace_and_bad_overrides_are_reported() {
+        let base = demo();
+        let s = with_shift(&empty("a"), "rice-paddy", "maize-grain", 30.0);
+        let s = with_shift(&s, "rice-paddy", "maize-grain", 40.0);
+        assert_eq!(s.overrides.len(), 1);
+        let s = with_shift(&s, "no-such-crop", "maize-grain", 10.0);
+        let p = plan(&base, &s);
+        assert_eq!(p.problems.len(), 1);
+        assert_eq!(p.problems[0].0, 1);
+        assert!(p.problems[0].1.contains("no planting grows"));
+        assert!(check_share("0").is_err());
+        assert!(check_share("abc").is_err());
+        assert_eq!(check_share("100"), Ok(100.0));
+    }
+
+    #[test]
+    fn sentences_read_as_the_plan_changes() {
+        let base = demo();
+        let libs = Libraries::builtin().unwrap();
+        assert_eq!(
+            sentence(&crop("C1-rice", "maize-grain"), &base, &libs),
+            "Planting C1-rice grows Maize, field (grain) (base plan: Rice, paddy)."
+        );
+        let w = WeatherPerturbation {
+            temperature_shift_c: 1.5,
+            rain_change_pct: -10.0,
+            ..WeatherPerturbation::default()
+        };
+        assert_eq!(
+            weather_text(&w),
+            "Weather: temperature +1.5 °C, rain -10 %, radiation 0 %, wind 0 %."
+        );
+    }
+}
