@@ -531,18 +531,21 @@ pub fn window(
     let Some(name) = editor.scenario.clone() else {
         return;
     };
-    let Some(scenario) = base.and_then(|p| p.scenario(&name)) else {
-        // Gone (undo of its creation, another project): close.
+    // Gone (undo of its creation, another project): close.
+    let Some(base) = base else {
         editor.scenario = None;
         return;
     };
-    let base = base.unwrap_or_else(|| unreachable!("checked above"));
+    let Some(scenario) = base.scenario(&name) else {
+        editor.scenario = None;
+        return;
+    };
     let mut open = true;
     egui::Window::new(format!("Scenario editor: {name}"))
         .id(Id::unique("scenario-editor-window"))
         .open(&mut open)
         .default_width(860.0)
-        .default_height(640.0)
+        .default_height(760.0)
         .vscroll(true)
         .show(ctx, |ui| {
             editor_ui(ui, editor, base, scenario, libs, commands);
@@ -585,6 +588,8 @@ fn editor_ui(
         );
     }
     ui.separator();
+    overrides_ui(ui, base, scenario, &made.problems, libs, commands);
+    ui.separator();
     egui::CollapsingHeader::new("Cropping plan in this scenario")
         .default_open(true)
         .show(ui, |ui| plan_table(ui, editor, base, &made.project, libs));
@@ -612,8 +617,6 @@ fn editor_ui(
     shift_ui(ui, editor, scenario, &made.project, libs, commands);
     ui.separator();
     weather_ui(ui, scenario, commands);
-    ui.separator();
-    overrides_ui(ui, base, scenario, &made.problems, libs, commands);
 }
 
 fn plan_table(
@@ -625,7 +628,7 @@ fn plan_table(
 ) {
     egui::ScrollArea::vertical()
         .id_salt("scenario-plan")
-        .max_height(260.0)
+        .max_height(220.0)
         .show(ui, |ui| {
             egui::Grid::new("scenario-plan-grid")
                 .striped(true)
