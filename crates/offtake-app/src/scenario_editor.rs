@@ -226,7 +226,7 @@ pub fn with_planting_override(base: &Project, scenario: &Scenario, ov: Override)
     }
     match (position, &ov) {
         (Some(i), ov) if !matches!(ov, Override::SetPlantingArea { .. }) => {
-            out.overrides[i] = ov.clone()
+            out.overrides[i] = ov.clone();
         }
         _ => {
             out = without;
@@ -828,14 +828,13 @@ fn planting_form(
     );
     if out.error.is_none()
         && let Some(v) = out.committed
+        && v.fract() == 0.0
     {
-        if v.fract() == 0.0 {
-            push(Override::SetPlantingDate {
-                planting: pl.id.clone(),
-                first_planting: pl.first_planting,
-                spread_days: Some(v as u32),
-            });
-        }
+        push(Override::SetPlantingDate {
+            planting: pl.id.clone(),
+            first_planting: pl.first_planting,
+            spread_days: Some(v as u32),
+        });
     }
     if let Some(s) = strategy_editor(ui, name, &pl.id, pl.strategy) {
         push(Override::SetPlantingStrategy {
