@@ -1217,6 +1217,32 @@ mod tests {
     }
 
     #[test]
+    fn set_scenario_swaps_the_record_and_its_inverse_restores_it() {
+        use crate::history::Edit;
+        let mut p = demo();
+        let original = p.clone();
+        let name = p.scenarios[0].name.clone();
+        let changed = with_planting_override(&p, &p.scenarios[0], crop("C1-rice", "maize-grain"));
+        let inverse = DocEdit::SetScenario {
+            name: name.clone(),
+            scenario: Box::new(changed.clone()),
+        }
+        .apply(&mut p)
+        .unwrap();
+        assert_eq!(p.scenario(&name), Some(&changed));
+        assert_eq!(p.plantings, original.plantings, "base plan untouched");
+        inverse.apply(&mut p).unwrap();
+        assert_eq!(p, original);
+        // A missing scenario is refused and changes nothing.
+        let missing = DocEdit::SetScenario {
+            name: "no-such".into(),
+            scenario: Box::new(changed),
+        };
+        assert!(missing.apply(&mut p).is_err());
+        assert_eq!(p, original);
+    }
+
+    #[test]
     fn sentences_read_as_the_plan_changes() {
         let base = demo();
         let libs = Libraries::builtin().unwrap();
