@@ -442,6 +442,10 @@ impl OfftakeApp {
             &mut self.scenario_editor,
             project,
             &self.libraries,
+            crate::scenario_editor::Results {
+                computed: self.computed.as_ref(),
+                recomputing: self.state.recompute == RecomputeStatus::Running,
+            },
             &mut commands,
         );
         self.help_windows(ui.ctx());

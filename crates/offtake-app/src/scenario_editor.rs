@@ -520,12 +520,24 @@ fn edit_command(name: &str, new: Scenario) -> Command {
     })
 }
 
+/// What the editor shows of the last computation.
+#[derive(Debug, Clone, Copy)]
+pub struct Results<'a> {
+    /// Results of the last finished computation (its scenario comparison
+    /// is there while the Compare tab is shown).
+    pub computed: Option<&'a crate::compute::Computed>,
+    /// Whether a recomputation is waiting or running (the results are then
+    /// those of the project before the last edit).
+    pub recomputing: bool,
+}
+
 /// Draws the editor window when it is open.
 pub fn window(
     ctx: &egui::Context,
     editor: &mut ScenarioEditor,
     base: Option<&Project>,
     libs: &Libraries,
+    results: Results<'_>,
     commands: &mut Vec<Command>,
 ) {
     let Some(name) = editor.scenario.clone() else {
@@ -548,11 +560,54 @@ pub fn window(
         .default_height(760.0)
         .vscroll(true)
         .show(ctx, |ui| {
+            result_line(ui, base, scenario, results);
             editor_ui(ui, editor, base, scenario, libs, commands);
         });
     if !open {
         editor.scenario = None;
     }
+}
+
+/// The scenario's headworks figures from the comparison, beside a
+/// scenario that is the base plan unchanged (if the project has one).
+fn result_line(ui: &mut Ui, base: &Project, scenario: &Scenario, results: Results<'_>) {
+    use crate::fields::format_sig;
+    let comparison = results
+        .computed
+        .and_then(|c| c.comparison.as_ref())
+        .and_then(|c| c.as_ref().ok());
+    let text = if results.recomputing {
+        "Recomputing the scenarios…".to_owned()
+    } else if let Some(c) = comparison {
+        let figures = |col: &offtake_core::engine::ScenarioColumn| {
+            format!(
+                "design flow {} l/s, volume {} Mm³/year",
+                format_sig(col.design_flow_ls, 3),
+                format_sig(col.headworks_volume_m3 / 1.0e6, 3)
+            )
+        };
+        let same_as_base = base
+            .scenarios
+            .iter()
+            .find(|s| s.overrides.is_empty() && s.weather.is_identity() && s.name != scenario.name)
+            .and_then(|s| c.columns.iter().find(|col| col.name == s.name));
+        match c.columns.iter().find(|col| col.name == scenario.name) {
+            Some(col) => format!(
+                "Headworks in this scenario: {}{}",
+                figures(col),
+                same_as_base.map_or_else(String::new, |b| format!(
+                    " — base plan (as {}): {}",
+                    b.name,
+                    figures(b)
+                ))
+            ),
+            None => "Not computed yet: open the Compare tab to compute every scenario.".to_owned(),
+        }
+    } else {
+        "Results appear here while the Compare tab is shown (it computes every scenario)."
+            .to_owned()
+    };
+    ui.label(RichText::new(text).strong());
 }
 
 fn editor_ui(
@@ -745,6 +800,19 @@ fn planting_form(
         ))
         .strong(),
     );
+    if let Some(b) = base.planting(&pl.id) {
+        ui.label(
+            RichText::new(format!(
+                "Base plan: {}, {}, first planted on {}, spread {} days, {}.",
+                crop_name(libs, &b.crop),
+                area_text(b.area),
+                month_day_text(b.first_planting),
+                b.spread_days,
+                strategy_text(&b.strategy)
+            ))
+            .weak(),
+        );
+    }
     let mut push = |ov: Override| {
         let new = with_planting_override(base, scenario, ov);
         if new != *scenario {
