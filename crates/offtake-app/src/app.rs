@@ -445,6 +445,7 @@ impl OfftakeApp {
             crate::scenario_editor::Results {
                 computed: self.computed.as_ref(),
                 recomputing: self.state.recompute == RecomputeStatus::Running,
+                shown: self.state.scenario.as_deref(),
             },
             &mut commands,
         );

@@ -347,6 +347,21 @@ pub fn strategy_text(s: &Strategy) -> String {
     }
 }
 
+/// A strategy in a few words, for the plan table.
+fn strategy_short(s: &Strategy) -> String {
+    match s {
+        Strategy::Refill { trigger_pct_of_raw } => {
+            format!("refill at {} % RAW", format_number(*trigger_pct_of_raw, 1))
+        }
+        Strategy::Interval { days } => format!("every {days} days"),
+        Strategy::Depth { net_mm } => format!("{} mm each", format_number(*net_mm, 1)),
+        Strategy::Deficit {
+            trigger_pct_of_taw, ..
+        } => format!("deficit at {} % TAW", format_number(*trigger_pct_of_taw, 1)),
+        Strategy::Rainfed => "rainfed".to_owned(),
+    }
+}
+
 fn crop_name<'a>(libs: &'a Libraries, id: &'a str) -> &'a str {
     libs.crop(id).map_or(id, |c| c.name.as_str())
 }
@@ -529,6 +544,8 @@ pub struct Results<'a> {
     /// Whether a recomputation is waiting or running (the results are then
     /// those of the project before the last edit).
     pub recomputing: bool,
+    /// The scenario whose results the tabs show (kept on a rename).
+    pub shown: Option<&'a str>,
 }
 
 /// Draws the editor window when it is open.
@@ -556,12 +573,18 @@ pub fn window(
     egui::Window::new(format!("Scenario editor: {name}"))
         .id(Id::unique("scenario-editor-window"))
         .open(&mut open)
+        // On the right, over the inspector, so the Compare tab's switcher
+        // and the first columns of its table stay in view.
+        .default_pos(egui::pos2(
+            (ctx.content_rect().right() - 900.0).max(0.0),
+            60.0,
+        ))
         .default_width(860.0)
         .default_height(760.0)
         .vscroll(true)
         .show(ctx, |ui| {
             result_line(ui, base, scenario, results);
-            editor_ui(ui, editor, base, scenario, libs, commands);
+            editor_ui(ui, editor, base, scenario, libs, results.shown, commands);
         });
     if !open {
         editor.scenario = None;
@@ -610,12 +633,99 @@ fn result_line(ui: &mut Ui, base: &Project, scenario: &Scenario, results: Result
     ui.label(RichText::new(text).strong());
 }
 
+/// Checks a new scenario name: not empty, not another scenario's.
+///
+/// # Errors
+/// The reason.
+pub fn check_name(base: &Project, old: &str, new: &str) -> Result<(), String> {
+    let new = new.trim();
+    if new.is_empty() {
+        Err("Scenario name must not be empty".to_owned())
+    } else if new != old && base.scenario(new).is_some() {
+        Err(format!("Another scenario is already named {new:?}"))
+    } else {
+        Ok(())
+    }
+}
+
+/// The name (renaming keeps the editor and the results shown on it) and the
+/// description.
+fn name_and_description(
+    ui: &mut Ui,
+    base: &Project,
+    scenario: &Scenario,
+    shown: Option<&str>,
+    commands: &mut Vec<Command>,
+) {
+    let name = scenario.name.as_str();
+    let id = fid(name, "", "name");
+    let mut text = ui
+        .data(|d| d.get_temp::<String>(id))
+        .unwrap_or_else(|| name.to_owned());
+    let r = ui
+        .horizontal(|ui| {
+            let l = ui.label("Scenario name");
+            ui.add(
+                egui::TextEdit::singleline(&mut text)
+                    .id(id)
+                    .desired_width(220.0),
+            )
+            .labelled_by(l.id)
+        })
+        .inner;
+    let check = check_name(base, name, &text);
+    if r.has_focus() {
+        ui.data_mut(|d| d.insert_temp(id, text.clone()));
+    } else {
+        ui.data_mut(|d| d.remove::<String>(id));
+    }
+    if let Err(e) = &check {
+        ui.label(RichText::new(e).color(ui.visuals().error_fg_color));
+    }
+    let new_name = text.trim().to_owned();
+    if r.lost_focus() && check.is_ok() && new_name != name {
+        let mut s = scenario.clone();
+        s.name.clone_from(&new_name);
+        commands.push(edit_command(name, s));
+        commands.push(Command::EditScenario(Some(new_name.clone())));
+        if shown == Some(name) {
+            commands.push(Command::ShowScenario(Some(new_name)));
+        }
+    }
+    let id = fid(name, "", "description");
+    let mut text = ui
+        .data(|d| d.get_temp::<String>(id))
+        .unwrap_or_else(|| scenario.description.clone());
+    let r = ui
+        .horizontal(|ui| {
+            let l = ui.label("Description");
+            ui.add(
+                egui::TextEdit::singleline(&mut text)
+                    .id(id)
+                    .desired_width(560.0),
+            )
+            .labelled_by(l.id)
+        })
+        .inner;
+    if r.has_focus() {
+        ui.data_mut(|d| d.insert_temp(id, text.clone()));
+    } else {
+        ui.data_mut(|d| d.remove::<String>(id));
+    }
+    if r.lost_focus() && text != scenario.description {
+        let mut s = scenario.clone();
+        s.description = text;
+        commands.push(edit_command(name, s));
+    }
+}
+
 fn editor_ui(
     ui: &mut Ui,
     editor: &mut ScenarioEditor,
     base: &Project,
     scenario: &Scenario,
     libs: &Libraries,
+    shown: Option<&str>,
     commands: &mut Vec<Command>,
 ) {
     let name = scenario.name.as_str();
@@ -631,9 +741,7 @@ fn editor_ui(
             commands.push(Command::ShowScenario(Some(name.to_owned())));
         }
     });
-    if !scenario.description.is_empty() {
-        ui.label(&scenario.description);
-    }
+    name_and_description(ui, base, scenario, shown, commands);
     if !made.problems.is_empty() {
         ui.label(
             RichText::new(
@@ -697,7 +805,7 @@ fn plan_table(
                         "First planting",
                         "Spread (days)",
                         "Strategy",
-                        "Compared with base",
+                        "vs base",
                     ] {
                         ui.label(RichText::new(h).strong());
                     }
@@ -715,10 +823,18 @@ fn plan_table(
                             ui.label(&block.name);
                             ui.label(crop_name(libs, &pl.crop));
                             ui.label(format_number(pl.area.hectares(block.area_ha), 1));
-                            ui.label(area_text(pl.area));
+                            ui.label(match pl.area {
+                                PlantingArea::Hectares(ha) => {
+                                    format!("{} ha", format_number(ha, 2))
+                                }
+                                PlantingArea::PercentOfBlock(p) => {
+                                    format!("{} % of block", format_number(p, 2))
+                                }
+                            });
                             ui.label(month_day_text(pl.first_planting));
                             ui.label(pl.spread_days.to_string());
-                            ui.label(strategy_text(&pl.strategy));
+                            ui.label(strategy_short(&pl.strategy))
+                                .on_hover_text(strategy_text(&pl.strategy));
                             ui.label(status(base, plan, &pl.id));
                             ui.end_row();
                         }

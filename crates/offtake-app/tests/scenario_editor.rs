@@ -127,8 +127,10 @@ fn changing_a_rice_planting_to_maize_is_one_override_and_the_comparison_moves() 
         after.planting("C1-rice").expect("base rice").crop,
         "rice-paddy"
     );
-    // The editor reads the change back as a sentence.
+    // The editor reads the change back as a sentence, and shows the
+    // recomputed headworks figures beside the base plan's.
     h.get_by_label_contains("Planting C1-rice grows Maize, field (grain)");
+    h.get_by_label_contains("Headworks in this scenario: design flow");
 
     // The Compare tab recomputed: the new scenario differs from the base.
     let changed = column(&h, &name);
@@ -261,4 +263,53 @@ fn a_crop_shift_is_stored_with_its_share_and_a_bad_share_is_refused() {
     ));
     // The plan table lists the new maize plantings the shift makes.
     h.get_by_label("C1-rice-maize-grain");
+}
+
+#[test]
+fn renaming_a_scenario_keeps_the_editor_on_it_and_a_taken_name_is_refused() {
+    let mut h = demo_harness();
+    let name = create_scenario(&mut h);
+    h.get_by_label("Scenario name").focus();
+    h.run();
+    h.key_press_modifiers(Modifiers::COMMAND, Key::A);
+    h.get_by_label("Scenario name").type_text("current");
+    h.run();
+    h.get_by_label("Another scenario is already named \"current\"");
+    h.key_press(Key::Enter);
+    settle(&mut h);
+    assert!(project(&h).scenario(&name).is_some(), "not renamed");
+    h.get_by_label("Scenario name").focus();
+    h.run();
+    h.key_press_modifiers(Modifiers::COMMAND, Key::A);
+    h.get_by_label("Scenario name").type_text("maize-on-clay-1");
+    h.run();
+    h.key_press(Key::Enter);
+    settle(&mut h);
+    let p = project(&h);
+    assert!(p.scenario(&name).is_none());
+    assert!(p.scenario("maize-on-clay-1").is_some());
+    assert_eq!(
+        h.state().scenario_editor.scenario.as_deref(),
+        Some("maize-on-clay-1")
+    );
+    h.get_by_label("Edit maize-on-clay-1");
+    // The switcher's "Edit scenario…" opens the editor on the scenario shown.
+    h.state_mut()
+        .push(offtake_app::command::Command::ShowScenario(Some(
+            "current".to_owned(),
+        )));
+    settle(&mut h);
+    assert_eq!(h.state().state.scenario.as_deref(), Some("current"));
+    let b = h.get_by_label("Edit scenario…");
+    eprintln!(
+        "button {:?} name {:?}",
+        b.rect(),
+        h.get_by_label("Scenario name").rect()
+    );
+    b.click();
+    h.run();
+    assert_eq!(
+        h.state().scenario_editor.scenario.as_deref(),
+        Some("current")
+    );
 }
