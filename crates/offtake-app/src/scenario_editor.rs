@@ -576,10 +576,10 @@ pub fn window(
         // On the right, over the inspector, so the Compare tab's switcher
         // and the first columns of its table stay in view.
         .default_pos(egui::pos2(
-            (ctx.content_rect().right() - 900.0).max(0.0),
+            (ctx.content_rect().right() - 820.0).max(0.0),
             60.0,
         ))
-        .default_width(860.0)
+        .default_width(800.0)
         .default_height(760.0)
         .vscroll(true)
         .show(ctx, |ui| {
@@ -619,7 +619,7 @@ fn result_line(ui: &mut Ui, base: &Project, scenario: &Scenario, results: Result
                 "Headworks in this scenario: {}{}",
                 figures(col),
                 same_as_base.map_or_else(String::new, |b| format!(
-                    " — base plan (as {}): {}",
+                    "\nBase plan (as {}): {}",
                     b.name,
                     figures(b)
                 ))
@@ -1235,7 +1235,7 @@ fn weather_ui(ui: &mut Ui, scenario: &Scenario, commands: &mut Vec<Command>) {
     ui.label(RichText::new("Weather change for a sensitivity study").strong());
     ui.label(
         RichText::new(
-            "Added to every recorded temperature (relative humidity kept); rain, radiation and wind in % of the recorded values.",
+            "Added to every recorded temperature (relative humidity kept);\nrain, radiation and wind in % of the recorded values.",
         )
         .weak(),
     );
