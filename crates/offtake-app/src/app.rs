@@ -350,6 +350,13 @@ impl OfftakeApp {
         let mut commands = std::mem::take(&mut self.commands);
         let project_open = self.project_open();
         let project = self.document.as_ref().map(|d| &d.project);
+        // Pickers and the tree see the project's own crops and soils over the library.
+        let libraries: std::borrow::Cow<'_, Libraries> = match project {
+            Some(p) if !p.user_crops.is_empty() || !p.user_soils.is_empty() => {
+                std::borrow::Cow::Owned(self.libraries.for_project(p))
+            }
+            _ => std::borrow::Cow::Borrowed(&*self.libraries),
+        };
 
         egui::Panel::top("menu").show(ui, |ui| {
             let info = MenuInfo {
@@ -373,7 +380,7 @@ impl OfftakeApp {
                         tree::ui(
                             ui,
                             project,
-                            &self.libraries,
+                            &libraries,
                             &self.state.selection,
                             &mut commands,
                         );
@@ -387,7 +394,7 @@ impl OfftakeApp {
                 .show(ui, |ui| {
                     egui::ScrollArea::vertical().show(ui, |ui| {
                         let ctx = inspector::Context {
-                            libraries: &self.libraries,
+                            libraries: &libraries,
                             problems: self.computed.as_ref().map_or(&[][..], |c| &c.warnings[..]),
                         };
                         inspector::ui(ui, project, &self.state.selection, &ctx, &mut commands);
