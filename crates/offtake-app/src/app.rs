@@ -95,6 +95,8 @@ pub struct OfftakeApp {
     offer_recovery: bool,
     /// The weather import window, while open.
     pub import: Option<crate::import::ImportJob>,
+    /// The crop and soil library window.
+    pub library_editor: crate::library_editor::LibraryEditor,
 }
 
 impl std::fmt::Debug for OfftakeApp {
@@ -161,6 +163,7 @@ impl OfftakeApp {
             recovery: None,
             offer_recovery: false,
             import: None,
+            library_editor: crate::library_editor::LibraryEditor::default(),
         }
     }
 
@@ -420,6 +423,7 @@ impl OfftakeApp {
         self.discard_guard(ui.ctx());
         self.recovery_window(ui.ctx());
         self.import_window(ui.ctx());
+        self.library_window(ui.ctx(), &mut commands);
 
         commands.append(&mut self.commands);
         if !commands.is_empty() {
@@ -483,6 +487,7 @@ impl OfftakeApp {
             Command::Select(sel) => self.state.selection = sel,
             Command::ShowHelp(which) => self.state.help.open(which),
             Command::TogglePanel(kind) => self.state.panels.toggle(kind),
+            Command::ShowLibrary(kind) => self.library_editor.show(kind),
             Command::Edit(edit) => self.edit(edit),
             Command::Undo => self.undo(),
             Command::Redo => self.redo(),
@@ -601,6 +606,22 @@ impl OfftakeApp {
             Some(crate::import::ImportAnswer::Cancel) => self.import = None,
             None => {}
         }
+    }
+
+    /// The crop and soil library window (edits go through `commands`).
+    fn library_window(&mut self, ctx: &egui::Context, commands: &mut Vec<Command>) {
+        let (Some(doc), true) = (self.document.as_ref(), self.library_editor.open) else {
+            return;
+        };
+        let mut open = true;
+        let editor = &mut self.library_editor;
+        egui::Window::new("Crop and soil libraries")
+            .open(&mut open)
+            .default_width(820.0)
+            .show(ctx, |ui| {
+                editor.ui(ui, &doc.project, &self.libraries, commands);
+            });
+        self.library_editor.open = open;
     }
 
     /// Attaches a weather file to the project as an undoable edit; the worker

@@ -151,4 +151,6 @@ pub enum Command {
     DeleteSelected,
     /// Run a command after the user agreed to discard unsaved changes.
     DiscardAndRun(Box<Command>),
+    /// Open the crop or soil library editor.
+    ShowLibrary(crate::library_editor::LibraryKind),
 }

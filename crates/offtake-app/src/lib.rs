@@ -15,6 +15,7 @@
 //! - [`compute`]: what the worker computes ([`compute::Snapshot`] in,
 //!   [`compute::Computed`] out) — the plug for the computation chain.
 //! - [`import`]: the weather import window (background read, preview, warnings).
+//! - [`library_editor`]: the crop and soil library editors (copy, edit, Kc curve).
 //! - [`recovery`]: autosave to a recovery file and restore after a crash.
 //! - [`state`]: runtime state beside the document.
 //! - [`menu`], [`tree`], [`inspector`], [`fields`], [`status`], [`help`]: the panels.
@@ -38,6 +39,7 @@ pub mod help;
 pub mod history;
 pub mod import;
 pub mod inspector;
+pub mod library_editor;
 pub mod menu;
 pub mod palette;
 pub mod plot;
