@@ -578,7 +578,10 @@ impl OfftakeApp {
 
     /// Reads `file` in the background and shows the import window.
     pub fn preview_weather(&mut self, file: std::path::PathBuf) {
-        self.import = Some(crate::import::ImportJob::start(file));
+        let Some(doc) = self.document.as_ref() else {
+            return;
+        };
+        self.import = Some(crate::import::ImportJob::start(file, &doc.project.weather));
     }
 
     /// Blocks until the weather import window has its result (tests only).
@@ -599,9 +602,14 @@ impl OfftakeApp {
             .default_width(640.0)
             .show(ctx, |ui| answer = crate::import::ui(ui, job));
         match answer {
-            Some(crate::import::ImportAnswer::Attach(file)) => {
+            Some(crate::import::ImportAnswer::Use {
+                path,
+                settings,
+                latitude_deg,
+                elevation_m,
+            }) => {
                 self.import = None;
-                self.attach_weather(&file);
+                self.attach_weather(&path, settings, latitude_deg, elevation_m);
             }
             Some(crate::import::ImportAnswer::Cancel) => self.import = None,
             None => {}
@@ -626,12 +634,27 @@ impl OfftakeApp {
 
     /// Attaches a weather file to the project as an undoable edit; the worker
     /// reads it and computes daily ET₀.
-    fn attach_weather(&mut self, file: &std::path::Path) {
+    fn attach_weather(
+        &mut self,
+        file: &std::path::Path,
+        settings: offtake_core::weather_import::ImportSettings,
+        latitude_deg: Option<f64>,
+        elevation_m: Option<f64>,
+    ) {
         let Some(doc) = self.document.as_ref() else {
             return;
         };
         let mut weather = doc.project.weather.clone();
         weather.path = relative_to_project(file, doc.path.as_deref());
+        // One edit: the file, how to read it, and the station fields typed
+        // in the import window.
+        weather.set_import(Some(settings));
+        if let Some(lat) = latitude_deg {
+            weather.latitude_deg = lat;
+        }
+        if let Some(z) = elevation_m {
+            weather.elevation_m = z;
+        }
         self.edit(DocEdit::SetWeather(weather));
         self.state.selection = Selection::Weather;
         self.state.message = Some(

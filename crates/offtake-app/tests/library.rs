@@ -123,7 +123,8 @@ fn a_project_with_own_crop_and_soil_round_trips_through_save_and_open() {
     h.get_by_label("Soils").click();
     h.run();
     let soil = h.state().libraries.soils[0].clone();
-    h.get_by_label(&format!("{} ({})", soil.name, soil.id)).click();
+    h.get_by_label(&format!("{} ({})", soil.name, soil.id))
+        .click();
     h.run();
     h.get_by_label("Copy to my soils").click();
     h.run();
