@@ -674,6 +674,22 @@ fn unit_choices(q: Quantity) -> Vec<Quantity> {
     }
 }
 
+/// A unit as the window writes it (the symbols of the radiation units use
+/// superscripts the UI font may not have).
+fn unit_text(q: Quantity) -> &'static str {
+    match q {
+        Quantity::Solar(RadiationUnit::MegajoulesPerSquareMetreDay) => "MJ/m²/day",
+        Quantity::Solar(RadiationUnit::WattsPerSquareMetreDailyMean) => "W/m² (daily mean)",
+        Quantity::Solar(RadiationUnit::KilowattHoursPerSquareMetreDay) => "kWh/m²/day",
+        other => other.unit_symbol(),
+    }
+}
+
+/// A message as the window shows it (superscript minus written plainly).
+fn plain(s: &str) -> String {
+    s.replace('⁻', "^-")
+}
+
 /// Column header of a preview field, with Offtake's unit.
 fn field_header(field: &str) -> &'static str {
     match field {
@@ -745,16 +761,16 @@ fn mapping_table(ui: &mut Ui, job: &mut ImportJob) {
                 if let ColumnRole::Measure(q) = *role {
                     let choices = unit_choices(q);
                     let combo = egui::ComboBox::from_id_salt(("import-unit", i))
-                        .selected_text(q.unit_symbol())
+                        .selected_text(unit_text(q))
                         .show_ui(ui, |ui| {
                             for c in choices {
-                                if ui.selectable_label(c == q, c.unit_symbol()).clicked() {
+                                if ui.selectable_label(c == q, unit_text(c)).clicked() {
                                     *role = ColumnRole::Measure(c);
                                 }
                             }
                         });
                     let _ = combo.response.labelled_by(header_label.id);
-                    ui.label(field_header(q.field_name()));
+                    ui.label(format!("as {}", field_header(q.field_name())));
                 } else {
                     ui.label("");
                     ui.label(if *role == ColumnRole::Date {
@@ -863,7 +879,7 @@ fn settings_ui(ui: &mut Ui, job: &mut ImportJob) {
         }
     }
     if let Err(e) = job.settings_from_form() {
-        ui.label(RichText::new(e).color(ui.visuals().error_fg_color));
+        ui.label(RichText::new(plain(&e)).color(ui.visuals().error_fg_color));
     }
     if ui.button("Re-read").clicked() {
         job.reread();
@@ -917,7 +933,7 @@ fn preview_ui(ui: &mut Ui, r: &ReadResult) {
             .color(ui.visuals().error_fg_color),
         );
         for p in r.problems.iter().take(20) {
-            ui.label(RichText::new(p).color(ui.visuals().error_fg_color));
+            ui.label(RichText::new(plain(p)).color(ui.visuals().error_fg_color));
         }
     }
     if r.warnings.is_empty() {
@@ -925,7 +941,7 @@ fn preview_ui(ui: &mut Ui, r: &ReadResult) {
     } else {
         ui.label(RichText::new(format!("{} import warning(s)", r.warnings.len())).strong());
         for w in r.warnings.iter().take(10) {
-            ui.label(RichText::new(w).color(ui.visuals().warn_fg_color));
+            ui.label(RichText::new(plain(w)).color(ui.visuals().warn_fg_color));
         }
     }
 }
@@ -989,37 +1005,7 @@ fn quality_ui(ui: &mut Ui, r: &ReadResult) {
 pub fn ui(ui: &mut Ui, job: &mut ImportJob) -> Option<ImportAnswer> {
     let mut answer = None;
     ui.label(RichText::new(job.path.display().to_string()).strong());
-    if let Some(j) = &job.job {
-        ui.horizontal(|ui| {
-            ui.spinner();
-            ui.label(format!(
-                "Reading the weather file… {} lines read of {} kB",
-                j.lines.load(Ordering::Relaxed),
-                job.size_bytes / 1024
-            ));
-            if ui.button("Cancel reading").clicked() {
-                j.cancel.store(true, Ordering::Relaxed);
-            }
-        });
-        ui.ctx().request_repaint_after(Duration::from_millis(100));
-    }
-    if job.result.is_some() {
-        egui::ScrollArea::vertical()
-            .max_height(620.0)
-            .show(ui, |ui| {
-                settings_ui(ui, job);
-                ui.separator();
-                if let Some(r) = &job.result {
-                    if let Some(e) = &r.fatal {
-                        ui.label(RichText::new(e).color(ui.visuals().error_fg_color));
-                    }
-                    preview_ui(ui, r);
-                    ui.separator();
-                    quality_ui(ui, r);
-                }
-            });
-    }
-    ui.separator();
+    // The answer buttons sit on top, visible however long the report is.
     ui.horizontal(|ui| {
         let usable = job.usable() && !job.running();
         if ui
@@ -1047,5 +1033,36 @@ pub fn ui(ui: &mut Ui, job: &mut ImportJob) -> Option<ImportAnswer> {
             answer = Some(ImportAnswer::Cancel);
         }
     });
+    ui.separator();
+    if let Some(j) = &job.job {
+        ui.horizontal(|ui| {
+            ui.spinner();
+            ui.label(format!(
+                "Reading the weather file… {} lines read of {} kB",
+                j.lines.load(Ordering::Relaxed),
+                job.size_bytes / 1024
+            ));
+            if ui.button("Cancel reading").clicked() {
+                j.cancel.store(true, Ordering::Relaxed);
+            }
+        });
+        ui.ctx().request_repaint_after(Duration::from_millis(100));
+    }
+    if job.result.is_some() {
+        egui::ScrollArea::vertical()
+            .max_height(560.0)
+            .show(ui, |ui| {
+                settings_ui(ui, job);
+                ui.separator();
+                if let Some(r) = &job.result {
+                    if let Some(e) = &r.fatal {
+                        ui.label(RichText::new(plain(e)).color(ui.visuals().error_fg_color));
+                    }
+                    preview_ui(ui, r);
+                    ui.separator();
+                    quality_ui(ui, r);
+                }
+            });
+    }
     answer
 }
