@@ -2,6 +2,7 @@
 //!
 //! The weather files are invented for the tests (no real station).
 
+use std::fmt::Write as _;
 use std::time::Duration;
 
 use egui::{Key, Modifiers};
@@ -57,13 +58,15 @@ fn foreign_csv() -> String {
     for i in 0..20 {
         let day = 13 + i;
         let (d, m) = if day > 31 { (day - 31, 2) } else { (day, 1) };
-        s.push_str(&format!(
-            "{d:02}/{m:02}/2031;{},{};{},4;55;7,2;18,5;{}\n",
+        writeln!(
+            s,
+            "{d:02}/{m:02}/2031;{},{};{},4;55;7,2;18,5;{}",
             86 + i % 3,
             i % 10,
             60 + i % 4,
             if i % 5 == 0 { "3,5" } else { "0" }
-        ));
+        )
+        .expect("write to a String");
     }
     s
 }
@@ -148,7 +151,7 @@ fn an_ambiguous_date_order_is_asked_for_never_guessed() {
     let path = dir.path().join("ambiguous.csv");
     let mut text = String::from("date,tmax_c,tmin_c,rain_mm\n");
     for d in 1..=12 {
-        text.push_str(&format!("{d:02}/03/2031,30,18,0\n"));
+        writeln!(text, "{d:02}/03/2031,30,18,0").expect("write to a String");
     }
     std::fs::write(&path, text).expect("write");
     let mut h = harness();

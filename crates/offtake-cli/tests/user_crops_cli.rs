@@ -10,7 +10,10 @@ use std::process::Command;
 use offtake_io::library::Libraries;
 use offtake_io::project_file::{load_project, save_project};
 
-const DEMO_DIR: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/../../demo-projects/demo-scheme");
+const DEMO_DIR: &str = concat!(
+    env!("CARGO_MANIFEST_DIR"),
+    "/../../demo-projects/demo-scheme"
+);
 
 /// Runs `offtake run` on `project` saved in `dir`; returns the headworks row
 /// of design_values.csv: (design flow l/s, seasonal volume m³).
