@@ -180,6 +180,17 @@ pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
             std::sync::Arc::new(libraries.for_project(&snap.project))
         };
         let mut out = summarize(&snap.project, &libraries);
+        // The project's own crops and soils are checked like library files.
+        for c in &snap.project.user_crops {
+            if let Err(e) = c.validate() {
+                out.warnings.push(format!("my crop {}: {e}", c.id));
+            }
+        }
+        for s in &snap.project.user_soils {
+            if let Err(e) = s.validate() {
+                out.warnings.push(format!("my soil {}: {e}", s.id));
+            }
+        }
         if let Some(w) = weather(&snap, &mut cache) {
             match w {
                 Ok((result, warnings)) => {

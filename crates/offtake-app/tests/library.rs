@@ -106,6 +106,16 @@ fn an_invalid_kc_is_kept_and_its_reason_shown() {
     h.run();
     assert!((h.state().project().expect("open").user_crops[0].kc.mid - 2.5).abs() < 1e-12);
     h.get_by_label_contains("This crop is not usable yet: kc mid = 2.5");
+    // The computation reports it with the project's other data warnings.
+    h.state_mut().wait_for_recompute(Duration::from_secs(10));
+    h.run();
+    let warnings = &h.state().computed.as_ref().expect("results").warnings;
+    assert!(
+        warnings
+            .iter()
+            .any(|w| w.starts_with("my crop maize-grain-mine: kc mid = 2.5")),
+        "{warnings:?}"
+    );
 }
 
 #[test]
