@@ -13,7 +13,7 @@
 //! [`DocEdit::SetUserSoils`]) of the whole list of own entries.
 
 use egui::{Color32, Id, RichText, Ui};
-use egui_plot::{Legend, Line, Plot, Polygon};
+use egui_plot::{Legend, Line, Plot, PlotPoint, Polygon, Text};
 use offtake_core::crop::kc_curve::KcCurve;
 use offtake_core::crop::{CoefficientSet, Crop, CropGroup, CycleKind, StageLengths};
 use offtake_core::project::Project;
@@ -288,26 +288,30 @@ impl LibraryEditor {
             let library = self.crop.as_deref().and_then(|id| base.crop(id));
             match (own, library) {
                 (Some(c), _) => {
-                    if let Some(new) = crop_form(ui, c) {
-                        let list = project
-                            .user_crops
-                            .iter()
-                            .map(|x| if x.id == c.id { new.clone() } else { x.clone() })
-                            .collect();
-                        commands.push(Command::Edit(DocEdit::SetUserCrops(list)));
-                    }
-                    ui.horizontal(|ui| {
-                        if ui.button("Remove from my crops").clicked() {
-                            let list = project
-                                .user_crops
-                                .iter()
-                                .filter(|x| x.id != c.id)
-                                .cloned()
-                                .collect();
-                            commands.push(Command::Edit(DocEdit::SetUserCrops(list)));
-                        }
-                    });
+                    // The curve on top, the form below it (scrolled).
                     self.plotted_kc = kc_plot(ui, c);
+                    egui::ScrollArea::vertical()
+                        .id_salt("crop-form")
+                        .max_height(420.0)
+                        .show(ui, |ui| {
+                            if let Some(new) = crop_form(ui, c) {
+                                let list = project
+                                    .user_crops
+                                    .iter()
+                                    .map(|x| if x.id == c.id { new.clone() } else { x.clone() })
+                                    .collect();
+                                commands.push(Command::Edit(DocEdit::SetUserCrops(list)));
+                            }
+                            if ui.button("Remove from my crops").clicked() {
+                                let list = project
+                                    .user_crops
+                                    .iter()
+                                    .filter(|x| x.id != c.id)
+                                    .cloned()
+                                    .collect();
+                                commands.push(Command::Edit(DocEdit::SetUserCrops(list)));
+                            }
+                        });
                 }
                 (None, Some(c)) => {
                     ui.label(RichText::new(&c.name).strong());
@@ -387,23 +391,28 @@ impl LibraryEditor {
             let library = self.soil.as_deref().and_then(|id| base.soil(id));
             match (own, library) {
                 (Some(s), _) => {
-                    if let Some(new) = soil_form(ui, s) {
-                        let list = project
-                            .user_soils
-                            .iter()
-                            .map(|x| if x.id == s.id { new.clone() } else { x.clone() })
-                            .collect();
-                        commands.push(Command::Edit(DocEdit::SetUserSoils(list)));
-                    }
-                    if ui.button("Remove from my soils").clicked() {
-                        let list = project
-                            .user_soils
-                            .iter()
-                            .filter(|x| x.id != s.id)
-                            .cloned()
-                            .collect();
-                        commands.push(Command::Edit(DocEdit::SetUserSoils(list)));
-                    }
+                    egui::ScrollArea::vertical()
+                        .id_salt("soil-form")
+                        .max_height(560.0)
+                        .show(ui, |ui| {
+                            if let Some(new) = soil_form(ui, s) {
+                                let list = project
+                                    .user_soils
+                                    .iter()
+                                    .map(|x| if x.id == s.id { new.clone() } else { x.clone() })
+                                    .collect();
+                                commands.push(Command::Edit(DocEdit::SetUserSoils(list)));
+                            }
+                            if ui.button("Remove from my soils").clicked() {
+                                let list = project
+                                    .user_soils
+                                    .iter()
+                                    .filter(|x| x.id != s.id)
+                                    .cloned()
+                                    .collect();
+                                commands.push(Command::Edit(DocEdit::SetUserSoils(list)));
+                            }
+                        });
                 }
                 (None, Some(s)) => {
                     ui.label(RichText::new(&s.name).strong());
@@ -984,10 +993,10 @@ fn soil_form(ui: &mut Ui, s: &Soil) -> Option<Soil> {
 
 /// Stage shading colours (initial, development, mid-season, late season).
 const STAGE_FILL: [Color32; 4] = [
-    Color32::from_rgba_premultiplied(40, 90, 160, 40),
-    Color32::from_rgba_premultiplied(40, 140, 70, 40),
-    Color32::from_rgba_premultiplied(160, 130, 20, 40),
-    Color32::from_rgba_premultiplied(150, 60, 40, 40),
+    Color32::from_rgba_unmultiplied_const(90, 140, 200, 36),
+    Color32::from_rgba_unmultiplied_const(90, 180, 110, 36),
+    Color32::from_rgba_unmultiplied_const(210, 180, 60, 36),
+    Color32::from_rgba_unmultiplied_const(200, 110, 80, 36),
 ];
 
 /// Draws the Kc curve of `crop` with its stages shaded; returns the points drawn.
@@ -1006,9 +1015,14 @@ fn kc_plot(ui: &mut Ui, crop: &Crop) -> Vec<[f64; 2]> {
     let top = points.iter().map(|p| p[1]).fold(1.2_f64, f64::max) + 0.1;
     let mut start = 0.0;
     let drawn = points.clone();
+    let colour = if ui.visuals().dark_mode {
+        Color32::from_gray(235)
+    } else {
+        Color32::from_gray(20)
+    };
     Plot::new(("library-kc", crop.id.as_str()))
-        .height(220.0)
-        .legend(Legend::default())
+        .height(260.0)
+        .legend(Legend::default().position(egui_plot::Corner::RightBottom))
         .x_axis_label("Days after planting (d)")
         .y_axis_label("Kc (–)")
         .include_y(0.0)
@@ -1016,23 +1030,28 @@ fn kc_plot(ui: &mut Ui, crop: &Crop) -> Vec<[f64; 2]> {
         .show(ui, |plot| {
             for ((end, name), fill) in ends
                 .iter()
-                .zip(["Initial", "Development", "Mid-season", "Late season"])
+                .zip(["initial", "development", "mid-season", "late season"])
                 .zip(STAGE_FILL)
             {
                 let e = f64::from(*end);
+                // Unnamed: the shading stays out of the legend; the stage
+                // is written on it instead.
                 plot.polygon(
-                    Polygon::new(
-                        format!("{name} stage"),
-                        vec![[start, 0.0], [e, 0.0], [e, top], [start, top]],
-                    )
-                    .fill_color(fill)
-                    .stroke(egui::Stroke::NONE),
+                    Polygon::new("", vec![[start, 0.0], [e, 0.0], [e, top], [start, top]])
+                        .fill_color(fill)
+                        .stroke(egui::Stroke::NONE),
                 );
+                plot.text(Text::new(
+                    "",
+                    PlotPoint::new(0.5 * (start + e), top - 0.05),
+                    RichText::new(name).small(),
+                ));
                 start = e;
             }
             plot.line(
                 Line::new(format!("Kc, {}", crop.name), points)
-                    .color(Color32::from_rgb(20, 20, 20)),
+                    .color(colour)
+                    .width(2.0),
             );
         });
     drawn
