@@ -599,7 +599,7 @@ impl OfftakeApp {
         let mut answer = None;
         egui::Window::new("Import weather")
             .collapsible(false)
-            .default_width(640.0)
+            .default_size([820.0, 820.0])
             .show(ctx, |ui| answer = crate::import::ui(ui, job));
         match answer {
             Some(crate::import::ImportAnswer::Use {

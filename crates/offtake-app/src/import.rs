@@ -1050,7 +1050,7 @@ pub fn ui(ui: &mut Ui, job: &mut ImportJob) -> Option<ImportAnswer> {
     }
     if job.result.is_some() {
         egui::ScrollArea::vertical()
-            .max_height(560.0)
+            .max_height(ui.available_height().max(300.0))
             .show(ui, |ui| {
                 settings_ui(ui, job);
                 ui.separator();
