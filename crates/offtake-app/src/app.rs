@@ -14,7 +14,7 @@ use offtake_core::project::Project;
 use offtake_io::library::Libraries;
 
 use crate::command::{Command, HelpWindow, ItemRef, PanelKind, Selection};
-use crate::compute::{ComputeFn, Computed, Snapshot};
+use crate::compute::{ComputeFn, Computed, SeasonRequest, Snapshot};
 use crate::document::OpenDocument;
 use crate::edit::DocEdit;
 use crate::history::History;
@@ -97,7 +97,15 @@ pub struct OfftakeApp {
     pub import: Option<crate::import::ImportJob>,
     /// The crop and soil library window.
     pub library_editor: crate::library_editor::LibraryEditor,
+    /// What the last request asked of the worker besides the project: the
+    /// season, and whether to compare the scenarios.
+    requested: (Option<SeasonRequest>, bool),
+    /// A running export of the result tables.
+    export_job: Option<Receiver<ExportOutcome>>,
 }
+
+/// The folder an export wrote to and the files written, or why it failed.
+type ExportOutcome = (std::path::PathBuf, Result<Vec<String>, String>);
 
 impl std::fmt::Debug for OfftakeApp {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
@@ -164,6 +172,8 @@ impl OfftakeApp {
             offer_recovery: false,
             import: None,
             library_editor: crate::library_editor::LibraryEditor::default(),
+            requested: (None, false),
+            export_job: None,
         }
     }
 
@@ -287,7 +297,11 @@ impl OfftakeApp {
             let snapshot = Snapshot {
                 project: doc.project.clone(),
                 project_path: doc.path.clone(),
+                season: self.season_request(),
+                scenario: self.state.scenario.clone(),
+                compare: self.state.tab == crate::command::Tab::Compare,
             };
+            self.requested = (snapshot.season.clone(), snapshot.compare);
             self.worker.request(snapshot, Instant::now());
             self.state.recompute = RecomputeStatus::Running;
         }
@@ -349,6 +363,7 @@ impl OfftakeApp {
     pub fn ui(&mut self, ui: &mut Ui) {
         self.shortcuts(ui);
         self.receive_images();
+        self.poll_export(ui.ctx());
         self.poll_worker(ui.ctx());
         let mut commands = std::mem::take(&mut self.commands);
         let project_open = self.project_open();
@@ -406,16 +421,26 @@ impl OfftakeApp {
         }
         egui::CentralPanel::default().show(ui, |ui| {
             if let Some(p) = project {
-                ui.label(format!(
-                    "Selection: {}",
-                    tree::breadcrumb(p, &self.state.selection).join(" › ")
-                ));
+                ui.horizontal(|ui| {
+                    ui.label(format!(
+                        "Selection: {}",
+                        tree::breadcrumb(p, &self.state.selection).join(" › ")
+                    ));
+                    if let Some(name) = &self.state.scenario {
+                        ui.separator();
+                        ui.label(
+                            egui::RichText::new(format!("Results of scenario {name}"))
+                                .color(ui.visuals().warn_fg_color),
+                        );
+                    }
+                });
             }
             let view = View {
                 project_open,
                 project,
                 selection: &self.state.selection,
                 computed: self.computed.as_ref(),
+                scenario: self.state.scenario.as_deref(),
             };
             self.tabs.ui(ui, self.state.tab, &view, &mut commands);
         });
@@ -432,6 +457,12 @@ impl OfftakeApp {
         }
         for command in commands {
             self.apply(command, ui.ctx());
+        }
+        // A new selection or season year: ask the worker for that season's
+        // balance (the engine results are reused from its cache).
+        let wants_compare = self.state.tab == crate::command::Tab::Compare;
+        if self.season_request() != self.requested.0 || (wants_compare && !self.requested.1) {
+            self.request_recompute();
         }
         self.autosave(false);
     }
@@ -522,10 +553,16 @@ impl OfftakeApp {
             }
             Command::ImportWeather => self.import_weather(),
             Command::ExportWorkbook => {
-                self.state.message = Some(
-                    "Weather import and workbook export are not available in this build yet"
-                        .to_owned(),
-                );
+                if self.dialogs {
+                    if let Some(dir) = rfd::FileDialog::new()
+                        .set_title("Folder for the result tables and workbook")
+                        .pick_folder()
+                    {
+                        self.export_tables_to(&dir);
+                    }
+                } else {
+                    self.state.message = Some("File dialogs are off".to_owned());
+                }
             }
             Command::DiscardAndRun(inner) => {
                 self.clear_recovery();
@@ -535,7 +572,33 @@ impl OfftakeApp {
             Command::ExportPlotImage { file_name, rect } => {
                 self.request_plot_image(ctx, file_name, rect);
             }
+            Command::SetSeasonYear(year) => self.state.season_year = Some(year),
+            Command::ShowScenario(name) => {
+                self.state.scenario = name;
+                self.request_recompute();
+            }
         }
+    }
+
+    /// The season the Water balance and Crop curves tabs show: the selected
+    /// planting (a block: its first planting; otherwise the project's first)
+    /// in the chosen year, by default the headworks design year.
+    pub fn season_request(&self) -> Option<SeasonRequest> {
+        let project = &self.document.as_ref()?.project;
+        let planting = match &self.state.selection {
+            Selection::Item(ItemRef::Planting(id)) => {
+                project.plantings.iter().find(|p| p.id == *id)
+            }
+            Selection::Item(ItemRef::Block(id)) => {
+                project.plantings.iter().find(|p| p.block == *id)
+            }
+            _ => None,
+        }
+        .or_else(|| project.plantings.first())?;
+        Some(SeasonRequest {
+            planting: planting.id.clone(),
+            year: self.state.season_year,
+        })
     }
 
     /// Opens the invented demo scheme shipped in `demo-projects/` (first start).
@@ -858,6 +921,66 @@ impl OfftakeApp {
             // The receiver lives as long as the app; a closed window drops the image.
             let _ = tx.send(PendingImage { file_name, image });
             repaint.request_repaint();
+        });
+    }
+
+    /// Writes the result tables and workbook of the current results into
+    /// `dir` on a background thread (the same files as `offtake run`); the
+    /// status line reports the outcome.
+    pub fn export_tables_to(&mut self, dir: &std::path::Path) {
+        let run = self
+            .computed
+            .as_ref()
+            .and_then(|c| c.engine.as_ref())
+            .and_then(|e| e.as_ref().ok())
+            .map(|r| Arc::clone(&r.results));
+        let (Some(results), Some(doc)) = (run, &self.document) else {
+            self.state.message = Some(
+                "Nothing to export yet: the scheme needs weather and a finished computation"
+                    .to_owned(),
+            );
+            return;
+        };
+        let project = doc.project.clone();
+        let dir = dir.to_path_buf();
+        let (tx, rx) = mpsc::channel();
+        std::thread::spawn(move || {
+            let outcome = crate::export::write_tables(&results, &project, &dir);
+            let _ = tx.send((dir, outcome));
+        });
+        self.export_job = Some(rx);
+        self.state.message = Some("Writing the result tables…".to_owned());
+    }
+
+    /// Blocks until a running export finishes (at most `timeout`). For tests.
+    pub fn wait_for_export(&mut self, timeout: Duration) {
+        if let Some(rx) = self.export_job.take() {
+            match rx.recv_timeout(timeout) {
+                Ok(done) => self.export_done(done),
+                Err(_) => self.export_job = Some(rx),
+            }
+        }
+    }
+
+    fn poll_export(&mut self, ctx: &egui::Context) {
+        if let Some(rx) = self.export_job.take() {
+            match rx.try_recv() {
+                Ok(done) => self.export_done(done),
+                Err(mpsc::TryRecvError::Empty) => {
+                    self.export_job = Some(rx);
+                    ctx.request_repaint_after(Duration::from_millis(100));
+                }
+                Err(mpsc::TryRecvError::Disconnected) => {
+                    self.state.message = Some("The export stopped unexpectedly".to_owned());
+                }
+            }
+        }
+    }
+
+    fn export_done(&mut self, (dir, outcome): ExportOutcome) {
+        self.state.message = Some(match outcome {
+            Ok(files) => format!("Wrote {} to {}", files.join(", "), dir.display()),
+            Err(e) => format!("Export failed: {e}"),
         });
     }
 

@@ -153,4 +153,9 @@ pub enum Command {
     DiscardAndRun(Box<Command>),
     /// Open the crop or soil library editor.
     ShowLibrary(crate::library_editor::LibraryKind),
+    /// Show the season starting in this year on the Water balance and Crop
+    /// curves tabs.
+    SetSeasonYear(i32),
+    /// Show the results of a scenario (`None` = the base plan) in every tab.
+    ShowScenario(Option<String>),
 }

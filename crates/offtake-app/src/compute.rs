@@ -5,8 +5,11 @@
 //! [`Computed`] of the last finished run; nothing is computed in a frame.
 
 use std::path::PathBuf;
+use std::sync::Arc;
 
 use chrono::NaiveDate;
+use offtake_core::balance::BalanceDay;
+use offtake_core::engine::{self, Comparison, PreparedWeather, Results};
 use offtake_core::project::{Project, ValidationContext};
 use offtake_core::weather::WeatherDay;
 use offtake_io::library::Libraries;
@@ -28,6 +31,65 @@ pub struct Computed {
     pub scheme_area_ha: f64,
     /// Area commanded by each canal (ha), by canal id, in document order.
     pub canal_area_ha: Vec<(String, f64)>,
+    /// The whole chain (offtake-core `engine::run`): demand at every node,
+    /// design values, plantings, roster. `None` without weather; the error
+    /// text when the engine cannot compute the project.
+    pub engine: Option<Result<EngineRun, String>>,
+    /// The daily balance of one planting's season, when a tab asked for it.
+    pub season: Option<Result<SeasonView, String>>,
+    /// Every scenario side by side (offtake-core `engine::compare`), when the
+    /// project has scenarios.
+    pub comparison: Option<Result<Comparison, String>>,
+}
+
+/// One engine run, shared without copying between the worker and the tabs.
+#[derive(Clone)]
+pub struct EngineRun {
+    /// Everything the engine computed.
+    pub results: Arc<Results>,
+}
+
+impl PartialEq for EngineRun {
+    fn eq(&self, other: &Self) -> bool {
+        Arc::ptr_eq(&self.results, &other.results)
+    }
+}
+
+impl std::fmt::Debug for EngineRun {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.debug_struct("EngineRun")
+            .field("scheme", &self.results.scheme_name)
+            .field("days", &self.results.days)
+            .finish_non_exhaustive()
+    }
+}
+
+/// A planting and the year its season starts, asked for by the Water
+/// balance and Crop curves tabs.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct SeasonRequest {
+    /// Planting id.
+    pub planting: String,
+    /// Calendar year of the season's first planting day (`None` = the
+    /// start year of the headworks design year).
+    pub year: Option<i32>,
+}
+
+/// The daily balance of one season of one planting (area-weighted over its
+/// cohorts), from offtake-core `planting::season_detail`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SeasonView {
+    /// What was asked.
+    pub request: SeasonRequest,
+    /// The year shown (the one asked, or the design year's).
+    pub year: i32,
+    /// Date of `days[0]`.
+    pub first_date: NaiveDate,
+    /// Whether the whole season is inside the weather record.
+    pub complete: bool,
+    /// One row per day: ET₀, Kc (climate-adjusted), ETc, rain, irrigation,
+    /// depletion, TAW, RAW, Ks.
+    pub days: Vec<BalanceDay>,
 }
 
 /// The library Kc curve of one crop over one season length.
@@ -103,6 +165,13 @@ pub struct Snapshot {
     pub project: Project,
     /// The project file, if the project was opened or saved.
     pub project_path: Option<PathBuf>,
+    /// The season whose daily balance a tab shows, if any.
+    pub season: Option<SeasonRequest>,
+    /// The scenario whose results the tabs show (`None` = the base plan).
+    pub scenario: Option<String>,
+    /// Whether to run every scenario for the Compare tab (only while it is
+    /// shown: the comparison costs one engine run per scenario).
+    pub compare: bool,
 }
 
 /// The compute function the worker runs: a snapshot in, results out.
@@ -154,7 +223,7 @@ fn et0_band(
 /// A weather file read once and kept while its path and modification time
 /// stay the same.
 struct WeatherCache {
-    key: Option<(PathBuf, Option<std::time::SystemTime>, String)>,
+    key: Option<WeatherKey>,
     days: Result<Vec<WeatherDay>, String>,
     warnings: Vec<String>,
     /// ET₀ results of the last run and the station and method they used:
@@ -171,6 +240,7 @@ pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
         warnings: Vec::new(),
         et0: None,
     };
+    let mut engine_cache = EngineCache::default();
     Box::new(move |snap: Snapshot| {
         // The project's own crops and soils replace library entries with the same id.
         let libraries = if snap.project.user_crops.is_empty() && snap.project.user_soils.is_empty()
@@ -200,7 +270,235 @@ pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
                 Err(e) => out.warnings.push(e),
             }
         }
+        if let (Some(_), Ok(days)) = (&out.weather, &cache.days) {
+            let key = cache.key.clone();
+            engine_cache.update(&snap, key, days, &libraries);
+            if snap.compare {
+                engine_cache.compare(&snap.project, days, &libraries);
+            }
+            out.engine = engine_cache.run.clone();
+            out.comparison = engine_cache.comparison.clone();
+            if let Some(Ok(run)) = &out.engine {
+                out.warnings.extend(run.results.warnings.iter().cloned());
+            } else if let Some(Err(e)) = &out.engine {
+                out.warnings.push(format!("computation: {e}"));
+            }
+            if let Some(req) = &snap.season {
+                out.season = Some(engine_cache.season(&snap.project, days, &libraries, req));
+            }
+        }
+        out.warnings.dedup();
         out
+    })
+}
+
+/// The weather file, its modification time and the project's import
+/// settings (column mapping, units, date format), as text.
+type WeatherKey = (PathBuf, Option<std::time::SystemTime>, String);
+
+/// What engine results depend on: the project, the scenario shown, the
+/// weather file.
+type EngineKey = (Project, Option<String>, Option<WeatherKey>);
+
+/// Engine results kept while the project and the weather file stay the same
+/// (a selection change asks only for a season's balance).
+#[derive(Default)]
+struct EngineCache {
+    key: Option<EngineKey>,
+    run: Option<Result<EngineRun, String>>,
+    comparison: Option<Result<Comparison, String>>,
+    /// Weather prepared as the engine prepares it (gaps filled), for season
+    /// details; kept while the weather file, station, ET₀ method and weather
+    /// perturbation stay the same (edits of the scheme do not change it).
+    prepared: Option<(String, Result<Arc<PreparedWeather>, String>)>,
+}
+
+impl EngineCache {
+    fn update(
+        &mut self,
+        snap: &Snapshot,
+        weather_key: Option<WeatherKey>,
+        days: &[WeatherDay],
+        libraries: &Libraries,
+    ) {
+        let scenario = snap
+            .scenario
+            .clone()
+            .filter(|name| snap.project.scenario(name).is_some());
+        let key = (snap.project.clone(), scenario.clone(), weather_key);
+        if self.key.as_ref() == Some(&key) {
+            return;
+        }
+        let same_base = self
+            .key
+            .as_ref()
+            .is_some_and(|k| k.0 == key.0 && k.2 == key.2);
+        self.key = Some(key);
+        let results = engine::run_scenario(
+            &snap.project,
+            scenario.as_deref(),
+            &libraries.crops,
+            &libraries.soils,
+            days,
+        );
+        self.run = Some(
+            results
+                .map(|r| EngineRun {
+                    results: Arc::new(r),
+                })
+                .map_err(|e| e.to_string()),
+        );
+        if !same_base {
+            self.comparison = None;
+        }
+    }
+
+    /// The comparison of every scenario, computed once per project.
+    fn compare(&mut self, project: &Project, days: &[WeatherDay], libraries: &Libraries) {
+        if self.comparison.is_none() && !project.scenarios.is_empty() {
+            self.comparison = Some(
+                engine::compare_scenarios(project, &libraries.crops, &libraries.soils, days)
+                    .map_err(|e| e.to_string()),
+            );
+        }
+    }
+
+    fn season(
+        &mut self,
+        project: &Project,
+        days: &[WeatherDay],
+        libraries: &Libraries,
+        req: &SeasonRequest,
+    ) -> Result<SeasonView, String> {
+        // The scenario shown applies to the season too.
+        let scenario = self.key.as_ref().and_then(|k| k.1.clone());
+        let (project, perturbation) = match scenario.as_deref() {
+            Some(name) => (
+                project.apply_scenario(name).map_err(|e| e.to_string())?,
+                project
+                    .scenario(name)
+                    .map(|s| s.weather)
+                    .unwrap_or_default(),
+            ),
+            None => (
+                project.clone(),
+                offtake_core::project::WeatherPerturbation::default(),
+            ),
+        };
+        let key = format!(
+            "{:?} {:?} {:?} {:?}",
+            self.key.as_ref().map(|k| &k.2),
+            engine::site_of(&project),
+            project.options.et0_method,
+            perturbation
+        );
+        if self.prepared.as_ref().is_none_or(|p| p.0 != key) {
+            let w = prepared_weather(&project, days, &perturbation).map(Arc::new);
+            self.prepared = Some((key, w));
+        }
+        let prepared = self
+            .prepared
+            .as_ref()
+            .map_or_else(|| Err(String::new()), |p| p.1.clone())?;
+        let project = &project;
+        let design_year = self
+            .run
+            .as_ref()
+            .and_then(|r| r.as_ref().ok())
+            .and_then(|r| r.results.headworks().map(|h| h.design_year.start_year()));
+        season_view(project, libraries, &prepared, req, design_year)
+    }
+}
+
+/// The weather as the engine prepares it for the plantings: days that the
+/// ET₀ checks reject become gaps (rain kept) and gaps are filled (offtake-core
+/// `gapfill::repair_for_daily_balance`, default options, the engine's call),
+/// then ET₀, u2 and RHmin per day.
+///
+/// # Errors
+/// The engine's error text.
+pub fn prepared_weather(
+    project: &Project,
+    days: &[WeatherDay],
+    perturbation: &offtake_core::project::WeatherPerturbation,
+) -> Result<PreparedWeather, String> {
+    use offtake_core::et0::{Et0Context, Et0Options};
+    use offtake_core::gapfill::{GapFillOptions, repair_for_daily_balance};
+    let site = engine::site_of(project);
+    let checker = Et0Context::new(&site, &Et0Options::default()).map_err(|e| e.to_string())?;
+    let filled = repair_for_daily_balance(days, &GapFillOptions::default(), |d| {
+        checker.et0_mm_day(d).map(|_| ()).map_err(|e| e.to_string())
+    })
+    .map_err(|e| e.to_string())?
+    .filled;
+    engine::weather_prep::prepare_weather(
+        &filled.days,
+        &site,
+        project.options.et0_method,
+        perturbation,
+    )
+    .map_err(|e| e.to_string())
+}
+
+/// One season's daily balance of a planting, set up exactly as the engine
+/// sets up its planting step (`engine::planting_step::simulate_planting`).
+///
+/// # Errors
+/// A text naming the missing planting, block, crop or soil, or the planting
+/// module's error (e.g. no season starts in that year).
+pub fn season_view(
+    project: &Project,
+    libraries: &Libraries,
+    w: &PreparedWeather,
+    req: &SeasonRequest,
+    default_year: Option<i32>,
+) -> Result<SeasonView, String> {
+    use offtake_core::engine::planting_step::{
+        balance_strategy, coefficient_mode, effective_rain_method, is_paddy, paddy_inputs,
+    };
+    use offtake_core::planting::{PlantingSpec, PlantingWeather, season_detail};
+    let p = project
+        .plantings
+        .iter()
+        .find(|p| p.id == req.planting)
+        .ok_or_else(|| format!("planting {:?} is not in the project", req.planting))?;
+    let b = project
+        .blocks
+        .iter()
+        .find(|b| b.id == p.block)
+        .ok_or_else(|| format!("planting {:?}: block {:?} does not exist", p.id, p.block))?;
+    let crop = libraries
+        .crop(&p.crop)
+        .ok_or_else(|| format!("crop {:?} is not in the crop library", p.crop))?;
+    let soil = libraries
+        .soil(&b.soil)
+        .ok_or_else(|| format!("soil {:?} is not in the soil library", b.soil))?;
+    let mut spec = PlantingSpec::new(crop, soil, p.first_planting.month, p.first_planting.day);
+    spec.spread_days = p.spread_days;
+    spec.season_length_days = p.season_length_days;
+    spec.strategy = balance_strategy(p.strategy, crop);
+    spec.effective_rain = effective_rain_method(project.options.effective_rain, crop, soil);
+    spec.coefficients = coefficient_mode(p, b).0;
+    if is_paddy(crop) {
+        spec.paddy = Some(paddy_inputs(p).paddy_options());
+    }
+    let weather = PlantingWeather {
+        start: w.start,
+        et0_mm: &w.et0_mm,
+        rain_mm: &w.rain_mm,
+        wind_2m_ms: &w.wind_2m_ms,
+        rhmin_pct: &w.rhmin_pct,
+    };
+    let year = req.year.or(default_year).ok_or_else(|| {
+        "no complete irrigation year in the weather record to take the season from".to_owned()
+    })?;
+    let detail = season_detail(&spec, &weather, year).map_err(|e| e.to_string())?;
+    Ok(SeasonView {
+        request: req.clone(),
+        year,
+        first_date: detail.first_date,
+        complete: detail.complete,
+        days: detail.days,
     })
 }
 
@@ -359,5 +657,8 @@ pub fn summarize(project: &Project, libraries: &Libraries) -> Computed {
         kc_curves,
         scheme_area_ha: project.scheme_area_ha(),
         canal_area_ha,
+        engine: None,
+        season: None,
+        comparison: None,
     }
 }

@@ -62,6 +62,8 @@ pub enum DocEdit {
     SetWeather(WeatherSource),
     /// Replace the options.
     SetOptions(Options),
+    /// Replace the list of scenarios.
+    SetScenarios(Vec<offtake_core::project::Scenario>),
     /// Replace the canal whose id is `id` (the new record may change the
     /// name, parent, efficiencies; its id must stay `id`).
     SetCanal {
@@ -253,6 +255,9 @@ impl Edit<Project> for DocEdit {
             DocEdit::SetScheme(s) => DocEdit::SetScheme(std::mem::replace(&mut doc.scheme, s)),
             DocEdit::SetWeather(w) => DocEdit::SetWeather(std::mem::replace(&mut doc.weather, w)),
             DocEdit::SetOptions(o) => DocEdit::SetOptions(std::mem::replace(&mut doc.options, o)),
+            DocEdit::SetScenarios(s) => {
+                DocEdit::SetScenarios(std::mem::replace(&mut doc.scenarios, s))
+            }
             DocEdit::SetCanal { id, canal } => {
                 let old = replace(&mut doc.canals, &id, *canal, |c| c.id.as_str())?;
                 DocEdit::SetCanal {
@@ -290,6 +295,7 @@ impl Edit<Project> for DocEdit {
             DocEdit::SetScheme(_) => "edit scheme".to_owned(),
             DocEdit::SetWeather(_) => "edit weather source".to_owned(),
             DocEdit::SetOptions(_) => "edit options".to_owned(),
+            DocEdit::SetScenarios(_) => "edit scenarios".to_owned(),
             DocEdit::SetCanal { canal, .. } => format!("edit canal {}", canal.name),
             DocEdit::SetBlock { block, .. } => format!("edit block {}", block.name),
             DocEdit::SetPlanting { planting, .. } => format!("edit planting {}", planting.crop),

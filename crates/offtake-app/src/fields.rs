@@ -90,6 +90,23 @@ pub fn format_number(v: f64, decimals: usize) -> String {
     }
 }
 
+/// A number rounded to `sig` significant figures, without exponent or
+/// trailing zeros after the point (5575 → "5580", 1.9163 → "1.92",
+/// 0.0412 → "0.0412"). Non-finite values show as "—".
+pub fn format_sig(v: f64, sig: i32) -> String {
+    if !v.is_finite() {
+        return "—".to_owned();
+    }
+    if v == 0.0 {
+        return "0".to_owned();
+    }
+    let magnitude = v.abs().log10().floor() as i32;
+    let decimals = (sig - 1 - magnitude).max(0);
+    let factor = 10f64.powi(sig - 1 - magnitude);
+    let rounded = (v * factor).round() / factor;
+    format_number(rounded, decimals as usize)
+}
+
 /// Parses what the user typed as a number in display units.
 ///
 /// # Errors
@@ -213,7 +230,18 @@ pub fn date_field(ui: &mut Ui, id: Id, label: &str, stored: NaiveDate) -> FieldO
 
 #[cfg(test)]
 mod tests {
-    use super::{Bounds, format_number, parse_number};
+    use super::{Bounds, format_number, format_sig, parse_number};
+
+    #[test]
+    fn three_significant_figures() {
+        assert_eq!(format_sig(5575.0, 3), "5580");
+        assert_eq!(format_sig(19_355.0, 3), "19400");
+        assert_eq!(format_sig(1.9163, 3), "1.92");
+        assert_eq!(format_sig(0.041_23, 3), "0.0412");
+        assert_eq!(format_sig(120.04, 3), "120");
+        assert_eq!(format_sig(0.0, 3), "0");
+        assert_eq!(format_sig(f64::NAN, 3), "—");
+    }
 
     #[test]
     fn range_message_names_quantity_range_and_unit() {

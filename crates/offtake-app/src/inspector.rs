@@ -118,9 +118,9 @@ pub fn ui(
             scheme_ui(ui, doc, commands);
             if !ctx.problems.is_empty() {
                 ui.separator();
-                ui.label(RichText::new(format!("Problems ({})", ctx.problems.len())).strong());
+                ui.label(RichText::new(format!("Data warnings ({})", ctx.problems.len())).strong());
                 for p in ctx.problems {
-                    ui.label(RichText::new(p).color(ui.visuals().error_fg_color));
+                    ui.label(RichText::new(p).color(ui.visuals().warn_fg_color));
                 }
             }
         }

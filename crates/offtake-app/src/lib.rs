@@ -14,6 +14,7 @@
 //! - [`worker`]: debounced background recomputation on a thread.
 //! - [`compute`]: what the worker computes ([`compute::Snapshot`] in,
 //!   [`compute::Computed`] out) — the plug for the computation chain.
+//! - [`export`]: the result tables and workbook, as `offtake run` writes them.
 //! - [`import`]: the weather import window (background read, preview, warnings).
 //! - [`library_editor`]: the crop and soil library editors (copy, edit, Kc curve).
 //! - [`recovery`]: autosave to a recovery file and restore after a crash.
@@ -26,14 +27,29 @@
 //! [`OfftakeApp::with_compute`] takes any
 //! `Box<dyn FnMut(compute::Snapshot) -> compute::Computed + Send>`; the
 //! default, [`compute::default_compute`], validates the project, reads the
-//! weather and computes ET₀ and the library Kc curves. Add a field to
-//! [`compute::Computed`], fill it there, and read it in a tab.
+//! weather (cached while the file is unchanged), computes ET₀ and the library
+//! Kc curves, and runs offtake-core's engine (`engine::run_scenario`, the
+//! call `offtake run` makes) for the scenario shown. Engine results are kept
+//! while the project, scenario and weather file stay the same, so a new
+//! selection or season year only computes that planting's season balance
+//! (`planting::season_detail`); the scenario comparison runs only while the
+//! Compare tab is shown. Add a field to [`compute::Computed`], fill it there,
+//! and read it in a tab.
+//!
+//! ## Measured (release build, 2-core shared machine, demo scheme, 25 years)
+//! Both with `cargo test --release -p offtake-app --test frame_time -- --ignored --nocapture`:
+//! - Recompute after an edit (a planting date): 45–85 ms of worker wall
+//!   time over three runs of six edits; the engine is nearly all of it.
+//! - Panning the 9131-day headworks hydrograph: 0.7–1.1 ms mean egui CPU
+//!   time per frame (UI code and tessellation, no renderer), 95th
+//!   percentile 0.7–4.9 ms, worst frame 4.8–8.8 ms.
 
 pub mod app;
 pub mod command;
 pub mod compute;
 pub mod document;
 pub mod edit;
+pub mod export;
 pub mod fields;
 pub mod help;
 pub mod history;

@@ -38,6 +38,22 @@ pub enum SeriesKind {
     Level,
     /// A vertical marker at the first point's x (stage ends, design year).
     Marker,
+    /// A line shaded down (or up) to a level: the area between the points
+    /// and `base` is filled (shortfall above a capacity).
+    Shaded {
+        /// The level the fill reaches (y units).
+        base: f64,
+    },
+    /// Bars stacked on the bars of the earlier `StackedBars` series of the
+    /// same plot at the same x (demand by crop or block).
+    StackedBars {
+        /// Bar width in x units.
+        width: f64,
+    },
+    /// A band of x ranges shaded over the whole height: each pair of
+    /// consecutive points is one `[x_start, x_end]` range (crop stages, the
+    /// design year).
+    Spans,
 }
 
 /// One named series of a plot.
@@ -215,15 +231,33 @@ fn hover_text(spec: &PlotSpec, pos: &HoverPosition<'_>) -> String {
             position,
             ..
         } => format!(
-            "{plot_name}\n{}: {:.3} {}",
+            "{plot_name}\n{}: {} {}",
             x_text(position.x),
-            position.y,
+            crate::fields::format_sig(position.y, 3),
             spec.y_unit
         ),
         HoverPosition::Elsewhere { position } => {
-            format!("{}\n{:.3} {}", x_text(position.x), position.y, spec.y_unit)
+            format!(
+                "{}\n{} {}",
+                x_text(position.x),
+                crate::fields::format_sig(position.y, 3),
+                spec.y_unit
+            )
         }
     }
+}
+
+/// The label of a date-axis tick: the ISO date where ticks are far apart
+/// (60 days or more), "14 Dec" where they are close, so that labels do not
+/// run into each other (day before month, never ambiguous).
+pub fn date_tick_label(x: f64, step_days: f64) -> String {
+    x_to_date(x).map_or_else(String::new, |d| {
+        if step_days >= 60.0 {
+            d.to_string()
+        } else {
+            d.format("%-d %b").to_string()
+        }
+    })
 }
 
 /// Draws the plot with its toolbar (reset zoom, CSV and PNG export).
@@ -253,9 +287,9 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
         .y_axis_label(spec.y_title.clone())
         .label_formatter(|pos| Some(hover_text(spec, pos)));
     plot = match &spec.x {
-        XAxis::Date => plot.x_axis_label("Date").x_axis_formatter(|mark, _| {
-            x_to_date(mark.value).map_or_else(String::new, |d| d.to_string())
-        }),
+        XAxis::Date => plot
+            .x_axis_label("Date")
+            .x_axis_formatter(|mark, _| date_tick_label(mark.value, mark.step_size)),
         XAxis::Quantity { title, .. } => plot.x_axis_label(title.clone()),
     };
     if reset {
@@ -265,6 +299,7 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
     let response = plot.show(ui, |plot_ui| {
         let bounds = plot_ui.plot_bounds();
         let auto = plot_ui.auto_bounds();
+        let mut stack: std::collections::HashMap<u64, f64> = std::collections::HashMap::new();
         for s in &spec.series {
             match s.kind {
                 SeriesKind::Line => {
@@ -296,6 +331,44 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
                                 .style(s.style),
                         );
                     }
+                }
+                SeriesKind::Shaded { base } => {
+                    let pts = decimate_min_max(&s.points, width_px);
+                    plot_ui.line(
+                        Line::new(s.name.clone(), PlotPoints::from(pts))
+                            .color(s.colour)
+                            .style(s.style)
+                            .fill(base as f32)
+                            .fill_alpha(0.45),
+                    );
+                }
+                SeriesKind::StackedBars { width } => {
+                    let bars = s
+                        .points
+                        .iter()
+                        .map(|p| {
+                            let key = p[0].to_bits();
+                            let base = stack.get(&key).copied().unwrap_or(0.0);
+                            stack.insert(key, base + p[1]);
+                            Bar::new(p[0], p[1]).width(width).base_offset(base)
+                        })
+                        .collect();
+                    plot_ui.bar_chart(BarChart::new(s.name.clone(), bars).color(s.colour));
+                }
+                SeriesKind::Spans => {
+                    let bars = s
+                        .points
+                        .chunks_exact(2)
+                        .map(|r| {
+                            let (a, b) = (r[0][0], r[1][0]);
+                            Bar::new(0.5 * (a + b), r[0][1])
+                                .width((b - a).abs())
+                                .base_offset(r[1][1])
+                        })
+                        .collect();
+                    plot_ui.bar_chart(
+                        BarChart::new(s.name.clone(), bars).color(s.colour.gamma_multiply(0.25)),
+                    );
                 }
                 SeriesKind::Level => {
                     if let Some(p) = s.points.first() {

@@ -107,6 +107,11 @@ pub struct RuntimeState {
     pub warning_count: usize,
     /// A pending "discard unsaved changes?" question.
     pub confirm_discard: Option<Discard>,
+    /// Year of the season the Water balance and Crop curves tabs show
+    /// (`None` = the headworks design year).
+    pub season_year: Option<i32>,
+    /// The scenario whose results the tabs show (`None` = the base plan).
+    pub scenario: Option<String>,
 }
 
 impl Default for RuntimeState {
@@ -121,6 +126,8 @@ impl Default for RuntimeState {
             recompute: RecomputeStatus::NothingToCompute,
             warning_count: 0,
             confirm_discard: None,
+            season_year: None,
+            scenario: None,
         }
     }
 }

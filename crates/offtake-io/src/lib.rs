@@ -9,4 +9,5 @@
 pub mod export;
 pub mod library;
 pub mod project_file;
+pub mod results;
 pub mod weather;

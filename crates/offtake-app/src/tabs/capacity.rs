@@ -1,15 +1,206 @@
-//! The Canal capacity tab: the node hydrograph with design flow and existing
-//! capacity, and the table of design values per canal.
+//! The Canal capacity tab: the node hydrograph (daily demand in l/s) with
+//! the design flow (dashed) and the existing capacity (dotted), shortfall
+//! shaded; the table of design values per canal and headworks, and how the
+//! design flow was computed.
 
+use std::fmt::Write as _;
+use std::sync::Arc;
+
+use chrono::Days;
 use egui::{RichText, Ui};
+use offtake_core::engine::Results;
+use offtake_core::project::Project;
+use offtake_core::scheme::{DesignBasis, Node, NodeDesign};
 
-use super::{View, empty_state, no_project};
+use super::{View, empty_state, engine_results, no_project};
 use crate::command::{Command, ItemRef, Selection};
-use crate::fields::format_number;
+use crate::fields::{format_number, format_sig};
+use crate::palette::{CAPACITY, CAPACITY_STYLE, DESIGN_FLOW, DESIGN_FLOW_STYLE, OKABE_ITO};
+use crate::plot::{self, PlotSpec, Series, SeriesKind, XAxis, date_to_x};
+
+/// Which days the hydrograph shows.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum YearChoice {
+    /// The node's design year.
+    #[default]
+    Design,
+    /// The irrigation year starting in this calendar year.
+    Year(i32),
+    /// Every day of the weather record.
+    Record,
+}
 
 /// View state of the Canal capacity tab.
 #[derive(Debug, Default)]
-pub struct CanalCapacityTab {}
+pub struct CanalCapacityTab {
+    /// Days shown.
+    pub year: YearChoice,
+    /// The plot prepared for (results, node, days), reused while they stay.
+    cache: Option<(usize, Node, YearChoice, Arc<PlotSpec>)>,
+}
+
+/// The node the tab shows for a tree selection: a canal, a block's canal,
+/// or the headworks.
+pub fn node_of_selection(results: &Results, project: &Project, selection: &Selection) -> Node {
+    let canal = match selection {
+        Selection::Item(ItemRef::Canal(id)) => Some(id.as_str()),
+        Selection::Item(ItemRef::Block(id)) => project.block(id).map(|b| b.canal.as_str()),
+        Selection::Item(ItemRef::Planting(id)) => project
+            .plantings
+            .iter()
+            .find(|p| p.id == *id)
+            .and_then(|p| project.block(&p.block))
+            .map(|b| b.canal.as_str()),
+        _ => None,
+    };
+    canal
+        .and_then(|c| results.demand.network().canal_index(c))
+        .map_or(Node::Headworks, Node::Canal)
+}
+
+/// Display name of a node: the canal's name, or "Headworks".
+pub fn node_label(project: &Project, d: &NodeDesign) -> String {
+    match d.node {
+        Node::Headworks => "Headworks".to_owned(),
+        Node::Canal(_) => project
+            .canal(&d.name)
+            .map_or_else(|| d.name.clone(), |c| c.name.clone()),
+    }
+}
+
+fn basis_label(b: DesignBasis) -> &'static str {
+    match b {
+        DesignBasis::TenDay => "10-day",
+        DesignBasis::Monthly => "monthly",
+        DesignBasis::Daily => "daily",
+    }
+}
+
+/// The days of `choice` as an index range into the daily series.
+fn day_range(r: &Results, d: &NodeDesign, choice: YearChoice) -> std::ops::Range<usize> {
+    let year = match choice {
+        YearChoice::Record => return 0..r.days,
+        YearChoice::Design => Some(d.design_year),
+        YearChoice::Year(y) => r
+            .complete_years
+            .iter()
+            .copied()
+            .find(|iy| iy.start_year() == y),
+    };
+    let Some(year) = year else {
+        return 0..r.days;
+    };
+    let index = |date: chrono::NaiveDate| {
+        usize::try_from((date - r.start).num_days())
+            .unwrap_or(0)
+            .min(r.days)
+    };
+    index(year.start())..(index(year.end()) + 1).min(r.days)
+}
+
+fn hydrograph(r: &Results, project: &Project, d: &NodeDesign, choice: YearChoice) -> PlotSpec {
+    let flow_ls = r.demand.demand_ls(d.node);
+    let range = day_range(r, d, choice);
+    let x = |i: usize| date_to_x(r.start + Days::new(i as u64));
+    let demand: Vec<[f64; 2]> = range
+        .clone()
+        .filter_map(|i| flow_ls.get(i).map(|q| [x(i), *q]))
+        .collect();
+    let label = node_label(project, d);
+    let mut series = Vec::new();
+    if let Some(cap) = d.existing_capacity_ls
+        && demand.iter().any(|p| p[1] > cap)
+    {
+        series.push(Series {
+            name: "Shortfall above existing capacity".to_owned(),
+            points: demand.iter().map(|p| [p[0], p[1].max(cap)]).collect(),
+            colour: OKABE_ITO[6],
+            style: egui_plot::LineStyle::Solid,
+            kind: SeriesKind::Shaded { base: cap },
+        });
+    }
+    series.push(Series::line(
+        format!("Demand at {label} (l/s)"),
+        demand,
+        OKABE_ITO[2],
+    ));
+    series.push(Series {
+        name: format!("Design flow {} l/s", format_sig(d.design_flow_ls, 3)),
+        points: vec![[0.0, d.design_flow_ls]],
+        colour: DESIGN_FLOW,
+        style: DESIGN_FLOW_STYLE,
+        kind: SeriesKind::Level,
+    });
+    if let Some(cap) = d.existing_capacity_ls {
+        series.push(Series {
+            name: format!("Existing capacity {} l/s", format_sig(cap, 3)),
+            points: vec![[0.0, cap]],
+            colour: CAPACITY,
+            style: CAPACITY_STYLE,
+            kind: SeriesKind::Level,
+        });
+    }
+    let days = match choice {
+        YearChoice::Record => "record".to_owned(),
+        _ => day_range(r, d, choice).start.to_string(),
+    };
+    PlotSpec {
+        id: format!("hydrograph-{}-{days}", d.name),
+        x: XAxis::Date,
+        y_title: "Flow (l/s)".to_owned(),
+        y_unit: "l/s".to_owned(),
+        series,
+    }
+}
+
+/// The "How was this computed?" text of a node's design flow.
+pub fn explanation(project: &Project, r: &Results, d: &NodeDesign) -> String {
+    let n = d.years.len();
+    let first = r
+        .complete_years
+        .first()
+        .map(|y| y.label())
+        .unwrap_or_default();
+    let last = r
+        .complete_years
+        .last()
+        .map(|y| y.label())
+        .unwrap_or_default();
+    let basis = basis_label(d.basis);
+    let mut t = format!(
+        "Design flow of {} = {} l/s: the {} % non-exceedance value of the yearly peak {basis} mean flow \
+         over the N = {n} complete irrigation years {first} to {last} (years start in month {}; \
+         incomplete years at the ends of the record are left out). The yearly peaks are ranked and \
+         given Weibull plotting positions m/(n+1), and the design flow is interpolated between \
+         ranks. Design year {}: the year whose peak is closest to the design flow.\n",
+        node_label(project, d),
+        format_sig(d.design_flow_ls, 3),
+        format_number(d.non_exceedance * 100.0, 1),
+        project.options.irrigation_year_start_month,
+        d.design_year.label(),
+    );
+    let _ = writeln!(
+        t,
+        "Required capacity = design flow × 24 h ÷ {} h of operation per day = {} l/s.",
+        format_number(d.hours_per_day, 1),
+        format_sig(d.required_capacity_ls, 3)
+    );
+    if let Some(duty) = d.duty_ls_ha {
+        let _ = writeln!(
+            t,
+            "Duty = design flow ÷ {} ha commanded = {} l/s/ha.",
+            format_sig(d.area_ha, 3),
+            format_sig(duty, 3)
+        );
+    }
+    t.push_str(
+        "Demand at a node = Σ block NIR ÷ (application efficiency Ea × field-canal efficiency Eb), \
+         then ÷ the conveyance efficiency Ec of each canal from the block up to the node. \
+         Block NIR comes from each planting's daily FAO-56 root-zone water balance \
+         (FAO Irrigation and Drainage Paper 56, ch. 8, eq. 85) on ET₀ from the project's method.",
+    );
+    t
+}
 
 impl CanalCapacityTab {
     /// Draws the tab from the cached results.
@@ -30,60 +221,227 @@ impl CanalCapacityTab {
             );
             return;
         }
-        let areas = view.computed.map_or(&[][..], |c| &c.canal_area_ha[..]);
-        ui.label(
-            RichText::new(
-                "Design flows, duties and required capacities are not computed in this version yet; \
-                 the table shows the canal inputs and command areas.",
-            )
-            .weak(),
-        );
-        egui::ScrollArea::both().show(ui, |ui| {
-            egui::Grid::new("canal-table")
-                .striped(true)
-                .num_columns(7)
-                .show(ui, |ui| {
-                    for h in [
-                        "Canal",
-                        "Role",
-                        "Takes from",
-                        "Command area (ha)",
-                        "Conveyance Ec (%)",
-                        "Operation (h/day)",
-                        "Existing capacity (m³/s)",
-                    ] {
-                        ui.label(RichText::new(h).strong());
-                    }
-                    ui.end_row();
-                    for c in &project.canals {
-                        let me = Selection::Item(ItemRef::Canal(c.id.clone()));
-                        if ui
-                            .selectable_label(*view.selection == me, &c.name)
-                            .clicked()
-                        {
-                            commands.push(Command::Select(me));
-                        }
-                        ui.label(c.kind.label());
-                        ui.label(
-                            c.parent
-                                .as_deref()
-                                .and_then(|p| project.canal(p))
-                                .map_or("headworks", |p| p.name.as_str()),
-                        );
-                        let area = areas
+        let Some((run, r)) = engine_results(
+            ui,
+            view,
+            "The demand hydrograph and design flows of every canal appear here once the scheme is computed.",
+        ) else {
+            return;
+        };
+        let node = node_of_selection(r, project, view.selection);
+        let Some(d) = r.design.iter().find(|d| d.node == node) else {
+            empty_state(
+                ui,
+                "No design values for this node",
+                "Select a canal in the tree.",
+            );
+            return;
+        };
+        self.controls(ui, project, r, d, node, commands);
+        let key = Arc::as_ptr(&run.results) as usize;
+        let spec = match &self.cache {
+            Some((k, n, y, spec)) if *k == key && *n == node && *y == self.year => Arc::clone(spec),
+            _ => {
+                let spec = Arc::new(hydrograph(r, project, d, self.year));
+                self.cache = Some((key, node, self.year, Arc::clone(&spec)));
+                spec
+            }
+        };
+        egui::CollapsingHeader::new("How was this computed?")
+            .id_salt("capacity-how")
+            .show(ui, |ui| {
+                ui.label(explanation(project, r, d));
+                yearly_peaks(ui, d);
+            });
+        let table_height = (r.design.len() as f32 + 2.5) * 22.0 + 8.0;
+        let plot_height = (ui.available_height() - table_height - 12.0).max(180.0);
+        ui.allocate_ui(egui::vec2(ui.available_width(), plot_height), |ui| {
+            plot::show(ui, &spec, commands);
+        });
+        ui.separator();
+        design_table(ui, project, r, view.selection, commands);
+    }
+
+    fn controls(
+        &mut self,
+        ui: &mut Ui,
+        project: &Project,
+        r: &Results,
+        d: &NodeDesign,
+        node: Node,
+        commands: &mut Vec<Command>,
+    ) {
+        ui.horizontal(|ui| {
+            let mut chosen = node;
+            let current = node_label(project, d);
+            egui::ComboBox::from_label("Node")
+                .selected_text(current)
+                .show_ui(ui, |ui| {
+                    for n in std::iter::once(Node::Headworks).chain(
+                        r.design
                             .iter()
-                            .find(|(id, _)| *id == c.id)
-                            .map_or_else(|| "—".to_owned(), |(_, a)| format_number(*a, 1));
-                        ui.label(area);
-                        ui.label(format_number(c.conveyance_efficiency * 100.0, 1));
-                        ui.label(format_number(c.operating_hours_per_day, 1));
-                        ui.label(
-                            c.existing_capacity_m3s
-                                .map_or_else(|| "unknown".to_owned(), |q| format_number(q, 3)),
-                        );
-                        ui.end_row();
+                            .map(|x| x.node)
+                            .filter(|n| *n != Node::Headworks),
+                    ) {
+                        if let Some(x) = r.design.iter().find(|x| x.node == n) {
+                            ui.selectable_value(&mut chosen, n, node_label(project, x));
+                        }
+                    }
+                });
+            if chosen != node {
+                let sel = match chosen {
+                    Node::Headworks => Selection::Scheme,
+                    Node::Canal(_) => r
+                        .design
+                        .iter()
+                        .find(|x| x.node == chosen)
+                        .map_or(Selection::Scheme, |x| {
+                            Selection::Item(ItemRef::Canal(x.name.clone()))
+                        }),
+                };
+                commands.push(Command::Select(sel));
+            }
+            let text = |c: YearChoice| match c {
+                YearChoice::Design => format!("Design year ({})", d.design_year.label()),
+                YearChoice::Record => "Whole record".to_owned(),
+                YearChoice::Year(y) => r
+                    .complete_years
+                    .iter()
+                    .find(|iy| iy.start_year() == y)
+                    .map_or_else(|| y.to_string(), |iy| iy.label()),
+            };
+            egui::ComboBox::from_label("Irrigation year")
+                .selected_text(text(self.year))
+                .show_ui(ui, |ui| {
+                    ui.selectable_value(
+                        &mut self.year,
+                        YearChoice::Design,
+                        text(YearChoice::Design),
+                    );
+                    ui.selectable_value(
+                        &mut self.year,
+                        YearChoice::Record,
+                        text(YearChoice::Record),
+                    );
+                    for y in &r.complete_years {
+                        let c = YearChoice::Year(y.start_year());
+                        ui.selectable_value(&mut self.year, c, text(c));
                     }
                 });
         });
     }
+}
+
+/// The yearly peaks of a node, ranked, with their Weibull positions.
+fn yearly_peaks(ui: &mut Ui, d: &NodeDesign) {
+    let mut peaks: Vec<(String, f64)> = d
+        .years
+        .iter()
+        .map(|y| (y.year.label(), y.peak_ls(d.basis)))
+        .collect();
+    peaks.sort_by(|a, b| a.1.total_cmp(&b.1));
+    let n = peaks.len();
+    egui::CollapsingHeader::new(format!("Yearly peaks of {n} years, ranked"))
+        .id_salt("capacity-peaks")
+        .show(ui, |ui| {
+            egui::ScrollArea::vertical()
+                .max_height(160.0)
+                .show(ui, |ui| {
+                    egui::Grid::new("peaks").striped(true).show(ui, |ui| {
+                        for h in [
+                            "Rank m",
+                            "Irrigation year",
+                            &format!("Peak {} flow (l/s)", basis_label(d.basis)),
+                            "Non-exceedance m/(n+1) (%)",
+                        ] {
+                            ui.label(RichText::new(h).strong());
+                        }
+                        ui.end_row();
+                        for (i, (label, q)) in peaks.iter().enumerate() {
+                            ui.label((i + 1).to_string());
+                            ui.label(label);
+                            ui.label(format_sig(*q, 3));
+                            ui.label(format_number(100.0 * (i + 1) as f64 / (n + 1) as f64, 1));
+                            ui.end_row();
+                        }
+                    });
+                });
+        });
+}
+
+/// Column titles of the design table, with units.
+/// Two lines each, so that the table fits beside the tree and inspector.
+pub const DESIGN_TABLE_HEADERS: [&str; 9] = [
+    "Node",
+    "Area\n(ha)",
+    "Design flow\n(l/s)",
+    "Required capacity\n(l/s)",
+    "Existing capacity\n(l/s)",
+    "Peak 10-day\n(l/s)",
+    "Duty\n(l/s/ha)",
+    "Seasonal volume\n(Mm³)",
+    "Design\nyear",
+];
+
+fn design_table(
+    ui: &mut Ui,
+    project: &Project,
+    r: &Results,
+    selection: &Selection,
+    commands: &mut Vec<Command>,
+) {
+    egui::ScrollArea::both()
+        .id_salt("design-table")
+        .show(ui, |ui| {
+            egui::Grid::new("design-table-grid")
+                .striped(true)
+                .num_columns(DESIGN_TABLE_HEADERS.len())
+                .show(ui, |ui| {
+                    for h in DESIGN_TABLE_HEADERS {
+                        ui.label(RichText::new(h).strong());
+                    }
+                    ui.end_row();
+                    let rows = r
+                        .design
+                        .iter()
+                        .filter(|d| d.node == Node::Headworks)
+                        .chain(r.design.iter().filter(|d| d.node != Node::Headworks));
+                    for d in rows {
+                        let me = match d.node {
+                            Node::Headworks => Selection::Scheme,
+                            Node::Canal(_) => Selection::Item(ItemRef::Canal(d.name.clone())),
+                        };
+                        let label = node_label(project, d);
+                        if ui.selectable_label(*selection == me, label).clicked() {
+                            commands.push(Command::Select(me));
+                        }
+                        ui.label(format_sig(d.area_ha, 3));
+                        ui.label(RichText::new(format_sig(d.design_flow_ls, 3)).strong())
+                            .on_hover_text(explanation(project, r, d));
+                        ui.label(format_sig(d.required_capacity_ls, 3));
+                        match d.existing_capacity_ls {
+                            Some(cap) if cap < d.required_capacity_ls => {
+                                ui.label(
+                                    RichText::new(format!("{} (too small)", format_sig(cap, 3)))
+                                        .color(ui.visuals().error_fg_color),
+                                );
+                            }
+                            Some(cap) => {
+                                ui.label(format_sig(cap, 3));
+                            }
+                            None => {
+                                ui.label("—");
+                            }
+                        }
+                        ui.label(format_sig(d.peak_10day_ls, 3));
+                        ui.label(
+                            d.duty_ls_ha
+                                .map_or_else(|| "—".to_owned(), |v| format_sig(v, 3)),
+                        );
+                        ui.label(format_sig(d.seasonal_volume_m3 / 1.0e6, 3));
+                        ui.label(d.design_year.label());
+                        ui.end_row();
+                    }
+                });
+        });
 }

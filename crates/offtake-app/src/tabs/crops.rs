@@ -9,6 +9,15 @@ use crate::command::{Command, ItemRef, Selection};
 use crate::palette::colour_for_id;
 use crate::plot::{self, PlotSpec, Series, SeriesKind, XAxis};
 
+/// Shades of the four growth stages (light to dark grey-blue, distinguishable
+/// without colour vision by lightness).
+const STAGE_COLOURS: [egui::Color32; 4] = [
+    egui::Color32::from_rgb(200, 215, 230),
+    egui::Color32::from_rgb(150, 180, 210),
+    egui::Color32::from_rgb(90, 140, 190),
+    egui::Color32::from_rgb(150, 180, 210),
+];
+
 /// View state of the Crop curves tab.
 #[derive(Debug, Default)]
 pub struct CropCurvesTab {}
@@ -76,11 +85,15 @@ impl CropCurvesTab {
         }
         ui.label(
             RichText::new(
-                "Kc from the crop library (FAO-56 Table 12, stage lengths Table 11) by FAO-56 eq. 66, \
-                 before the climate adjustment of Kc mid and Kc end (eq. 62, 65).",
+                "Solid: Kc from the crop library (FAO-56 Table 12, stage lengths Table 11) by FAO-56 eq. 66, \
+                 before the climate adjustment. Dashed: the selected planting's Kc in one season, with Kc mid \
+                 and Kc end adjusted for wind and RHmin (eq. 62, 65) — choose the season below.",
             )
             .weak(),
         );
+        if view.computed.is_some_and(|c| c.engine.is_some()) {
+            let _ = super::season_with_picker(ui, view, commands);
+        }
         let mut series = Vec::new();
         for c in &curves {
             let name = format!("{} ({} d)", c.crop_name, c.season_days);
@@ -91,19 +104,53 @@ impl CropCurvesTab {
                     .collect();
             series.push(Series::line(name, points, colour_for_id(&c.crop)));
         }
+        // The climate-adjusted Kc of the season the worker computed for the
+        // selected planting (FAO-56 eq. 62 and 65 in the planting's balance),
+        // area-weighted over its cohorts, on the same days-after-planting axis.
+        let season = computed
+            .season
+            .as_ref()
+            .and_then(|s| s.as_ref().ok())
+            .filter(|s| wanted.contains(&s.request.planting));
+        if let Some(s) = season {
+            let points = s
+                .days
+                .iter()
+                .enumerate()
+                .map(|(i, d)| [(i + 1) as f64, d.kc])
+                .collect();
+            series.push(Series {
+                name: format!(
+                    "{} climate-adjusted, season {} (cohorts averaged)",
+                    s.request.planting, s.year
+                ),
+                points,
+                colour: egui::Color32::from_gray(210),
+                style: LineStyle::Dashed { length: 6.0 },
+                kind: SeriesKind::Line,
+            });
+        }
         if let [only] = curves[..] {
-            for (end, stage) in
-                only.stage_ends
-                    .iter()
-                    .zip(["initial", "development", "mid-season", "late season"])
+            let top = only.kc.iter().copied().fold(0.0_f64, f64::max) * 1.15 + 0.05;
+            let mut start = 0.0;
+            for (i, (end, stage)) in only
+                .stage_ends
+                .iter()
+                .zip(["Initial", "Development", "Mid-season", "Late season"])
+                .enumerate()
             {
-                series.push(Series {
-                    name: format!("End of {stage} stage"),
-                    points: vec![[f64::from(*end), 0.0]],
-                    colour: egui::Color32::GRAY,
-                    style: LineStyle::Dashed { length: 6.0 },
-                    kind: SeriesKind::Marker,
-                });
+                let end = f64::from(*end) + 0.5;
+                series.insert(
+                    i,
+                    Series {
+                        name: format!("{stage} stage"),
+                        points: vec![[start, top], [end, 0.0]],
+                        colour: STAGE_COLOURS[i],
+                        style: LineStyle::Solid,
+                        kind: SeriesKind::Spans,
+                    },
+                );
+                start = end;
             }
         }
         let spec = PlotSpec {

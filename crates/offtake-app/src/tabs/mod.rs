@@ -27,6 +27,8 @@ pub struct View<'a> {
     pub selection: &'a crate::command::Selection,
     /// Results of the last finished computation, if any.
     pub computed: Option<&'a Computed>,
+    /// The scenario whose results are shown (`None` = the base plan).
+    pub scenario: Option<&'a str>,
 }
 
 /// The view state of all tabs.
@@ -79,6 +81,110 @@ pub fn empty_state(ui: &mut Ui, headline: &str, next_step: &str) {
         ui.add_space(8.0);
         ui.label(next_step);
     });
+}
+
+/// The engine results for a tab, or an empty state saying why there are
+/// none (no weather, still computing, or the engine's error).
+pub fn engine_results<'a>(
+    ui: &mut Ui,
+    view: &View<'a>,
+    what_this_tab_shows: &str,
+) -> Option<(
+    &'a crate::compute::EngineRun,
+    &'a offtake_core::engine::Results,
+)> {
+    let project = view.project?;
+    if project.weather.path.trim().is_empty() {
+        empty_state(
+            ui,
+            "No weather yet — File › Import weather…",
+            what_this_tab_shows,
+        );
+        return None;
+    }
+    match view.computed.and_then(|c| c.engine.as_ref()) {
+        Some(Ok(run)) => Some((run, &run.results)),
+        Some(Err(e)) => {
+            empty_state(ui, "The scheme cannot be computed yet", e);
+            None
+        }
+        None => {
+            empty_state(
+                ui,
+                "Computing…",
+                "Results appear here when the background computation finishes (see the status bar).",
+            );
+            None
+        }
+    }
+}
+
+/// The season the worker computed for the Water balance and Crop curves
+/// tabs, with a year picker; `None` (after an empty state) when there is none.
+pub fn season_with_picker<'a>(
+    ui: &mut Ui,
+    view: &View<'a>,
+    commands: &mut Vec<Command>,
+) -> Option<&'a crate::compute::SeasonView> {
+    let (_, r) = engine_results(
+        ui,
+        view,
+        "A planting's daily root-zone balance appears here once the scheme is computed.",
+    )?;
+    let season = view.computed.and_then(|c| c.season.as_ref());
+    let Some(season) = season else {
+        empty_state(
+            ui,
+            "No planting to show",
+            "Select a planting (or a block) in the scheme tree.",
+        );
+        return None;
+    };
+    let asked = match season {
+        Ok(s) => (s.request.planting.clone(), s.year),
+        Err(e) => {
+            year_picker(ui, r, None, commands);
+            empty_state(ui, "This season cannot be shown", e);
+            return None;
+        }
+    };
+    ui.horizontal(|ui| {
+        ui.label(format!("Planting {}", asked.0));
+        year_picker(ui, r, Some(asked.1), commands);
+    });
+    season.as_ref().ok()
+}
+
+fn year_picker(
+    ui: &mut Ui,
+    r: &offtake_core::engine::Results,
+    current: Option<i32>,
+    commands: &mut Vec<Command>,
+) {
+    use chrono::Datelike;
+    let first = r.start.year();
+    let last = (r.start + chrono::Days::new(r.days.saturating_sub(1) as u64)).year();
+    let design = r.headworks().map(|h| h.design_year.start_year());
+    let text = |y: i32| {
+        if Some(y) == design {
+            format!("{y} (design year)")
+        } else {
+            y.to_string()
+        }
+    };
+    let mut chosen = current;
+    egui::ComboBox::from_label("Season starting in")
+        .selected_text(current.map_or_else(|| "—".to_owned(), text))
+        .show_ui(ui, |ui| {
+            for y in first..=last {
+                ui.selectable_value(&mut chosen, Some(y), text(y));
+            }
+        });
+    if chosen != current
+        && let Some(y) = chosen
+    {
+        commands.push(Command::SetSeasonYear(y));
+    }
 }
 
 /// The empty state shared by every tab when no project is open.

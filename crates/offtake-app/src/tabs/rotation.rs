@@ -1,29 +1,225 @@
-//! The Rotation tab: the roster of turns as a timeline and a table.
+//! The Rotation tab: when the available supply falls short, the roster of
+//! turns (offtake-core `rotation`, computed by the engine) as a timeline —
+//! one row per canal or block, one bar per turn — and as a table, for a
+//! chosen irrigation year; with the supply indicators of the re-run.
 
-use egui::Ui;
+use chrono::{NaiveDateTime, NaiveTime};
+use egui::{RichText, Ui};
+use egui_plot::{Bar, BarChart, Legend, Plot};
+use offtake_core::engine::Results;
+use offtake_core::rotation::{Roster, RosterEntry};
 
-use super::{View, empty_state, no_project};
+use super::{View, empty_state, engine_results, no_project};
 use crate::command::Command;
+use crate::fields::{format_number, format_sig};
+use crate::palette::colour_for_id;
+use crate::plot::date_to_x;
 
 /// View state of the Rotation tab.
 #[derive(Debug, Default)]
-pub struct RotationTab {}
+pub struct RotationTab {
+    /// Start year of the irrigation year shown (`None` = the design year).
+    pub year: Option<i32>,
+}
+
+fn datetime_x(t: NaiveDateTime) -> f64 {
+    let day = t.date();
+    let secs = (t.time() - NaiveTime::MIN).num_seconds() as f64;
+    date_to_x(day) + secs / 86_400.0
+}
+
+fn opt(v: Option<f64>, f: impl Fn(f64) -> String) -> String {
+    v.map_or_else(|| "—".to_owned(), f)
+}
+
+/// The entries of the roster inside the irrigation year starting in `year`.
+fn entries_in<'a>(r: &Results, roster: &'a Roster, year: i32) -> Vec<&'a RosterEntry> {
+    let Some(iy) = r.complete_years.iter().find(|y| y.start_year() == year) else {
+        return roster.entries.iter().collect();
+    };
+    roster
+        .entries
+        .iter()
+        .filter(|e| iy.contains(e.start.date()))
+        .collect()
+}
 
 impl RotationTab {
     /// Draws the tab from the cached results.
     pub fn ui(&mut self, ui: &mut Ui, view: &View<'_>, _commands: &mut Vec<Command>) {
-        let Some(project) = view.project else {
+        if view.project.is_none() {
             no_project(
                 ui,
                 "This tab shows the rotation roster when supply is short: dated turns per canal and block, and the relative water supply of each block.",
             );
             return;
-        };
-        let _ = project;
-        empty_state(
+        }
+        let Some((_, r)) = engine_results(
             ui,
-            "Rotation: not computed in this version yet",
-            "The scheme, crops and Kc curves are ready; this view fills in when the rotation computation is wired into the app.",
+            view,
+            "The rotation roster appears here when an available supply is given and falls short.",
+        ) else {
+            return;
+        };
+        let Some(supply) = &r.supply else {
+            empty_state(
+                ui,
+                "No rotation: no available supply is given",
+                "Give the available supply at the headworks or a canal (Scheme › Computation options); when it falls short of the demand, the roster of turns appears here.",
+            );
+            return;
+        };
+        ui.label(format!(
+            "Available supply at {}; short on {} days of the record. Rotation among the offtakes of {}. \
+             Relative irrigation supply {}, relative water supply (Levine 1982) {}, FAO-33 yield loss {} (area-weighted).",
+            supply.supply_node,
+            supply.short_days,
+            supply.rotation_node,
+            opt(supply.relative_irrigation_supply, |v| format_number(v, 2)),
+            opt(supply.relative_water_supply, |v| format_number(v, 2)),
+            opt(supply.mean_yield_loss_pct, |v| format!("{} %", format_number(v, 1))),
+        ));
+        let Some(roster) = &supply.roster else {
+            empty_state(
+                ui,
+                "The supply covers the demand: no roster needed",
+                "Every offtake can run at its demand.",
+            );
+            return;
+        };
+        let design = r.headworks().map(|h| h.design_year.start_year());
+        let year = self.year.or(design).unwrap_or(0);
+        ui.horizontal(|ui| {
+            let mut chosen = year;
+            let text = |y: i32| {
+                let label = r
+                    .complete_years
+                    .iter()
+                    .find(|x| x.start_year() == y)
+                    .map_or_else(|| y.to_string(), |x| x.label());
+                if Some(y) == design {
+                    format!("{label} (design year)")
+                } else {
+                    label
+                }
+            };
+            egui::ComboBox::from_label("Irrigation year")
+                .selected_text(text(year))
+                .show_ui(ui, |ui| {
+                    for y in &r.complete_years {
+                        ui.selectable_value(&mut chosen, y.start_year(), text(y.start_year()));
+                    }
+                });
+            if chosen != year {
+                self.year = Some(chosen);
+            }
+        });
+        let entries = entries_in(r, roster, year);
+        ui.label(
+            RichText::new(format!(
+                "{} turns in this year ({} over the record). Each bar is one turn: the unit receives the flow shown in the table from the bar's start to its end.",
+                entries.len(),
+                roster.entries.len()
+            ))
+            .weak(),
         );
+        let units = roster.units.clone();
+        let h = ui.available_height();
+        ui.allocate_ui(
+            egui::vec2(ui.available_width(), (h * 0.55).max(180.0)),
+            |ui| {
+                timeline(ui, &units, &entries);
+            },
+        );
+        ui.separator();
+        turn_table(ui, &entries);
     }
+}
+
+fn timeline(ui: &mut Ui, units: &[String], entries: &[&RosterEntry]) {
+    let names = units.to_vec();
+    Plot::new("roster-timeline")
+        .legend(Legend::default())
+        .x_axis_label("Date")
+        .y_axis_label("Canal or block")
+        .x_axis_formatter(|mark, _| crate::plot::date_tick_label(mark.value, mark.step_size))
+        .y_axis_formatter(move |mark, _| {
+            let i = mark.value.round();
+            if (mark.value - i).abs() < 1e-6 && i >= 0.0 {
+                names.get(i as usize).cloned().unwrap_or_default()
+            } else {
+                String::new()
+            }
+        })
+        .show(ui, |plot_ui| {
+            for (u, name) in units.iter().enumerate() {
+                let bars: Vec<Bar> = entries
+                    .iter()
+                    .filter(|e| e.unit == u)
+                    .map(|e| {
+                        let a = datetime_x(e.start);
+                        let b = datetime_x(e.end);
+                        Bar::new(u as f64, b - a)
+                            .base_offset(a)
+                            .width(0.6)
+                            .horizontal()
+                            .name(format!(
+                                "{name}: {} to {}, {} l/s",
+                                e.start,
+                                e.end,
+                                format_sig(e.flow_ls, 3)
+                            ))
+                    })
+                    .collect();
+                if !bars.is_empty() {
+                    plot_ui.bar_chart(
+                        BarChart::new(name.clone(), bars)
+                            .color(colour_for_id(name))
+                            .horizontal(),
+                    );
+                }
+            }
+        });
+}
+
+fn turn_table(ui: &mut Ui, entries: &[&RosterEntry]) {
+    const HEADERS: [&str; 7] = [
+        "Cycle",
+        "Turn",
+        "Canal or block",
+        "Start",
+        "End",
+        "Flow (l/s)",
+        "Volume (m³)",
+    ];
+    let row_h = ui.text_style_height(&egui::TextStyle::Body) + 4.0;
+    egui::Grid::new("roster-head")
+        .num_columns(HEADERS.len())
+        .min_col_width(110.0)
+        .show(ui, |ui| {
+            for h in HEADERS {
+                ui.label(RichText::new(h).strong());
+            }
+            ui.end_row();
+        });
+    egui::ScrollArea::vertical()
+        .id_salt("roster-table")
+        .show_rows(ui, row_h, entries.len(), |ui, rows| {
+            egui::Grid::new("roster-rows")
+                .num_columns(HEADERS.len())
+                .min_col_width(110.0)
+                .striped(true)
+                .show(ui, |ui| {
+                    for e in &entries[rows] {
+                        ui.label(e.cycle.to_string());
+                        ui.label(e.turn.to_string());
+                        ui.label(&e.unit_name);
+                        ui.label(e.start.format("%Y-%m-%d %H:%M").to_string());
+                        ui.label(e.end.format("%Y-%m-%d %H:%M").to_string());
+                        ui.label(format_sig(e.flow_ls, 3));
+                        ui.label(format_sig(e.volume_m3, 3));
+                        ui.end_row();
+                    }
+                });
+        });
 }
