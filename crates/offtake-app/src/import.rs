@@ -1066,3 +1066,59 @@ pub fn ui(ui: &mut Ui, job: &mut ImportJob) -> Option<ImportAnswer> {
     }
     answer
 }
+
+#[cfg(test)]
+mod tests {
+    use super::{ColumnRole, Delimiter, detect_delimiter, gap_days, roles_of};
+    use chrono::NaiveDate;
+    use offtake_core::weather::WeatherDay;
+    use offtake_core::weather_import::units::TemperatureUnit;
+    use offtake_core::weather_import::{ColumnMapping, MappedColumn, Quantity};
+
+    fn day(y: i32, m: u32, d: u32) -> WeatherDay {
+        WeatherDay::empty(NaiveDate::from_ymd_opt(y, m, d).expect("valid date"))
+    }
+
+    #[test]
+    fn delimiter_is_the_most_frequent_separator_of_the_header() {
+        assert_eq!(detect_delimiter("date;tmax (F);rain"), Delimiter::Semicolon);
+        assert_eq!(detect_delimiter("date\ttmax\train"), Delimiter::Tab);
+        assert_eq!(detect_delimiter("date,tmax_c,rain_mm"), Delimiter::Comma);
+    }
+
+    #[test]
+    fn gaps_are_split_at_the_interpolation_limit() {
+        // 2 missing days (short), then 5 missing days (long).
+        let days = [day(2031, 1, 1), day(2031, 1, 4), day(2031, 1, 10)];
+        assert_eq!(gap_days(&days, 3), (2, 5));
+        assert_eq!(gap_days(&days, 5), (7, 0));
+    }
+
+    #[test]
+    fn roles_follow_the_mapping_case_insensitively() {
+        let mapping = ColumnMapping {
+            date_column: "Day".into(),
+            columns: vec![MappedColumn {
+                header: "Max Temp (F)".into(),
+                quantity: Quantity::Tmax(TemperatureUnit::Fahrenheit),
+            }],
+        };
+        let headers = [
+            "day".to_owned(),
+            "max temp (f)".to_owned(),
+            "Notes".to_owned(),
+        ];
+        let roles: Vec<ColumnRole> = roles_of(&headers, Some(&mapping))
+            .into_iter()
+            .map(|(_, r)| r)
+            .collect();
+        assert_eq!(
+            roles,
+            [
+                ColumnRole::Date,
+                ColumnRole::Measure(Quantity::Tmax(TemperatureUnit::Fahrenheit)),
+                ColumnRole::Ignore
+            ]
+        );
+    }
+}

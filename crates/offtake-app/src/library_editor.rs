@@ -1056,3 +1056,43 @@ fn kc_plot(ui: &mut Ui, crop: &Crop) -> Vec<[f64; 2]> {
         });
     drawn
 }
+
+#[cfg(test)]
+mod tests {
+    use super::{copy_crop, copy_soil, kc_curve_points};
+    use offtake_core::project::Project;
+    use offtake_io::library::Libraries;
+
+    #[test]
+    fn copies_get_fresh_ids_and_keep_the_values() {
+        let libs = Libraries::builtin().expect("built-in libraries");
+        let maize = libs.crop("maize-grain").expect("maize in the library");
+        let mut project = Project::default();
+        let first = copy_crop(maize, &project, &libs);
+        assert_eq!(first.id, "maize-grain-mine");
+        assert_eq!(first.kc, maize.kc);
+        assert_eq!(first.stages, maize.stages);
+        project.user_crops.push(first);
+        let second = copy_crop(maize, &project, &libs);
+        assert_eq!(second.id, "maize-grain-mine-2");
+        let soil = &libs.soils[0];
+        let s = copy_soil(soil, &project, &libs);
+        assert_eq!(s.id, format!("{}-mine", soil.id));
+        assert!((s.theta_fc - soil.theta_fc).abs() < f64::EPSILON);
+    }
+
+    #[test]
+    fn the_curve_runs_from_kc_ini_at_planting_to_kc_end_at_harvest() {
+        let libs = Libraries::builtin().expect("built-in libraries");
+        let maize = libs.crop("maize-grain").expect("maize in the library");
+        let (points, ends) = kc_curve_points(maize).expect("valid crop");
+        let total = maize.stages.total_days();
+        assert_eq!(ends[3], total);
+        assert_eq!(points.len(), total as usize + 1);
+        assert!((points[0][1] - maize.kc.ini).abs() < 1e-12);
+        assert!((points[total as usize][1] - maize.kc.end).abs() < 1e-12);
+        let mut bad = maize.clone();
+        bad.kc.mid = 3.0;
+        assert!(kc_curve_points(&bad).is_err());
+    }
+}
