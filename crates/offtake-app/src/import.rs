@@ -585,6 +585,30 @@ impl ImportJob {
             && r.problems.is_empty()
             && !r.days.is_empty()
             && self.read_with.as_ref() == Some(&self.form_state())
+            && self.station_problems().is_empty()
+    }
+
+    /// What is wrong with the typed station latitude and elevation.
+    fn station_problems(&self) -> Vec<String> {
+        [
+            (&self.latitude_text, "Station latitude", "°", -90.0, 90.0),
+            (
+                &self.elevation_text,
+                "Station elevation",
+                "m",
+                -500.0,
+                9000.0,
+            ),
+        ]
+        .into_iter()
+        .filter_map(|(text, what, unit, lo, hi)| match parse_number(text) {
+            Ok(v) if (lo..=hi).contains(&v) => None,
+            Ok(_) => Some(format!(
+                "{what} must be between {lo} {unit} and {hi} {unit}"
+            )),
+            Err(e) => Some(format!("{what}: {e}")),
+        })
+        .collect()
     }
 }
 
@@ -865,18 +889,8 @@ fn settings_ui(ui: &mut Ui, job: &mut ImportJob) {
             .labelled_by(l.id);
         ui.label("m");
     });
-    for (text, what, lo, hi) in [
-        (&job.latitude_text, "Station latitude", -90.0, 90.0),
-        (&job.elevation_text, "Station elevation", -500.0, 9000.0),
-    ] {
-        let err = match parse_number(text) {
-            Ok(v) if (lo..=hi).contains(&v) => None,
-            Ok(_) => Some(format!("{what} must be between {lo} and {hi}")),
-            Err(e) => Some(e),
-        };
-        if let Some(e) = err {
-            ui.label(RichText::new(e).color(ui.visuals().error_fg_color));
-        }
+    for e in job.station_problems() {
+        ui.label(RichText::new(e).color(ui.visuals().error_fg_color));
     }
     if let Err(e) = job.settings_from_form() {
         ui.label(RichText::new(plain(&e)).color(ui.visuals().error_fg_color));

@@ -519,6 +519,18 @@ fn crop_form(ui: &mut Ui, c: &Crop) -> Option<Crop> {
         |e, v| e.stages.late_days = to_days(v),
     );
     ui.label(format!("Season: {} d", s.total_days()));
+    if let Some(region) = name_field(
+        ui,
+        key("stages_region"),
+        "Region and planting of the stage lengths",
+        &c.stages_region,
+    )
+    .committed
+    {
+        let mut e = changed.clone().unwrap_or_else(|| c.clone());
+        e.stages_region = region;
+        changed = Some(e);
+    }
     ui.label(RichText::new("Single crop coefficients (FAO-56 Table 12)").strong());
     num(
         ui,

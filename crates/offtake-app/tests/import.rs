@@ -114,6 +114,10 @@ fn a_foreign_file_shows_the_guessed_mapping_and_once_used_its_et0_is_computed() 
     h.get_by_label_contains("20 days from 2031-01-13 to 2031-02-01");
     h.get_by_label("Quality report");
 
+    // An impossible latitude is shown with its range and blocks Use.
+    type_into(&mut h, "Station latitude", "95");
+    h.get_by_label("Station latitude must be between -90 ° and 90 °");
+    assert!(!h.state().import.as_ref().expect("open").usable());
     type_into(&mut h, "Station latitude", "-12.5");
     type_into(&mut h, "Station elevation", "420");
     h.key_press(Key::Escape);
