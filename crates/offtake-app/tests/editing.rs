@@ -520,7 +520,7 @@ fn weather_import_window_previews_then_attaches_the_file() {
     h.run();
     h.get_by_label_contains("days from 2001-01-01");
     h.get_by_label("Tmax (°C)");
-    h.get_by_label("Attach to project").click();
+    h.get_by_label("Use this weather").click();
     settle(&mut h);
     let p = h.state().project().expect("project");
     assert_eq!(std::path::Path::new(&p.weather.path), weather.as_path());
@@ -552,8 +552,10 @@ fn weather_import_of_a_foreign_header_shows_the_error_and_the_guess() {
     h.state_mut().preview_weather(path);
     h.state_mut().wait_for_import(Duration::from_secs(30));
     h.run();
-    h.get_by_label_contains("\"Max Temp (F)\" is ");
-    h.get_by_label("Close").click();
+    // The guessed mapping is shown for confirmation, column by column.
+    assert_eq!(h.query_all_by_label("Max Temp (F)").count(), 2);
+    assert_eq!(h.query_all_by_value("°F").count(), 2);
+    h.get_by_label("Cancel").click();
     h.run();
     assert!(h.state().import.is_none());
     assert!(
