@@ -191,6 +191,12 @@ pub struct WeatherResult {
     /// Days whose ET₀ used a FAO-56 missing-data procedure (estimated Rs,
     /// ea from Tmin, default wind).
     pub estimated_days: usize,
+    /// Per day: ET₀ rests on a FAO-56 missing-data procedure (estimated Rs,
+    /// ea from Tmin or default wind).
+    pub estimated: Vec<bool>,
+    /// Quality flags of the series (offtake-core `quality::check_series`
+    /// with the FAO-56 Rso and daylight-hours rules), as (date, text).
+    pub flags: Vec<(NaiveDate, String)>,
     /// Day-of-year climatology of daily ET₀ (10/50/90 % non-exceedance,
     /// Weibull positions), from offtake-core `climate_stats`; empty if the
     /// record has no complete year.
@@ -583,16 +589,34 @@ fn weather(
             "ET₀ could not be computed on {not_computed} day(s) of the weather series"
         ));
     }
-    let estimated_days = results
+    let estimated: Vec<bool> = results
         .iter()
-        .filter(|r| {
+        .map(|r| {
             r.outcome.as_ref().is_ok_and(|d| {
                 d.humidity == HumiditySource::FromTmin
                     || d.radiation == RadiationSource::TemperatureRange
                     || d.wind == WindSource::Default
             })
         })
-        .count();
+        .collect();
+    let estimated_days = estimated.iter().filter(|e| **e).count();
+    let astronomy = offtake_core::quality::SiteAstronomy::new(&site).ok();
+    let astronomy_fn = |d: NaiveDate| astronomy.as_ref().and_then(|a| a.for_date(d));
+    let flags = match offtake_core::quality::check_series(
+        days,
+        &offtake_core::quality::QualityRules::default(),
+        Some(&astronomy_fn),
+    ) {
+        Ok(report) => report
+            .flags
+            .iter()
+            .map(|f| (f.date, format!("{} {}", f.variable.name(), f.rule)))
+            .collect(),
+        Err(e) => {
+            warnings.push(format!("quality checks of the weather series: {e}"));
+            Vec::new()
+        }
+    };
     let dates: Vec<NaiveDate> = results.iter().map(|r| r.date).collect();
     let et0_mm: Vec<Option<f64>> = results.iter().map(|r| r.et0_mm).collect();
     let band = match et0_band(&dates, &et0_mm) {
@@ -608,6 +632,8 @@ fn weather(
         et0_mm,
         rain_mm: days.iter().map(|d| d.rain_mm).collect(),
         estimated_days,
+        estimated,
+        flags,
         et0_band: band,
     };
     cache.et0 = Some((et0_key, result.clone(), warnings.clone()));

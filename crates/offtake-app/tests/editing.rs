@@ -378,6 +378,18 @@ fn demo_weather_is_read_in_the_background_and_plotted() {
     // day of a leap year, bands ordered.
     assert_eq!(w.et0_band.len(), 366);
     assert!(w.et0_band.iter().all(|b| b.p10 <= b.p50 && b.p50 <= b.p90));
+    // The planted defects of the invented demo record are flagged (the
+    // Tmin above Tmax typo of 2021-02-11), and days resting on FAO-56
+    // missing-data procedures are marked per day.
+    assert!(
+        w.flags
+            .iter()
+            .any(|(d, t)| d.to_string() == "2021-02-11" && t.contains("tmin_above_tmax")),
+        "{:?}",
+        w.flags
+    );
+    assert_eq!(w.estimated.len(), w.dates.len());
+    assert_eq!(w.estimated.iter().filter(|e| **e).count(), w.estimated_days);
     h.get_by_label("Weather & ET₀").click();
     h.run();
     h.get_by_label("Year");
