@@ -95,6 +95,8 @@ pub struct OfftakeApp {
     offer_recovery: bool,
     /// The weather import window, while open.
     pub import: Option<crate::import::ImportJob>,
+    /// The crop and soil library window.
+    pub library_editor: crate::library_editor::LibraryEditor,
     /// What the last request asked of the worker besides the project: the
     /// season, and whether to compare the scenarios.
     requested: (Option<SeasonRequest>, bool),
@@ -171,6 +173,7 @@ impl OfftakeApp {
             recovery: None,
             offer_recovery: false,
             import: None,
+            library_editor: crate::library_editor::LibraryEditor::default(),
             requested: (None, false),
             export_job: None,
             scenario_editor: crate::scenario_editor::ScenarioEditor::default(),
@@ -368,6 +371,13 @@ impl OfftakeApp {
         let mut commands = std::mem::take(&mut self.commands);
         let project_open = self.project_open();
         let project = self.document.as_ref().map(|d| &d.project);
+        // Pickers and the tree see the project's own crops and soils over the library.
+        let libraries: std::borrow::Cow<'_, Libraries> = match project {
+            Some(p) if !p.user_crops.is_empty() || !p.user_soils.is_empty() => {
+                std::borrow::Cow::Owned(self.libraries.for_project(p))
+            }
+            _ => std::borrow::Cow::Borrowed(&*self.libraries),
+        };
 
         egui::Panel::top("menu").show(ui, |ui| {
             let info = MenuInfo {
@@ -391,7 +401,7 @@ impl OfftakeApp {
                         tree::ui(
                             ui,
                             project,
-                            &self.libraries,
+                            &libraries,
                             &self.state.selection,
                             &mut commands,
                         );
@@ -405,7 +415,7 @@ impl OfftakeApp {
                 .show(ui, |ui| {
                     egui::ScrollArea::vertical().show(ui, |ui| {
                         let ctx = inspector::Context {
-                            libraries: &self.libraries,
+                            libraries: &libraries,
                             problems: self.computed.as_ref().map_or(&[][..], |c| &c.warnings[..]),
                         };
                         inspector::ui(ui, project, &self.state.selection, &ctx, &mut commands);
@@ -441,7 +451,7 @@ impl OfftakeApp {
             ui.ctx(),
             &mut self.scenario_editor,
             project,
-            &self.libraries,
+            &libraries,
             crate::scenario_editor::Results {
                 computed: self.computed.as_ref(),
                 recomputing: self.state.recompute == RecomputeStatus::Running,
@@ -453,6 +463,7 @@ impl OfftakeApp {
         self.discard_guard(ui.ctx());
         self.recovery_window(ui.ctx());
         self.import_window(ui.ctx());
+        self.library_window(ui.ctx(), &mut commands);
 
         commands.append(&mut self.commands);
         if !commands.is_empty() {
@@ -522,6 +533,7 @@ impl OfftakeApp {
             Command::Select(sel) => self.state.selection = sel,
             Command::ShowHelp(which) => self.state.help.open(which),
             Command::TogglePanel(kind) => self.state.panels.toggle(kind),
+            Command::ShowLibrary(kind) => self.library_editor.show(kind),
             Command::Edit(edit) => self.edit(edit),
             Command::Undo => self.undo(),
             Command::Redo => self.redo(),
@@ -645,7 +657,10 @@ impl OfftakeApp {
 
     /// Reads `file` in the background and shows the import window.
     pub fn preview_weather(&mut self, file: std::path::PathBuf) {
-        self.import = Some(crate::import::ImportJob::start(file));
+        let Some(doc) = self.document.as_ref() else {
+            return;
+        };
+        self.import = Some(crate::import::ImportJob::start(file, &doc.project.weather));
     }
 
     /// Blocks until the weather import window has its result (tests only).
@@ -663,26 +678,62 @@ impl OfftakeApp {
         let mut answer = None;
         egui::Window::new("Import weather")
             .collapsible(false)
-            .default_width(640.0)
+            .default_size([820.0, 820.0])
             .show(ctx, |ui| answer = crate::import::ui(ui, job));
         match answer {
-            Some(crate::import::ImportAnswer::Attach(file)) => {
+            Some(crate::import::ImportAnswer::Use {
+                path,
+                settings,
+                latitude_deg,
+                elevation_m,
+            }) => {
                 self.import = None;
-                self.attach_weather(&file);
+                self.attach_weather(&path, settings, latitude_deg, elevation_m);
             }
             Some(crate::import::ImportAnswer::Cancel) => self.import = None,
             None => {}
         }
     }
 
+    /// The crop and soil library window (edits go through `commands`).
+    fn library_window(&mut self, ctx: &egui::Context, commands: &mut Vec<Command>) {
+        let (Some(doc), true) = (self.document.as_ref(), self.library_editor.open) else {
+            return;
+        };
+        let mut open = true;
+        let editor = &mut self.library_editor;
+        egui::Window::new("Crop and soil libraries")
+            .open(&mut open)
+            .default_width(820.0)
+            .show(ctx, |ui| {
+                editor.ui(ui, &doc.project, &self.libraries, commands);
+            });
+        self.library_editor.open = open;
+    }
+
     /// Attaches a weather file to the project as an undoable edit; the worker
     /// reads it and computes daily ET₀.
-    fn attach_weather(&mut self, file: &std::path::Path) {
+    fn attach_weather(
+        &mut self,
+        file: &std::path::Path,
+        settings: offtake_core::weather_import::ImportSettings,
+        latitude_deg: Option<f64>,
+        elevation_m: Option<f64>,
+    ) {
         let Some(doc) = self.document.as_ref() else {
             return;
         };
         let mut weather = doc.project.weather.clone();
         weather.path = relative_to_project(file, doc.path.as_deref());
+        // One edit: the file, how to read it, and the station fields typed
+        // in the import window.
+        weather.set_import(Some(settings));
+        if let Some(lat) = latitude_deg {
+            weather.latitude_deg = lat;
+        }
+        if let Some(z) = elevation_m {
+            weather.elevation_m = z;
+        }
         self.edit(DocEdit::SetWeather(weather));
         self.state.selection = Selection::Weather;
         self.state.message = Some(

@@ -151,6 +151,8 @@ pub enum Command {
     DeleteSelected,
     /// Run a command after the user agreed to discard unsaved changes.
     DiscardAndRun(Box<Command>),
+    /// Open the crop or soil library editor.
+    ShowLibrary(crate::library_editor::LibraryKind),
     /// Show the season starting in this year on the Water balance and Crop
     /// curves tabs.
     SetSeasonYear(i32),

@@ -191,6 +191,12 @@ pub struct WeatherResult {
     /// Days whose ET₀ used a FAO-56 missing-data procedure (estimated Rs,
     /// ea from Tmin, default wind).
     pub estimated_days: usize,
+    /// Per day: ET₀ rests on a FAO-56 missing-data procedure (estimated Rs,
+    /// ea from Tmin or default wind).
+    pub estimated: Vec<bool>,
+    /// Quality flags of the series (offtake-core `quality::check_series`
+    /// with the FAO-56 Rso and daylight-hours rules), as (date, text).
+    pub flags: Vec<(NaiveDate, String)>,
     /// Day-of-year climatology of daily ET₀ (10/50/90 % non-exceedance,
     /// Weibull positions), from offtake-core `climate_stats`; empty if the
     /// record has no complete year.
@@ -242,7 +248,25 @@ pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
     };
     let mut engine_cache = EngineCache::default();
     Box::new(move |snap: Snapshot| {
+        // The project's own crops and soils replace library entries with the same id.
+        let libraries = if snap.project.user_crops.is_empty() && snap.project.user_soils.is_empty()
+        {
+            std::sync::Arc::clone(&libraries)
+        } else {
+            std::sync::Arc::new(libraries.for_project(&snap.project))
+        };
         let mut out = summarize(&snap.project, &libraries);
+        // The project's own crops and soils are checked like library files.
+        for c in &snap.project.user_crops {
+            if let Err(e) = c.validate() {
+                out.warnings.push(format!("my crop {}: {e}", c.id));
+            }
+        }
+        for s in &snap.project.user_soils {
+            if let Err(e) = s.validate() {
+                out.warnings.push(format!("my soil {}: {e}", s.id));
+            }
+        }
         if let Some(w) = weather(&snap, &mut cache) {
             match w {
                 Ok((result, warnings)) => {
@@ -492,36 +516,32 @@ fn weather(
         Et0Options, HumiditySource, RadiationSource, WindSource, et0_daily_series,
     };
     use offtake_core::weather::StationSite;
-    use offtake_io::weather::{ImportOptions, import_weather_file};
+    use offtake_io::weather::load_project_weather;
 
     let p = &snap.project;
     if p.weather.path.trim().is_empty() {
         return None;
     }
-    let file = match &snap.project_path {
-        Some(pp) => offtake_io::project_file::weather_path(pp, p),
-        None => PathBuf::from(&p.weather.path),
-    };
+    // An unsaved project resolves its weather path against the current folder.
+    let project_path = snap
+        .project_path
+        .clone()
+        .unwrap_or_else(|| PathBuf::from("unsaved.ron"));
+    let file = offtake_io::project_file::weather_path(&project_path, p);
     let modified = std::fs::metadata(&file).and_then(|m| m.modified()).ok();
-    // The project's saved import settings apply, as in `offtake run`.
-    let options = p
-        .weather
-        .import
-        .as_ref()
-        .map_or_else(ImportOptions::default, ImportOptions::from_settings);
+    // The saved import settings are part of the key: a new mapping re-reads.
     let key = (file.clone(), modified, format!("{:?}", p.weather.import));
     if cache.key.as_ref() != Some(&key) {
         cache.key = Some(key);
-        match import_weather_file(&file, &options) {
-            Ok(series) => {
-                cache.warnings = series.warnings.iter().map(ToString::to_string).collect();
-                cache.days = Ok(series.days);
-                cache.et0 = None;
+        cache.et0 = None;
+        match load_project_weather(&project_path, p) {
+            Ok(w) => {
+                cache.warnings = w.series.warnings.iter().map(ToString::to_string).collect();
+                cache.days = Ok(w.series.days);
             }
             Err(e) => {
                 cache.warnings = Vec::new();
                 cache.days = Err(format!("weather file: {e}"));
-                cache.et0 = None;
             }
         }
     }
@@ -569,16 +589,34 @@ fn weather(
             "ET₀ could not be computed on {not_computed} day(s) of the weather series"
         ));
     }
-    let estimated_days = results
+    let estimated: Vec<bool> = results
         .iter()
-        .filter(|r| {
+        .map(|r| {
             r.outcome.as_ref().is_ok_and(|d| {
                 d.humidity == HumiditySource::FromTmin
                     || d.radiation == RadiationSource::TemperatureRange
                     || d.wind == WindSource::Default
             })
         })
-        .count();
+        .collect();
+    let estimated_days = estimated.iter().filter(|e| **e).count();
+    let astronomy = offtake_core::quality::SiteAstronomy::new(&site).ok();
+    let astronomy_fn = |d: NaiveDate| astronomy.as_ref().and_then(|a| a.for_date(d));
+    let flags = match offtake_core::quality::check_series(
+        days,
+        &offtake_core::quality::QualityRules::default(),
+        Some(&astronomy_fn),
+    ) {
+        Ok(report) => report
+            .flags
+            .iter()
+            .map(|f| (f.date, format!("{} {}", f.variable.name(), f.rule)))
+            .collect(),
+        Err(e) => {
+            warnings.push(format!("quality checks of the weather series: {e}"));
+            Vec::new()
+        }
+    };
     let dates: Vec<NaiveDate> = results.iter().map(|r| r.date).collect();
     let et0_mm: Vec<Option<f64>> = results.iter().map(|r| r.et0_mm).collect();
     let band = match et0_band(&dates, &et0_mm) {
@@ -594,6 +632,8 @@ fn weather(
         et0_mm,
         rain_mm: days.iter().map(|d| d.rain_mm).collect(),
         estimated_days,
+        estimated,
+        flags,
         et0_band: band,
     };
     cache.et0 = Some((et0_key, result.clone(), warnings.clone()));

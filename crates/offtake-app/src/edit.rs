@@ -90,6 +90,10 @@ pub enum DocEdit {
     Insert(Box<Subtree>),
     /// Remove an item with everything below it.
     Remove(ItemRef),
+    /// Replace the project's own crops (the crop library editor).
+    SetUserCrops(Vec<offtake_core::crop::Crop>),
+    /// Replace the project's own soils (the soil library editor).
+    SetUserSoils(Vec<offtake_core::soil::Soil>),
     // --- scenario editor (crate::scenario_editor) ---
     /// Replace the scenario named `name` with a new record (its overrides,
     /// weather change, description; a new name renames it). The inverse is
@@ -287,6 +291,12 @@ impl Edit<Project> for DocEdit {
             }
             DocEdit::Insert(sub) => DocEdit::Remove(insert(doc, *sub)?),
             DocEdit::Remove(item) => DocEdit::Insert(Box::new(remove(doc, &item)?)),
+            DocEdit::SetUserCrops(c) => {
+                DocEdit::SetUserCrops(std::mem::replace(&mut doc.user_crops, c))
+            }
+            DocEdit::SetUserSoils(s) => {
+                DocEdit::SetUserSoils(std::mem::replace(&mut doc.user_soils, s))
+            }
             DocEdit::SetScenario { name, scenario } => set_scenario(doc, &name, *scenario)?,
         })
     }
@@ -311,6 +321,8 @@ impl Edit<Project> for DocEdit {
                 ItemRef::Block(id) => format!("delete block {id}"),
                 ItemRef::Planting(id) => format!("delete planting {id}"),
             },
+            DocEdit::SetUserCrops(_) => "edit my crops".to_owned(),
+            DocEdit::SetUserSoils(_) => "edit my soils".to_owned(),
             DocEdit::SetScenario { name, .. } => format!("edit scenario {name}"),
         }
     }

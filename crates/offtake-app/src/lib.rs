@@ -16,6 +16,7 @@
 //!   [`compute::Computed`] out) — the plug for the computation chain.
 //! - [`export`]: the result tables and workbook, as `offtake run` writes them.
 //! - [`import`]: the weather import window (background read, preview, warnings).
+//! - [`library_editor`]: the crop and soil library editors (copy, edit, Kc curve).
 //! - [`scenario_editor`]: a scenario edited as a cropping pattern (window).
 //! - [`recovery`]: autosave to a recovery file and restore after a crash.
 //! - [`state`]: runtime state beside the document.
@@ -55,6 +56,7 @@ pub mod help;
 pub mod history;
 pub mod import;
 pub mod inspector;
+pub mod library_editor;
 pub mod menu;
 pub mod palette;
 pub mod plot;

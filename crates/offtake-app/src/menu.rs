@@ -115,6 +115,23 @@ pub fn ui(ui: &mut Ui, state: &RuntimeState, info: MenuInfo<'_>, commands: &mut 
                 "Status bar",
                 PanelKind::StatusBar,
             );
+            ui.separator();
+            if ui
+                .add_enabled(info.project_open, Button::new("Crop library…"))
+                .clicked()
+            {
+                commands.push(Command::ShowLibrary(
+                    crate::library_editor::LibraryKind::Crops,
+                ));
+            }
+            if ui
+                .add_enabled(info.project_open, Button::new("Soil library…"))
+                .clicked()
+            {
+                commands.push(Command::ShowLibrary(
+                    crate::library_editor::LibraryKind::Soils,
+                ));
+            }
         });
         ui.menu_button("Help", |ui| {
             if ui

@@ -50,6 +50,12 @@ pub enum SeriesKind {
         /// Bar width in x units.
         width: f64,
     },
+    /// Unjoined markers of the given radius in points (flagged or estimated
+    /// days).
+    Points {
+        /// Marker radius (screen points).
+        radius: f32,
+    },
     /// A band of x ranges shaded over the whole height: each pair of
     /// consecutive points is one `[x_start, x_end]` range (crop stages, the
     /// design year).
@@ -313,6 +319,13 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
                         Line::new(s.name.clone(), PlotPoints::from(pts))
                             .color(s.colour)
                             .style(s.style),
+                    );
+                }
+                SeriesKind::Points { radius } => {
+                    plot_ui.points(
+                        egui_plot::Points::new(s.name.clone(), PlotPoints::from(s.points.clone()))
+                            .color(s.colour)
+                            .radius(radius),
                     );
                 }
                 SeriesKind::Bars { width } => {

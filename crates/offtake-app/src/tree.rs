@@ -62,7 +62,23 @@ pub fn ui(
     });
     ui.separator();
     ui.label(RichText::new("Libraries").strong());
-    ui.label("Crops and soils: the built-in FAO-56 libraries.");
+    ui.label(format!(
+        "Built-in FAO-56 crops and soils; this project's own: {} crop(s), {} soil(s).",
+        doc.user_crops.len(),
+        doc.user_soils.len()
+    ));
+    ui.horizontal(|ui| {
+        if ui.button("Crops…").clicked() {
+            commands.push(Command::ShowLibrary(
+                crate::library_editor::LibraryKind::Crops,
+            ));
+        }
+        if ui.button("Soils…").clicked() {
+            commands.push(Command::ShowLibrary(
+                crate::library_editor::LibraryKind::Soils,
+            ));
+        }
+    });
     ui.separator();
     ui.label(RichText::new("Weather").strong());
     let weather_text = if doc.weather.path.trim().is_empty() {

@@ -378,6 +378,18 @@ fn demo_weather_is_read_in_the_background_and_plotted() {
     // day of a leap year, bands ordered.
     assert_eq!(w.et0_band.len(), 366);
     assert!(w.et0_band.iter().all(|b| b.p10 <= b.p50 && b.p50 <= b.p90));
+    // The planted defects of the invented demo record are flagged (the
+    // Tmin above Tmax typo of 2021-02-11), and days resting on FAO-56
+    // missing-data procedures are marked per day.
+    assert!(
+        w.flags
+            .iter()
+            .any(|(d, t)| d.to_string() == "2021-02-11" && t.contains("tmin_above_tmax")),
+        "{:?}",
+        w.flags
+    );
+    assert_eq!(w.estimated.len(), w.dates.len());
+    assert_eq!(w.estimated.iter().filter(|e| **e).count(), w.estimated_days);
     h.get_by_label("Weather & ET₀").click();
     h.run();
     h.get_by_label("Year");
@@ -520,7 +532,7 @@ fn weather_import_window_previews_then_attaches_the_file() {
     h.run();
     h.get_by_label_contains("days from 2001-01-01");
     h.get_by_label("Tmax (°C)");
-    h.get_by_label("Attach to project").click();
+    h.get_by_label("Use this weather").click();
     settle(&mut h);
     let p = h.state().project().expect("project");
     assert_eq!(std::path::Path::new(&p.weather.path), weather.as_path());
@@ -552,8 +564,10 @@ fn weather_import_of_a_foreign_header_shows_the_error_and_the_guess() {
     h.state_mut().preview_weather(path);
     h.state_mut().wait_for_import(Duration::from_secs(30));
     h.run();
-    h.get_by_label_contains("\"Max Temp (F)\" is ");
-    h.get_by_label("Close").click();
+    // The guessed mapping is shown for confirmation, column by column.
+    assert_eq!(h.query_all_by_label("Max Temp (F)").count(), 2);
+    assert_eq!(h.query_all_by_value("°F").count(), 2);
+    h.get_by_label("Cancel").click();
     h.run();
     assert!(h.state().import.is_none());
     assert!(

@@ -46,7 +46,11 @@ pub(crate) struct Loaded {
 /// The project or weather file's problems with `file:line:column`.
 pub(crate) fn load(path: &Path) -> Result<Loaded> {
     let project = load_project(path)?;
-    let libraries = Libraries::builtin().context("built-in crop and soil libraries")?;
+    // The project's own crops and soils replace library entries with the
+    // same id (the project file is self-contained).
+    let libraries = Libraries::builtin()
+        .context("built-in crop and soil libraries")?
+        .for_project(&project);
     // The project's saved import settings (mapping, units, date format,
     // delimiter, decimal separator) are applied by the one shared loader.
     let weather = load_project_weather(path, &project)

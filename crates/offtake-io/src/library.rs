@@ -214,6 +214,23 @@ impl Libraries {
         Ok(libs)
     }
 
+    /// These libraries with `crops` and `soils` laid over them: an entry
+    /// replaces the one with the same id, new ids are appended (in order).
+    #[must_use]
+    pub fn overlaid(&self, crops: &[Crop], soils: &[Soil]) -> Self {
+        let mut libs = self.clone();
+        merge(&mut libs.crops, crops.to_vec(), |c| c.id.as_str());
+        merge(&mut libs.soils, soils.to_vec(), |s| s.id.as_str());
+        libs
+    }
+
+    /// The libraries a project computes with: these, overlaid by the
+    /// project's own crops and soils (`Project::user_crops`, `user_soils`).
+    #[must_use]
+    pub fn for_project(&self, project: &offtake_core::project::Project) -> Self {
+        self.overlaid(&project.user_crops, &project.user_soils)
+    }
+
     /// The crop with this id.
     pub fn crop(&self, id: &str) -> Option<&Crop> {
         self.crops.iter().find(|c| c.id == id)

@@ -1009,6 +1009,8 @@ pub mod v1 {
             reservoir: old.reservoir,
             options: old.options,
             scenarios: old.scenarios,
+            user_crops: Vec::new(),
+            user_soils: Vec::new(),
         })
     }
 }

@@ -84,6 +84,34 @@ impl WeatherTab {
             .filter(in_year)
             .filter_map(|i| w.et0_mm[i].map(|v| [date_to_x(w.dates[i]), v]))
             .collect();
+        // Days whose ET₀ rests on a FAO-56 missing-data procedure, marked on
+        // the ET₀ line; flagged days (quality rules) marked at their ET₀, or
+        // at 0 where ET₀ could not be computed.
+        let estimated: Vec<[f64; 2]> = (0..w.dates.len())
+            .filter(in_year)
+            .filter(|i| w.estimated.get(*i).copied().unwrap_or(false))
+            .filter_map(|i| w.et0_mm[i].map(|v| [date_to_x(w.dates[i]), v]))
+            .collect();
+        let et0_on = |date: chrono::NaiveDate| {
+            w.dates
+                .binary_search(&date)
+                .ok()
+                .and_then(|i| w.et0_mm[i])
+                .unwrap_or(0.0)
+        };
+        let mut flagged: Vec<[f64; 2]> = w
+            .flags
+            .iter()
+            .filter(|(d, _)| d.year() == year)
+            .map(|(d, _)| [date_to_x(*d), et0_on(*d)])
+            .collect();
+        flagged.dedup();
+        let flags_this_year: Vec<&str> = w
+            .flags
+            .iter()
+            .filter(|(d, _)| d.year() == year)
+            .map(|(_, t)| t.as_str())
+            .collect();
         let rain: Vec<[f64; 2]> = (0..w.dates.len())
             .filter(in_year)
             .filter_map(|i| {
@@ -130,8 +158,34 @@ impl WeatherTab {
                     kind: SeriesKind::Line,
                 },
                 Series::line(format!("ET₀ {year}"), et0, OKABE_ITO[0]),
+                Series {
+                    name: "ET₀ from FAO-56 missing-data procedures".to_owned(),
+                    points: estimated,
+                    colour: OKABE_ITO[3],
+                    style: egui_plot::LineStyle::Solid,
+                    kind: SeriesKind::Points { radius: 2.5 },
+                },
+                Series {
+                    name: "Flagged by the quality checks".to_owned(),
+                    points: flagged,
+                    colour: OKABE_ITO[5],
+                    style: egui_plot::LineStyle::Solid,
+                    kind: SeriesKind::Points { radius: 4.0 },
+                },
             ],
         };
+        if !flags_this_year.is_empty() {
+            let mut shown: Vec<&str> = flags_this_year.clone();
+            shown.dedup();
+            ui.label(
+                RichText::new(format!(
+                    "{} quality flag(s) in {year}: {}",
+                    flags_this_year.len(),
+                    shown.into_iter().take(4).collect::<Vec<_>>().join(", ")
+                ))
+                .color(ui.visuals().warn_fg_color),
+            );
+        }
         plot::show(ui, &spec, commands);
     }
 }

@@ -68,6 +68,15 @@ pub struct Project {
     /// Named alternatives to the base case.
     #[serde(default)]
     pub scenarios: Vec<Scenario>,
+    /// The project's own crops (copied from the library and edited). An
+    /// entry replaces the library crop with the same id, so the project
+    /// stays self-contained. Omitted from the file when empty, so files
+    /// without it load unchanged.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub user_crops: Vec<crate::crop::Crop>,
+    /// The project's own soils; as `user_crops`.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub user_soils: Vec<crate::soil::Soil>,
 }
 
 impl Default for Project {
@@ -83,6 +92,8 @@ impl Default for Project {
             reservoir: None,
             options: Options::default(),
             scenarios: Vec::new(),
+            user_crops: Vec::new(),
+            user_soils: Vec::new(),
         }
     }
 }
