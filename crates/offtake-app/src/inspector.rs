@@ -520,10 +520,12 @@ fn strategy_name(s: &Strategy) -> &'static str {
     }
 }
 
-fn strategy_ui(ui: &mut Ui, p: &Planting, commands: &mut Vec<Command>) {
-    let mut s = p.strategy;
-    egui::ComboBox::from_label("Irrigation strategy")
-        .selected_text(strategy_name(&s))
+/// A combo box choosing the kind of irrigation strategy; a new kind starts
+/// from its default settings (refill at 100 % of RAW, 7-day interval, 50 mm
+/// depth, deficit at 70 % of TAW, rainfed).
+pub fn strategy_kind_combo(ui: &mut Ui, label: &str, s: &mut Strategy) {
+    egui::ComboBox::from_label(label)
+        .selected_text(strategy_name(s))
         .show_ui(ui, |ui| {
             for choice in [
                 Strategy::Refill {
@@ -537,12 +539,17 @@ fn strategy_ui(ui: &mut Ui, p: &Planting, commands: &mut Vec<Command>) {
                 },
                 Strategy::Rainfed,
             ] {
-                let same = std::mem::discriminant(&choice) == std::mem::discriminant(&s);
+                let same = std::mem::discriminant(&choice) == std::mem::discriminant(s);
                 if ui.selectable_label(same, strategy_name(&choice)).clicked() && !same {
-                    s = choice;
+                    *s = choice;
                 }
             }
         });
+}
+
+fn strategy_ui(ui: &mut Ui, p: &Planting, commands: &mut Vec<Command>) {
+    let mut s = p.strategy;
+    strategy_kind_combo(ui, "Irrigation strategy", &mut s);
     let param = |ui: &mut Ui, field: &str, label: &str, v: f64, b: &Bounds| {
         number_field(ui, fid(&p.id, field), label, v, b, 1).committed
     };

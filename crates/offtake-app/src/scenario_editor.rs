@@ -1035,16 +1035,6 @@ fn planting_form(
     }
 }
 
-fn strategy_name(s: &Strategy) -> &'static str {
-    match s {
-        Strategy::Refill { .. } => "Refill at a share of RAW",
-        Strategy::Interval { .. } => "Fixed interval",
-        Strategy::Depth { .. } => "Fixed depth",
-        Strategy::Deficit { .. } => "Deficit",
-        Strategy::Rainfed => "Rainfed",
-    }
-}
-
 /// The strategy picker with its parameters; returns a changed strategy.
 fn strategy_editor(
     ui: &mut Ui,
@@ -1054,27 +1044,7 @@ fn strategy_editor(
 ) -> Option<Strategy> {
     use crate::inspector::bounds as b;
     let mut s = current;
-    egui::ComboBox::from_label("Strategy in scenario")
-        .selected_text(strategy_name(&s))
-        .show_ui(ui, |ui| {
-            for choice in [
-                Strategy::Refill {
-                    trigger_pct_of_raw: 100.0,
-                },
-                Strategy::Interval { days: 7 },
-                Strategy::Depth { net_mm: 50.0 },
-                Strategy::Deficit {
-                    trigger_pct_of_taw: 70.0,
-                    refill_pct_of_depletion: 100.0,
-                },
-                Strategy::Rainfed,
-            ] {
-                let same = std::mem::discriminant(&choice) == std::mem::discriminant(&s);
-                if ui.selectable_label(same, strategy_name(&choice)).clicked() && !same {
-                    s = choice;
-                }
-            }
-        });
+    crate::inspector::strategy_kind_combo(ui, "Strategy in scenario", &mut s);
     let param = |ui: &mut Ui, field: &str, label: &str, v: f64, bounds: &Bounds| {
         let out = number_field(ui, fid(scenario, planting, field), label, v, bounds, 1);
         out.committed.filter(|_| out.error.is_none())
