@@ -1007,9 +1007,9 @@ fn quality_ui(ui: &mut Ui, r: &ReadResult) {
     ));
     ui.label(
         RichText::new(
-            "This is the computation's default gap filling; projects do not store a different \
-             choice yet (FAO-56 Chapter 3 missing-data procedures; day-of-year climatology is the \
-             engine's alternative).",
+            "Counted with the default limits. The project's choice (interpolation limit in days, \
+             and FAO-56 Chapter 3 missing-data procedures or the series' own day-of-year \
+             climatology for longer gaps) is set in the Scheme inspector under Options.",
         )
         .weak(),
     );

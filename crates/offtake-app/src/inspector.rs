@@ -6,8 +6,8 @@
 
 use egui::{Id, RichText, Ui};
 use offtake_core::project::{
-    Block, Canal, CanalKind, DesignBasis, EffectiveRain, Et0Method, MonthDay, Options, Planting,
-    PlantingArea, Project, ReportingStep, Strategy,
+    Block, Canal, CanalKind, DesignBasis, EffectiveRain, Et0Method, LongGaps, MonthDay, Options,
+    Planting, PlantingArea, Project, ReportingStep, Strategy,
 };
 
 use offtake_io::library::Libraries;
@@ -39,6 +39,9 @@ pub mod bounds {
     pub const SHARE: Bounds = Bounds::new("Share of block", "%", 0.0, 100.0);
     /// Planting spread.
     pub const SPREAD: Bounds = Bounds::new("Planting spread", "days", 0.0, 365.0);
+    /// Longest weather gap filled by linear interpolation.
+    pub const INTERPOLATION: Bounds =
+        Bounds::new("Interpolate weather gaps up to", "days", 0.0, 31.0);
     /// Season length of a planting (FAO-56 stage lengths are scaled to it).
     pub const SEASON: Bounds = Bounds::new("Season length", "days", 4.0, 365.0);
     /// Latitude.
@@ -739,6 +742,27 @@ fn options_ui(ui: &mut Ui, o: &Options, commands: &mut Vec<Command>) {
     {
         n.rotation_period_days = v as u32;
     }
+    if let Some(v) = number_field(
+        ui,
+        fid("options", "interpolation"),
+        "Interpolate weather gaps up to",
+        f64::from(n.gap_filling.max_interpolation_days),
+        &bounds::INTERPOLATION,
+        0,
+    )
+    .committed
+        && v >= 0.0
+        && v.fract() == 0.0
+    {
+        n.gap_filling.max_interpolation_days = v as u32;
+    }
+    egui::ComboBox::from_label("Longer weather gaps filled by")
+        .selected_text(long_gaps_name(n.gap_filling.long_gaps))
+        .show_ui(ui, |ui| {
+            for m in [LongGaps::Fao56Procedures, LongGaps::Climatology] {
+                ui.selectable_value(&mut n.gap_filling.long_gaps, m, long_gaps_name(m));
+            }
+        });
     egui::ComboBox::from_label("Irrigation year starts in")
         .selected_text(month_name(n.irrigation_year_start_month))
         .show_ui(ui, |ui| {
@@ -748,6 +772,13 @@ fn options_ui(ui: &mut Ui, o: &Options, commands: &mut Vec<Command>) {
         });
     if &n != o {
         commands.push(Command::Edit(DocEdit::SetOptions(n)));
+    }
+}
+
+fn long_gaps_name(m: LongGaps) -> &'static str {
+    match m {
+        LongGaps::Fao56Procedures => "FAO-56 missing-data procedures",
+        LongGaps::Climatology => "Day-of-year climatology of the series",
     }
 }
 

@@ -579,3 +579,37 @@ fn weather_import_of_a_foreign_header_shows_the_error_and_the_guess() {
             .is_empty()
     );
 }
+
+#[test]
+fn gap_filling_choice_is_an_undoable_option() {
+    use offtake_core::project::LongGaps;
+    let mut h = harness_with(Some(invented_scheme()));
+    settle(&mut h);
+    h.state_mut().push(Command::Select(Selection::Options));
+    h.run();
+    h.get_by_label("Longer weather gaps filled by").click();
+    h.run();
+    h.get_by_label("Day-of-year climatology of the series")
+        .click();
+    settle(&mut h);
+    assert_eq!(
+        h.state()
+            .project()
+            .expect("p")
+            .options
+            .gap_filling
+            .long_gaps,
+        LongGaps::Climatology
+    );
+    h.state_mut().push(Command::Undo);
+    settle(&mut h);
+    assert_eq!(
+        h.state()
+            .project()
+            .expect("p")
+            .options
+            .gap_filling
+            .long_gaps,
+        LongGaps::Fao56Procedures
+    );
+}

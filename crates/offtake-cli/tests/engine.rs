@@ -342,3 +342,46 @@ fn dual_coefficient_plantings_run_and_drip_wetting_needs_less_water() {
     );
     assert!(volume(&from_method).is_finite() && volume(&from_method) > 0.0);
 }
+
+/// The project's gap-filling choice reaches the computation: the demo's
+/// 36-day solar-radiation gap (2015) is filled from the series' day-of-year
+/// climatology instead of the FAO-56 temperature-range procedure, which
+/// changes ET₀ in those weeks and so the requirement; the warning names the
+/// method. The choice round-trips through a project file.
+#[test]
+fn gap_filling_choice_reaches_the_engine() {
+    use offtake_core::project::{GapFilling, LongGaps};
+    let (base, _, _) = demo();
+    let mut clim = base.clone();
+    clim.options.gap_filling = GapFilling {
+        max_interpolation_days: 5,
+        long_gaps: LongGaps::Climatology,
+    };
+    let a = run(&base, None);
+    let b = run(&clim, None);
+    let volume = |r: &Results| {
+        r.design
+            .iter()
+            .find(|d| d.name == "headworks")
+            .expect("headworks row")
+            .seasonal_volume_m3
+    };
+    assert!(
+        (volume(&a) - volume(&b)).abs() > 1.0,
+        "{} vs {}",
+        volume(&a),
+        volume(&b)
+    );
+    assert!(
+        b.warnings
+            .iter()
+            .any(|w| w.contains("interpolation up to 5 days") && w.contains("climatology")),
+        "{:?}",
+        b.warnings
+    );
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("clim.ron");
+    offtake_io::project_file::save_project(&path, &clim).unwrap();
+    let again = load_project(&path).unwrap();
+    assert_eq!(again.options.gap_filling, clim.options.gap_filling);
+}

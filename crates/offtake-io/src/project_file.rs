@@ -714,6 +714,7 @@ pub mod v0 {
                 design_basis: old.options.design_basis,
                 rotation_period_days: old.options.rotation_period_days,
                 available_supply: None,
+                gap_filling: cur::GapFilling::default(),
             },
             scenarios: Vec::new(),
         }

@@ -373,7 +373,7 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
             .map_err(EngineError::Station)?;
     let repaired = crate::gapfill::repair_for_daily_balance(
         input.weather,
-        &crate::gapfill::GapFillOptions::default(),
+        &project.options.gap_filling.options(),
         |d| checker.et0_mm_day(d).map(|_| ()).map_err(|e| e.to_string()),
     )
     .map_err(|e| EngineError::WeatherFill(e.to_string()))?;
@@ -393,7 +393,12 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     let (inserted, filled_days) = (repaired.inserted_days, repaired.filled_days);
     if inserted > 0 || filled_days > 0 {
         warnings.push(format!(
-            "weather: {inserted} missing dates added and values filled on {filled_days} days (interpolation up to 3 days, FAO-56 missing-data procedures beyond)"
+            "weather: {inserted} missing dates added and values filled on {filled_days} days (interpolation up to {} days, {} beyond)",
+            project.options.gap_filling.max_interpolation_days,
+            match project.options.gap_filling.long_gaps {
+                crate::project::LongGaps::Fao56Procedures => "FAO-56 missing-data procedures",
+                crate::project::LongGaps::Climatology => "the day-of-year climatology of the series",
+            }
         ));
     }
     let filled = repaired.filled;

@@ -673,6 +673,59 @@ pub struct Options {
     /// Available supply for the rotation roster; `None` = supply suffices.
     #[serde(default)]
     pub available_supply: Option<AvailableSupply>,
+    /// How gaps in the weather record are filled before the daily balance.
+    /// Older files without the field take the default.
+    #[serde(default, skip_serializing_if = "GapFilling::is_default")]
+    pub gap_filling: GapFilling,
+}
+
+/// How the weather record's gaps are filled (see [`crate::gapfill`]).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct GapFilling {
+    /// Longest gap (days) filled by linear interpolation (default 3, common
+    /// practice).
+    pub max_interpolation_days: u32,
+    /// Method for longer gaps.
+    pub long_gaps: LongGaps,
+}
+
+/// Method for gaps longer than the interpolation limit.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+pub enum LongGaps {
+    /// The FAO-56 missing-data procedures (radiation from the temperature
+    /// range, vapour pressure from Tmin, default wind), the default.
+    Fao56Procedures,
+    /// The day-of-year climatology of the series itself.
+    Climatology,
+}
+
+impl Default for GapFilling {
+    fn default() -> Self {
+        Self {
+            max_interpolation_days: 3,
+            long_gaps: LongGaps::Fao56Procedures,
+        }
+    }
+}
+
+impl GapFilling {
+    /// True for the default choice (not written to files).
+    pub fn is_default(&self) -> bool {
+        *self == Self::default()
+    }
+
+    /// The gap-filling options of the computation.
+    pub fn options(&self) -> crate::gapfill::GapFillOptions {
+        crate::gapfill::GapFillOptions {
+            max_interpolation_days: self.max_interpolation_days,
+            long_gaps: match self.long_gaps {
+                LongGaps::Fao56Procedures => crate::gapfill::LongGapMethod::Fao56MissingData,
+                LongGaps::Climatology => crate::gapfill::LongGapMethod::Climatology,
+            },
+            ..crate::gapfill::GapFillOptions::default()
+        }
+    }
 }
 
 fn default_et0_method() -> Et0Method {
@@ -690,6 +743,7 @@ impl Default for Options {
             design_basis: DesignBasis::TenDay,
             rotation_period_days: 7,
             available_supply: None,
+            gap_filling: GapFilling::default(),
         }
     }
 }
