@@ -515,7 +515,6 @@ fn weather(
     use offtake_core::et0::series::{
         Et0Options, HumiditySource, RadiationSource, WindSource, et0_daily_series,
     };
-    use offtake_core::weather::StationSite;
     use offtake_io::weather::load_project_weather;
 
     let p = &snap.project;
@@ -549,25 +548,8 @@ fn weather(
         Ok(d) => d,
         Err(e) => return Some(Err(e.clone())),
     };
-    let site = StationSite {
-        latitude_deg: p.weather.latitude_deg,
-        elevation_m: p.weather.elevation_m,
-        wind_height_m: p.weather.wind_height_m,
-    };
-    let method = match p.options.et0_method {
-        offtake_core::project::Et0Method::PenmanMonteith => {
-            offtake_core::et0::method::Et0Method::PenmanMonteith
-        }
-        offtake_core::project::Et0Method::Hargreaves => {
-            offtake_core::et0::method::Et0Method::HargreavesSamani
-        }
-        offtake_core::project::Et0Method::AsceShort => {
-            offtake_core::et0::method::Et0Method::AsceShort
-        }
-        offtake_core::project::Et0Method::AsceTall => {
-            offtake_core::et0::method::Et0Method::AsceTall
-        }
-    };
+    let site = offtake_core::engine::site_of(p);
+    let method = p.options.et0_method.into();
     let options = Et0Options {
         method,
         ..Et0Options::default()

@@ -63,15 +63,6 @@ impl PreparedWeather {
     }
 }
 
-fn et0_method(m: ProjectEt0Method) -> crate::et0::Et0Method {
-    match m {
-        ProjectEt0Method::PenmanMonteith => crate::et0::Et0Method::PenmanMonteith,
-        ProjectEt0Method::Hargreaves => crate::et0::Et0Method::HargreavesSamani,
-        ProjectEt0Method::AsceShort => crate::et0::Et0Method::AsceShort,
-        ProjectEt0Method::AsceTall => crate::et0::Et0Method::AsceTall,
-    }
-}
-
 /// Actual vapour pressure ea (kPa) by the FAO-56 precedence (Chapter 3,
 /// pp. 37–39 and 58): measured ea; dewpoint (eq. 14); RHmax and RHmin
 /// (eq. 17); RHmax (eq. 18); RHmean (eq. 19); else e°(Tmin) (eq. 48).
@@ -111,7 +102,7 @@ pub fn prepare_weather(
     let first = days.first().ok_or(EngineError::NoWeather)?;
     let start = first.date;
     let options = Et0Options {
-        method: et0_method(method),
+        method: method.into(),
         ..Et0Options::default()
     };
     let ctx = Et0Context::new(site, &options).map_err(EngineError::Station)?;

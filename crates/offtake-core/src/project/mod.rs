@@ -629,6 +629,17 @@ pub enum Et0Method {
     AsceTall,
 }
 
+impl From<Et0Method> for crate::et0::Et0Method {
+    fn from(m: Et0Method) -> Self {
+        match m {
+            Et0Method::PenmanMonteith => Self::PenmanMonteith,
+            Et0Method::Hargreaves => Self::HargreavesSamani,
+            Et0Method::AsceShort => Self::AsceShort,
+            Et0Method::AsceTall => Self::AsceTall,
+        }
+    }
+}
+
 /// Flow available at a node, for the rotation roster.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
 pub enum SupplyFlow {
