@@ -95,6 +95,10 @@ pub fn table_rows(c: &Comparison) -> Vec<(String, Vec<String>)> {
     rows
 }
 
+/// Name of the scenario that keeps the base plan as it is, added with the
+/// first alternative.
+pub const BASELINE_NAME: &str = "current-plan";
+
 fn fresh_name(project: &Project) -> String {
     (1..=10_000)
         .map(|i| format!("plan-{i}"))
@@ -137,11 +141,22 @@ impl CompareTab {
             if ui
                 .button("Create scenario from the current plan")
                 .on_hover_text(
-                    "Adds a scenario equal to today's base plan (no overrides), to keep beside the alternatives",
+                    "Adds a scenario equal to today's base plan (no overrides) to change into an alternative; \
+                     the first one also adds \"current-plan\", the plan as it is, as the comparison's baseline",
                 )
                 .clicked()
             {
                 let mut list = project.scenarios.clone();
+                if list.is_empty() {
+                    // The first alternative: keep the plan as it is beside
+                    // it, so the comparison has its baseline.
+                    list.push(Scenario {
+                        name: BASELINE_NAME.to_owned(),
+                        description: "The base plan as it is (no overrides), kept for comparison.".to_owned(),
+                        overrides: Vec::new(),
+                        weather: offtake_core::project::WeatherPerturbation::default(),
+                    });
+                }
                 let name = fresh_name(project);
                 // Scenario editor: the new scenario opens for editing.
                 commands.push(Command::EditScenario(Some(name.clone())));
