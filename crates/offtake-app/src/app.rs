@@ -957,7 +957,8 @@ impl OfftakeApp {
         let dir = dir.to_path_buf();
         let (tx, rx) = mpsc::channel();
         std::thread::spawn(move || {
-            let outcome = crate::export::write_tables(&results, &project, &dir);
+            let outcome =
+                crate::export::write_tables(&results, &project, &dir).map_err(|e| e.to_string());
             let _ = tx.send((dir, outcome));
         });
         self.export_job = Some(rx);

@@ -318,10 +318,14 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
                             visible_slice(&s.points, bounds.min()[0], bounds.max()[0])
                         };
                         let pts = decimate_min_max(shown, width_px);
+                        // Already decimated to the pixel columns; egui_plot's
+                        // own band drawing would turn the vertical jumps of
+                        // step lines (period means) into filled polygons.
                         plot_ui.line(
                             Line::new(s.name.clone(), PlotPoints::from(pts))
                                 .color(s.colour)
-                                .style(s.style),
+                                .style(s.style)
+                                .allow_band(false),
                         );
                     }
                     SeriesKind::Points { radius } => {
