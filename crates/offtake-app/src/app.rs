@@ -465,6 +465,7 @@ impl OfftakeApp {
                 selection: &self.state.selection,
                 computed: self.computed.as_ref(),
                 scenario: self.state.scenario.as_deref(),
+                libraries: &libraries,
             };
             self.tabs.ui(ui, self.state.tab, &view, &mut commands);
         });

@@ -195,6 +195,11 @@ fn a_new_user_builds_a_two_canal_scheme_compares_two_patterns_and_exports_the_wo
     );
     h.get_by_label(&format!("Design flow {shown} l/s"));
 
+    // The demand at the headworks, stacked by crop under the crops' names.
+    click(&mut h, Tab::Demand.title());
+    h.get_by_label("GIR, Cotton");
+    h.get_by_label("GIR, Maize, field (grain)");
+
     // A second cropping pattern: the branch block grows cotton instead.
     click(&mut h, Tab::Compare.title());
     settle(&mut h);

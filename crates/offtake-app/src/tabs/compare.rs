@@ -12,7 +12,7 @@ use super::{View, empty_state, no_project};
 use crate::command::Command;
 use crate::edit::DocEdit;
 use crate::fields::{format_number, format_sig};
-use crate::palette::colour_for_id;
+use crate::palette::Colours;
 
 /// View state of the Compare tab.
 #[derive(Debug, Default)]
@@ -240,6 +240,7 @@ fn grouped_bars(ui: &mut Ui, c: &Comparison) {
     let names: Vec<String> = c.columns.iter().map(|s| s.name.clone()).collect();
     let n_seasons = c.seasons.len().max(1) as f64;
     let width = 0.8 / n_seasons;
+    let colours = Colours::for_ids(&c.seasons);
     Plot::new("compare-bars")
         .legend(Legend::default())
         .y_axis_label("Headworks volume (Mm³/year)")
@@ -271,7 +272,7 @@ fn grouped_bars(ui: &mut Ui, c: &Comparison) {
                     })
                     .collect();
                 plot_ui.bar_chart(
-                    BarChart::new(format!("{season} season"), bars).color(colour_for_id(season)),
+                    BarChart::new(format!("{season} season"), bars).color(colours.of(season)),
                 );
             }
         });
