@@ -26,8 +26,12 @@ fn mm3(v: f64) -> String {
     format_sig(v / 1.0e6, 3)
 }
 
-/// Rows of the comparison table: title with unit, one value per scenario.
-pub fn table_rows(c: &Comparison) -> Vec<(String, Vec<String>)> {
+/// Rows of the comparison table: title with unit, one value per scenario;
+/// `crop_name` turns a crop id into its display name.
+pub fn table_rows(
+    c: &Comparison,
+    crop_name: &dyn Fn(&str) -> String,
+) -> Vec<(String, Vec<String>)> {
     let col = |f: &dyn Fn(&ScenarioColumn) -> String| c.columns.iter().map(f).collect::<Vec<_>>();
     let mut rows = vec![
         (
@@ -57,7 +61,7 @@ pub fn table_rows(c: &Comparison) -> Vec<(String, Vec<String>)> {
     }
     for crop in &c.crops {
         rows.push((
-            format!("Area of {crop} (ha)"),
+            format!("Area of {} (ha)", crop_name(crop)),
             col(&|s| {
                 s.area_by_crop
                     .iter()
@@ -223,7 +227,7 @@ impl CompareTab {
                             ui.label(RichText::new(&s.name).strong());
                         }
                         ui.end_row();
-                        for (title, values) in table_rows(c) {
+                        for (title, values) in table_rows(c, &|id| view.crop_name(id)) {
                             ui.label(title);
                             for v in values {
                                 ui.label(v);

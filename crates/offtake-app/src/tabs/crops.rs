@@ -122,7 +122,7 @@ impl CropCurvesTab {
                 .collect();
             series.push(Series {
                 name: format!(
-                    "{} climate-adjusted, season {} (cohorts averaged)",
+                    "{} adjusted Kc, season {} (area-weighted over cohorts, 0 before planting)",
                     s.request.planting, s.year
                 ),
                 points,
