@@ -387,6 +387,7 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
                                 Bar::new(0.5 * (a + b), r[0][1])
                                     .width((b - a).abs())
                                     .base_offset(r[1][1])
+                                    .stroke(egui::Stroke::NONE)
                             })
                             .collect();
                         plot_ui.bar_chart(

@@ -111,14 +111,16 @@ fn shown_design_flow_ls(h: &H) -> f64 {
         .design_flow_ls
 }
 
-/// Adds a block under `canal` with `area` ha of `soil`, surface irrigated
-/// at Ea 0.6, and one planting of `crop` on `date` (MM-DD).
+/// Adds a block under `canal` with `area` ha of loam, surface irrigated at
+/// Ea 55 % (typed in %, as the inspector shows efficiencies), and one
+/// planting of `crop` on `date` (MM-DD).
 fn add_block(h: &mut H, canal: &str, area: &str, crop: &str, date: &str) {
     context(h, canal, "Add block");
     type_into(h, "Area", area);
     pick(h, "Soil", "Loam");
-    type_into(h, "Application efficiency Ea", "0.6");
+    type_into(h, "Application efficiency Ea", "55");
     let block = project(h).blocks.last().expect("new block").clone();
+    assert!((block.method.application_efficiency - 0.55).abs() < 1e-12);
     context(h, &format!("{} — {} ha", block.name, area), "Add planting");
     pick(h, "Crop", crop);
     type_into(h, "First planting", date);

@@ -143,19 +143,18 @@ impl WeatherTab {
                     style: egui_plot::LineStyle::Solid,
                     kind: SeriesKind::Bars { width: 1.0 },
                 },
+                // The band of the day-of-year climatology: one span per
+                // day from the 10 % to the 90 % value of all years.
                 Series {
-                    name: "ET₀ 10 % of years (day of year)".to_owned(),
-                    points: band(|b| b.p10),
+                    name: "ET₀ of the record, 10–90 % of years (day of year)".to_owned(),
+                    points: band(|b| b.p10)
+                        .iter()
+                        .zip(band(|b| b.p90))
+                        .flat_map(|(lo, hi)| [[lo[0] - 0.5, hi[1] - lo[1]], [lo[0] + 0.5, lo[1]]])
+                        .collect(),
                     colour: grey,
-                    style: egui_plot::LineStyle::Dotted { spacing: 4.0 },
-                    kind: SeriesKind::Line,
-                },
-                Series {
-                    name: "ET₀ 90 % of years (day of year)".to_owned(),
-                    points: band(|b| b.p90),
-                    colour: grey,
-                    style: egui_plot::LineStyle::Dashed { length: 6.0 },
-                    kind: SeriesKind::Line,
+                    style: egui_plot::LineStyle::Solid,
+                    kind: SeriesKind::Spans,
                 },
                 Series::line(format!("ET₀ {year}"), et0, OKABE_ITO[0]),
                 Series {
