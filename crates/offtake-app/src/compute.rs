@@ -459,10 +459,8 @@ pub fn season_view(
     req: &SeasonRequest,
     default_year: Option<i32>,
 ) -> Result<SeasonView, String> {
-    use offtake_core::engine::planting_step::{
-        balance_strategy, coefficient_mode, effective_rain_method, is_paddy, paddy_inputs,
-    };
-    use offtake_core::planting::{PlantingSpec, PlantingWeather, season_detail};
+    use offtake_core::engine::planting_step::{coefficient_mode, planting_spec, planting_weather};
+    use offtake_core::planting::season_detail;
     let p = project
         .plantings
         .iter()
@@ -479,22 +477,14 @@ pub fn season_view(
     let soil = libraries
         .soil(&b.soil)
         .ok_or_else(|| format!("soil {:?} is not in the soil library", b.soil))?;
-    let mut spec = PlantingSpec::new(crop, soil, p.first_planting.month, p.first_planting.day);
-    spec.spread_days = p.spread_days;
-    spec.season_length_days = p.season_length_days;
-    spec.strategy = balance_strategy(p.strategy, crop);
-    spec.effective_rain = effective_rain_method(project.options.effective_rain, crop, soil);
-    spec.coefficients = coefficient_mode(p, b).0;
-    if is_paddy(crop) {
-        spec.paddy = Some(paddy_inputs(p).paddy_options());
-    }
-    let weather = PlantingWeather {
-        start: w.start,
-        et0_mm: &w.et0_mm,
-        rain_mm: &w.rain_mm,
-        wind_2m_ms: &w.wind_2m_ms,
-        rhmin_pct: &w.rhmin_pct,
-    };
+    let spec = planting_spec(
+        crop,
+        soil,
+        p,
+        project.options.effective_rain,
+        coefficient_mode(p, b).0,
+    );
+    let weather = planting_weather(w);
     let year = req.year.or(default_year).ok_or_else(|| {
         "no complete irrigation year in the weather record to take the season from".to_owned()
     })?;

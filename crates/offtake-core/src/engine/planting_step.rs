@@ -216,6 +216,45 @@ pub fn coefficient_mode(planting: &Planting, block: &Block) -> (CoefficientMode,
     }
 }
 
+/// The planting module's input for a project planting on `soil`: window,
+/// season length, strategy, effective rain, coefficient mode and, for paddy
+/// rice, the paddy inputs. The one place a project planting becomes a
+/// [`PlantingSpec`] (the engine and the app's season view both use it).
+pub fn planting_spec<'a>(
+    crop: &'a Crop,
+    soil: &'a Soil,
+    planting: &Planting,
+    effective_rain: EffectiveRain,
+    coefficients: CoefficientMode,
+) -> PlantingSpec<'a> {
+    let mut spec = PlantingSpec::new(
+        crop,
+        soil,
+        planting.first_planting.month,
+        planting.first_planting.day,
+    );
+    spec.spread_days = planting.spread_days;
+    spec.season_length_days = planting.season_length_days;
+    spec.strategy = balance_strategy(planting.strategy, crop);
+    spec.effective_rain = effective_rain_method(effective_rain, crop, soil);
+    spec.coefficients = coefficients;
+    if is_paddy(crop) {
+        spec.paddy = Some(paddy_inputs(planting).paddy_options());
+    }
+    spec
+}
+
+/// The planting module's view of the prepared weather.
+pub fn planting_weather(w: &PreparedWeather) -> PlantingWeather<'_> {
+    PlantingWeather {
+        start: w.start,
+        et0_mm: &w.et0_mm,
+        rain_mm: &w.rain_mm,
+        wind_2m_ms: &w.wind_2m_ms,
+        rhmin_pct: &w.rhmin_pct,
+    }
+}
+
 /// Simulates one planting over the whole weather record, per hectare.
 ///
 /// `delivered_net_mm`, when given, is the net depth (mm/day per hectare of
@@ -234,27 +273,8 @@ pub fn simulate_planting(
     w: &PreparedWeather,
     delivered_net_mm: Option<&[f64]>,
 ) -> Result<PlantingOutcome, String> {
-    let mut spec = PlantingSpec::new(
-        crop,
-        soil,
-        planting.first_planting.month,
-        planting.first_planting.day,
-    );
-    spec.spread_days = planting.spread_days;
-    spec.season_length_days = planting.season_length_days;
-    spec.strategy = balance_strategy(planting.strategy, crop);
-    spec.effective_rain = effective_rain_method(effective_rain, crop, soil);
-    spec.coefficients = coefficients;
-    if is_paddy(crop) {
-        spec.paddy = Some(paddy_inputs(planting).paddy_options());
-    }
-    let weather = PlantingWeather {
-        start: w.start,
-        et0_mm: &w.et0_mm,
-        rain_mm: &w.rain_mm,
-        wind_2m_ms: &w.wind_2m_ms,
-        rhmin_pct: &w.rhmin_pct,
-    };
+    let spec = planting_spec(crop, soil, planting, effective_rain, coefficients);
+    let weather = planting_weather(w);
     let result = match delivered_net_mm {
         Some(d) => run_planting_with_delivery(&spec, &weather, d),
         None => run_planting(&spec, &weather),
