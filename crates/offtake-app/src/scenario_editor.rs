@@ -890,13 +890,12 @@ pub fn window(
 /// scenario that is the base plan unchanged (if the project has one).
 fn result_line(ui: &mut Ui, base: &Project, scenario: &Scenario, results: Results<'_>) {
     use crate::fields::format_sig;
-    let comparison = results
-        .computed
-        .and_then(|c| c.comparison.as_ref())
-        .and_then(|c| c.as_ref().ok());
+    let comparison = results.computed.and_then(|c| c.comparison.as_ref());
     let text = if results.recomputing {
         "Recomputing the scenarios…".to_owned()
-    } else if let Some(c) = comparison {
+    } else if let Some(Err(e)) = comparison {
+        format!("The scenarios cannot be computed: {e}")
+    } else if let Some(Ok(c)) = comparison {
         let figures = |col: &offtake_core::engine::ScenarioColumn| {
             let short = if col.shortfall_periods > 0 {
                 format!(
