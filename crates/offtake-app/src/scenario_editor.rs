@@ -272,15 +272,31 @@ pub fn with_planting_added(scenario: &Scenario, planting: Planting) -> Scenario 
     out
 }
 
+/// What a crop shift gives the plantings it makes: `None` keeps the
+/// original planting's strategy and the library season length.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct ShiftedPlantings {
+    /// Irrigation strategy of the new plantings.
+    pub strategy: Option<Strategy>,
+    /// Season length of the new plantings (days).
+    pub season_length_days: Option<u32>,
+}
+
 /// The scenario with "move `share_pct` % of `from` to `to`": replaces an
 /// earlier shift between the same two crops, else is added at the end.
-pub fn with_shift(scenario: &Scenario, from: &str, to: &str, share_pct: f64) -> Scenario {
+pub fn with_shift(
+    scenario: &Scenario,
+    from: &str,
+    to: &str,
+    share_pct: f64,
+    new: ShiftedPlantings,
+) -> Scenario {
     let ov = Override::ShiftCropShare {
         from_crop: from.to_owned(),
         to_crop: to.to_owned(),
         share_pct,
-        strategy: None,
-        season_length_days: None,
+        strategy: new.strategy,
+        season_length_days: new.season_length_days,
     };
     let mut out = scenario.clone();
     match out.overrides.iter().position(|o| same_target(o, &ov)) {
@@ -422,6 +438,7 @@ pub fn with_item_override(base: &Project, scenario: &Scenario, ov: Override) -> 
 pub fn override_problems(ov: &Override) -> Vec<String> {
     use crate::inspector::bounds as ib;
     let mut out = Vec::new();
+    let mut share = None;
     let mut check = |b: &Bounds, stored: f64| {
         if let Err(e) = b.check(stored * b.factor) {
             out.push(e);
@@ -446,9 +463,18 @@ pub fn override_problems(ov: &Override) -> Vec<String> {
         } => check(&bounds::SPREAD, f64::from(*d)),
         Override::SetPlantingStrategy { strategy, .. } => strategy_problems(strategy, &mut check),
         Override::AddPlanting(pl) => planting(pl, &mut check),
-        Override::ShiftCropShare { share_pct, .. } => {
-            if let Err(e) = check_share(&share_pct.to_string()) {
-                out.push(e);
+        Override::ShiftCropShare {
+            share_pct,
+            strategy,
+            season_length_days,
+            ..
+        } => {
+            share = check_share(&share_pct.to_string()).err();
+            if let Some(st) = strategy {
+                strategy_problems(st, &mut check);
+            }
+            if let Some(d) = season_length_days {
+                check(&ib::SEASON, f64::from(*d));
             }
         }
         Override::SetBlockEfficiency {
@@ -477,6 +503,7 @@ pub fn override_problems(ov: &Override) -> Vec<String> {
         } => check(&ib::HOURS, *operating_hours_per_day),
         _ => {}
     }
+    out.extend(share);
     out
 }
 
@@ -653,13 +680,28 @@ pub fn sentence(ov: &Override, base: &Project, libs: &Libraries) -> String {
             from_crop,
             to_crop,
             share_pct,
-            ..
-        } => format!(
-            "Moves {} % of every {} planting to {}.",
-            format_number(*share_pct, 2),
-            crop_name(libs, from_crop),
-            crop_name(libs, to_crop)
-        ),
+            strategy,
+            season_length_days,
+        } => {
+            let mut new = Vec::new();
+            if let Some(s) = strategy {
+                new.push(format!("irrigated: {}", strategy_text(s)));
+            }
+            if let Some(d) = season_length_days {
+                new.push(format!("season {d} days"));
+            }
+            format!(
+                "Moves {} % of every {} planting to {}{}.",
+                format_number(*share_pct, 2),
+                crop_name(libs, from_crop),
+                crop_name(libs, to_crop),
+                if new.is_empty() {
+                    String::new()
+                } else {
+                    format!(" (new plantings {})", new.join(", "))
+                }
+            )
+        }
         Override::SetBlockEfficiency {
             block,
             method,
@@ -756,6 +798,7 @@ pub struct ScenarioEditor {
     shift_from: Option<String>,
     shift_to: Option<String>,
     shift_share: String,
+    shift_new: ShiftedPlantings,
     /// The block whose efficiencies the block form changes.
     change_block: Option<String>,
     /// Which of the block's values the form changes.
@@ -1346,7 +1389,7 @@ fn planting_form(
             spread_days: Some(v as u32),
         });
     }
-    if let Some(s) = strategy_editor(ui, name, &pl.id, pl.strategy) {
+    if let Some(s) = strategy_editor(ui, ("Strategy in scenario", ""), name, &pl.id, pl.strategy) {
         push(Override::SetPlantingStrategy {
             planting: pl.id.clone(),
             strategy: s,
@@ -1362,18 +1405,22 @@ fn planting_form(
 }
 
 /// The strategy picker with its parameters; returns a changed strategy.
+/// `combo` labels the picker; `suffix` is added to each parameter's label
+/// so that two editors in one window keep distinct labels.
 fn strategy_editor(
     ui: &mut Ui,
+    (combo, suffix): (&str, &str),
     scenario: &str,
     planting: &str,
     current: Strategy,
 ) -> Option<Strategy> {
     use crate::inspector::bounds as b;
     let mut s = current;
-    crate::inspector::strategy_kind_combo(ui, "Strategy in scenario", &mut s);
+    crate::inspector::strategy_kind_combo(ui, combo, &mut s);
     let param = |ui: &mut Ui, field: &str, label: &str, v: f64, bounds: &Bounds| {
         // A number out of range is kept; the field shows why.
-        number_field(ui, fid(scenario, planting, field), label, v, bounds, 1).committed
+        let label = format!("{label}{suffix}");
+        number_field(ui, fid(scenario, planting, field), &label, v, bounds, 1).committed
     };
     match &mut s {
         Strategy::Refill { trigger_pct_of_raw } => {
@@ -1494,6 +1541,7 @@ fn shift_ui(
         crop_picker(ui, "Crop gaining area", &mut to, libs);
         editor.shift_to = (!to.is_empty()).then_some(to);
     });
+    shifted_plantings_ui(ui, &mut editor.shift_new, &scenario.name);
     // A number outside (0, 100] can be applied and is kept (the scenario
     // then cannot be computed and says why); text that is no number cannot.
     let share = if editor.shift_share.trim().is_empty() {
@@ -1520,12 +1568,66 @@ fn shift_ui(
     {
         commands.push(edit_command(
             &scenario.name,
-            with_shift(scenario, &from, &to, v),
+            with_shift(scenario, &from, &to, v, editor.shift_new),
         ));
     }
 }
 
-/// A combo box choosing a block or canal by name (id in brackets).
+/// The optional strategy and season length of the plantings a crop shift
+/// makes (kept in the form until the shift is applied).
+fn shifted_plantings_ui(ui: &mut Ui, new: &mut ShiftedPlantings, scenario: &str) {
+    let mut own = new.strategy.is_some();
+    if ui
+        .checkbox(&mut own, "Own irrigation strategy for the new plantings")
+        .on_hover_text(
+            "Otherwise each new planting keeps the strategy of the planting it comes from",
+        )
+        .changed()
+    {
+        new.strategy = own.then_some(Strategy::Refill {
+            trigger_pct_of_raw: 100.0,
+        });
+    }
+    if let Some(s) = new.strategy
+        && let Some(changed) = strategy_editor(
+            ui,
+            ("Strategy of the new plantings", " of the new plantings"),
+            scenario,
+            "shift",
+            s,
+        )
+    {
+        new.strategy = Some(changed);
+    }
+    let mut own = new.season_length_days.is_some();
+    if ui
+        .checkbox(&mut own, "Own season length for the new plantings")
+        .on_hover_text("Otherwise the crop library's season length (the FAO-56 stage lengths)")
+        .changed()
+    {
+        new.season_length_days = own.then_some(120);
+    }
+    if let Some(days) = new.season_length_days {
+        let out = number_field(
+            ui,
+            fid(scenario, "shift", "season"),
+            "Season length of the new plantings",
+            f64::from(days),
+            &crate::inspector::bounds::SEASON,
+            0,
+        );
+        // Whole days; a length outside the range is kept and shown.
+        if let Some(v) = out.committed
+            && v >= 0.0
+            && v.fract() == 0.0
+            && v <= f64::from(u32::MAX)
+        {
+            new.season_length_days = Some(v as u32);
+        }
+    }
+}
+
+/// A combo box choosing a block or canal by name (id in brackets)./// A combo box choosing a block or canal by name (id in brackets).
 fn item_combo<'a>(
     ui: &mut Ui,
     label: &str,
@@ -1999,10 +2101,36 @@ mod tests {
     #[test]
     fn shifts_between_the_same_crops_replace_and_bad_overrides_are_reported() {
         let base = demo();
-        let s = with_shift(&empty("a"), "rice-paddy", "maize-grain", 30.0);
-        let s = with_shift(&s, "rice-paddy", "maize-grain", 40.0);
+        let own = ShiftedPlantings {
+            strategy: Some(Strategy::Interval { days: 7 }),
+            season_length_days: Some(110),
+        };
+        let s = with_shift(&empty("a"), "rice-paddy", "maize-grain", 30.0, own);
+        let s = with_shift(&s, "rice-paddy", "maize-grain", 40.0, own);
+        assert!(matches!(
+            s.overrides.as_slice(),
+            [Override::ShiftCropShare { share_pct, strategy: Some(Strategy::Interval { days: 7 }), season_length_days: Some(110), .. }]
+                if (*share_pct - 40.0).abs() < 1e-12
+        ));
+        let made = plan(&base, &s);
+        let new = made.project.planting("C1-rice-maize-grain").unwrap();
+        assert_eq!(new.strategy, Strategy::Interval { days: 7 });
+        assert_eq!(new.season_length_days, Some(110));
+        let s = with_shift(
+            &s,
+            "rice-paddy",
+            "maize-grain",
+            40.0,
+            ShiftedPlantings::default(),
+        );
         assert_eq!(s.overrides.len(), 1);
-        let s = with_shift(&s, "no-such-crop", "maize-grain", 10.0);
+        let s = with_shift(
+            &s,
+            "no-such-crop",
+            "maize-grain",
+            10.0,
+            ShiftedPlantings::default(),
+        );
         let p = plan(&base, &s);
         assert_eq!(p.problems.len(), 1);
         assert_eq!(p.problems[0].0, 1);

@@ -14,7 +14,9 @@ use egui_kittest::kittest::Queryable;
 use offtake_app::OfftakeApp;
 use offtake_app::fields::format_sig;
 use offtake_core::engine::{Results, ScenarioColumn};
-use offtake_core::project::{Override, Project, Scenario, ValidationContext, ValidationProblem};
+use offtake_core::project::{
+    Override, Project, Scenario, Strategy, ValidationContext, ValidationProblem,
+};
 
 fn demo_file() -> PathBuf {
     PathBuf::from(concat!(
@@ -285,7 +287,7 @@ fn a_weather_change_that_is_not_a_number_is_refused_with_its_reason() {
 }
 
 #[test]
-fn a_crop_shift_is_stored_with_its_share_and_a_bad_share_shows_its_reason() {
+fn a_crop_shift_is_stored_with_its_share_and_strategy_and_a_bad_share_is_kept_with_its_reason() {
     let mut h = demo_harness();
     let name = create_scenario(&mut h);
     let share = h.get_by_label("Share moved");
@@ -294,21 +296,48 @@ fn a_crop_shift_is_stored_with_its_share_and_a_bad_share_shows_its_reason() {
     h.get_by_label("Share moved").type_text("150");
     h.run();
     h.get_by_label("Share moved must be more than 0 % and at most 100 %");
-    h.key_press_modifiers(Modifiers::COMMAND, Key::A);
-    h.get_by_label("Share moved").type_text("25");
-    h.run();
     click(&mut h, "Crop losing area");
     click_last(&mut h, "Rice, paddy");
     click(&mut h, "Crop gaining area");
     click_last(&mut h, "Maize, field (grain)");
+    // The new plantings get their own strategy: every 10 days.
+    click(&mut h, "Own irrigation strategy for the new plantings");
+    click(&mut h, "Strategy of the new plantings");
+    click_last(&mut h, "Fixed interval");
+    type_into(&mut h, "Interval of the new plantings", "10");
+    h.key_press(Key::Enter);
+    h.run();
+    // A share out of range is applied as typed and kept; the scenario says
+    // why it cannot be computed.
     click(&mut h, "Apply shift");
     settle(&mut h);
     let s = scenario(&h, &name);
-    assert!(matches!(
-        s.overrides.as_slice(),
-        [Override::ShiftCropShare { from_crop, to_crop, share_pct, .. }]
-            if from_crop == "rice-paddy" && to_crop == "maize-grain" && (*share_pct - 25.0).abs() < 1e-12
-    ));
+    assert!(
+        matches!(
+            s.overrides.as_slice(),
+            [Override::ShiftCropShare { share_pct, .. }] if (*share_pct - 150.0).abs() < 1e-12
+        ),
+        "{:?}",
+        s.overrides
+    );
+    h.get_by_label("Cannot apply: share 150 % is outside (0, 100]");
+    h.get_by_label("1. Share moved must be more than 0 % and at most 100 %");
+
+    // 25 % between the same crops replaces it.
+    type_into(&mut h, "Share moved", "25");
+    click(&mut h, "Apply shift");
+    settle(&mut h);
+    let s = scenario(&h, &name);
+    assert!(
+        matches!(
+            s.overrides.as_slice(),
+            [Override::ShiftCropShare { from_crop, to_crop, share_pct, strategy: Some(Strategy::Interval { days: 10 }), season_length_days: None }]
+                if from_crop == "rice-paddy" && to_crop == "maize-grain" && (*share_pct - 25.0).abs() < 1e-12
+        ),
+        "{:?}",
+        s.overrides
+    );
+    h.get_by_label_contains("(new plantings irrigated: every 10 days)");
     // The plan table lists the new maize plantings the shift makes.
     h.get_by_label("C1-rice-maize-grain");
 }
