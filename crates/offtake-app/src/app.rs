@@ -85,8 +85,9 @@ pub struct OfftakeApp {
     /// Screenshots cropped to a plot arrive here from the renderer.
     images_tx: Sender<PendingImage>,
     images_rx: Receiver<PendingImage>,
-    /// Whether file dialogs may open (off in headless tests).
-    dialogs: bool,
+    /// Where file and folder choices come from (native dialogs, or answers
+    /// given in advance in headless tests).
+    prompt: crate::prompt::FilePrompt,
     /// The user confirmed closing with unsaved changes.
     closing: bool,
     /// Autosave to a recovery file (off when `None`).
@@ -168,7 +169,7 @@ impl OfftakeApp {
             commands: Vec::new(),
             images_tx,
             images_rx,
-            dialogs: true,
+            prompt: crate::prompt::FilePrompt::Native,
             closing: false,
             recovery: None,
             offer_recovery: false,
@@ -181,11 +182,31 @@ impl OfftakeApp {
     }
 
     /// Turns native file dialogs off (headless tests): commands that need a
-    /// file then report so in the status line instead.
+    /// file take the answers given with [`Self::answer_next`], in order, and
+    /// report "File dialogs are off" when none is left.
     #[must_use]
     pub fn without_dialogs(mut self) -> Self {
-        self.dialogs = false;
+        self.prompt = crate::prompt::FilePrompt::scripted([]);
         self
+    }
+
+    /// Gives the answer to the next file or folder question in advance (the
+    /// path a user would pick in the dialog). Turns native dialogs off.
+    pub fn answer_next(&mut self, path: impl Into<std::path::PathBuf>) {
+        self.prompt.push(path.into());
+    }
+
+    /// Asks for a file or folder; `None` when cancelled or headless with no
+    /// answer left (then the status line says so).
+    fn ask(&mut self, ask: &crate::prompt::Ask) -> Option<std::path::PathBuf> {
+        match self.prompt.ask(ask) {
+            Ok(path) => Some(path),
+            Err(crate::prompt::NoAnswer::Cancelled) => None,
+            Err(crate::prompt::NoAnswer::NoDialogs) => {
+                self.state.message = Some("File dialogs are off".to_owned());
+                None
+            }
+        }
     }
 
     /// Autosaves unsaved work to `path`; if the file is already there (an
@@ -444,6 +465,7 @@ impl OfftakeApp {
                 selection: &self.state.selection,
                 computed: self.computed.as_ref(),
                 scenario: self.state.scenario.as_deref(),
+                libraries: &libraries,
             };
             self.tabs.ui(ui, self.state.tab, &view, &mut commands);
         });
@@ -568,15 +590,8 @@ impl OfftakeApp {
             }
             Command::ImportWeather => self.import_weather(),
             Command::ExportWorkbook => {
-                if self.dialogs {
-                    if let Some(dir) = rfd::FileDialog::new()
-                        .set_title("Folder for the result tables and workbook")
-                        .pick_folder()
-                    {
-                        self.export_tables_to(&dir);
-                    }
-                } else {
-                    self.state.message = Some("File dialogs are off".to_owned());
+                if let Some(dir) = self.ask(&crate::prompt::Ask::ExportFolder) {
+                    self.export_tables_to(&dir);
                 }
             }
             Command::DiscardAndRun(inner) => {
@@ -643,14 +658,7 @@ impl OfftakeApp {
         if self.document.is_none() {
             return;
         }
-        if !self.dialogs {
-            self.state.message = Some("File dialogs are off".to_owned());
-            return;
-        }
-        if let Some(file) = rfd::FileDialog::new()
-            .add_filter("Weather CSV", &["csv"])
-            .pick_file()
-        {
+        if let Some(file) = self.ask(&crate::prompt::Ask::WeatherCsv) {
             self.preview_weather(file);
         }
     }
@@ -784,16 +792,11 @@ impl OfftakeApp {
     }
 
     fn pick_file(&mut self, save: bool, suggested: &str) -> Option<std::path::PathBuf> {
-        if !self.dialogs {
-            self.state.message = Some("File dialogs are off".to_owned());
-            return None;
-        }
-        let dialog = rfd::FileDialog::new().add_filter("Offtake project", &["ron"]);
-        if save {
-            dialog.set_file_name(suggested).save_file()
+        self.ask(&if save {
+            crate::prompt::Ask::SaveProject(suggested.to_owned())
         } else {
-            dialog.pick_file()
-        }
+            crate::prompt::Ask::OpenProject
+        })
     }
 
     /// The "discard unsaved changes?" window and the close guard.
@@ -900,21 +903,15 @@ impl OfftakeApp {
     }
 
     fn export_csv(&mut self, file_name: &str, csv: &str) {
-        if !self.dialogs {
-            self.state.message = Some("File dialogs are off".to_owned());
-            return;
-        }
-        let Some(path) = rfd::FileDialog::new()
-            .set_file_name(file_name)
-            .add_filter("CSV", &["csv"])
-            .save_file()
-        else {
+        let Some(path) = self.ask(&crate::prompt::Ask::SaveCsv(file_name.to_owned())) else {
             return;
         };
-        self.state.message = Some(match std::fs::write(&path, csv) {
-            Ok(()) => format!("Plot data saved to {}", path.display()),
-            Err(e) => format!("Could not write {}: {e}", path.display()),
-        });
+        self.state.message = Some(
+            match offtake_io::export::write_bytes(csv.as_bytes(), &path) {
+                Ok(()) => format!("Plot data saved to {}", path.display()),
+                Err(e) => format!("Could not write {}: {e}", path.display()),
+            },
+        );
     }
 
     /// Asks the renderer for a screenshot; the cropped plot arrives on the channel.
@@ -961,7 +958,8 @@ impl OfftakeApp {
         let dir = dir.to_path_buf();
         let (tx, rx) = mpsc::channel();
         std::thread::spawn(move || {
-            let outcome = crate::export::write_tables(&results, &project, &dir);
+            let outcome =
+                crate::export::write_tables(&results, &project, &dir).map_err(|e| e.to_string());
             let _ = tx.send((dir, outcome));
         });
         self.export_job = Some(rx);
@@ -1007,26 +1005,12 @@ impl OfftakeApp {
     }
 
     fn save_png(&mut self, pending: &PendingImage) {
-        if !self.dialogs {
-            return;
-        }
-        let Some(path) = rfd::FileDialog::new()
-            .set_file_name(&pending.file_name)
-            .add_filter("PNG image", &["png"])
-            .save_file()
-        else {
+        let Some(path) = self.ask(&crate::prompt::Ask::SavePng(pending.file_name.clone())) else {
             return;
         };
-        let [w, h] = pending.image.size;
-        let bytes: Vec<u8> = pending
-            .image
-            .pixels
-            .iter()
-            .flat_map(egui::Color32::to_srgba_unmultiplied)
-            .collect();
-        let result = image::RgbaImage::from_raw(w as u32, h as u32, bytes)
-            .ok_or_else(|| "image size does not match its pixels".to_owned())
-            .and_then(|img| img.save(&path).map_err(|e| e.to_string()));
+        let result = encode_png(&pending.image).and_then(|bytes| {
+            offtake_io::export::write_bytes(&bytes, &path).map_err(|e| e.to_string())
+        });
         self.state.message = Some(match result {
             Ok(()) => format!("Plot image saved to {}", path.display()),
             Err(e) => format!("Could not write {}: {e}", path.display()),
@@ -1054,6 +1038,25 @@ impl eframe::App for OfftakeApp {
             self.clear_recovery();
         }
     }
+}
+
+/// Encodes an egui image as PNG (8-bit sRGB with alpha).
+fn encode_png(image: &egui::ColorImage) -> Result<Vec<u8>, String> {
+    let [w, h] = image.size;
+    let (Ok(w), Ok(h)) = (u32::try_from(w), u32::try_from(h)) else {
+        return Err("image too large".to_owned());
+    };
+    let bytes: Vec<u8> = image
+        .pixels
+        .iter()
+        .flat_map(egui::Color32::to_srgba_unmultiplied)
+        .collect();
+    let rgba = image::RgbaImage::from_raw(w, h, bytes)
+        .ok_or_else(|| "image size does not match its pixels".to_owned())?;
+    let mut png = Vec::new();
+    rgba.write_to(&mut std::io::Cursor::new(&mut png), image::ImageFormat::Png)
+        .map_err(|e| e.to_string())?;
+    Ok(png)
 }
 
 /// `file` relative to the project file's folder when it is inside it, else as given.

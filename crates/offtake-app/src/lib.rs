@@ -23,6 +23,8 @@
 //! - [`menu`], [`tree`], [`inspector`], [`fields`], [`status`], [`help`]: the panels.
 //! - [`tabs`]: the centre workspace tabs, one file each.
 //! - [`plot`], [`palette`]: the shared plot widget and colours.
+//! - [`prompt`]: where file and folder choices come from (native dialogs or
+//!   answers given in advance, so headless tests run the real file paths).
 //!
 //! ## Plugging in a computation
 //! [`OfftakeApp::with_compute`] takes any
@@ -60,6 +62,7 @@ pub mod library_editor;
 pub mod menu;
 pub mod palette;
 pub mod plot;
+pub mod prompt;
 pub mod recovery;
 pub mod scenario_editor;
 pub mod state;

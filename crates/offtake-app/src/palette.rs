@@ -6,8 +6,12 @@
 //! here because it vanishes on the dark theme). Hex values as published there
 //! (from memory; checked against the commonly reproduced table).
 //!
-//! A crop (or block) keeps its colour everywhere: the colour is picked from
-//! the palette by a stable hash of its id, never by its position in a list.
+//! A crop (or block) keeps its colour everywhere: [`Colours`] gives each id of
+//! a set (the project's crops, the scheme's blocks) a slot picked by a stable
+//! hash of the id, moving to the next free slot when two ids would share one,
+//! so no two series of a plot share a colour while the set has at most
+//! [`PALETTE_SLOTS`] ids. The assignment depends on the set, never on the
+//! order of a list.
 //! Design and capacity lines are told apart by dash as well as colour
 //! ([`DESIGN_FLOW_STYLE`], [`CAPACITY_STYLE`]).
 
@@ -45,15 +49,68 @@ fn fnv1a_64(bytes: &[u8]) -> u64 {
         .fold(OFFSET_BASIS, |h, &b| (h ^ u64::from(b)).wrapping_mul(PRIME))
 }
 
-/// The stable colour of a crop, block or scenario id.
-pub fn colour_for_id(id: &str) -> Color32 {
-    let index = (fnv1a_64(id.as_bytes()) % OKABE_ITO.len() as u64) as usize;
-    OKABE_ITO[index]
+/// Slots of the extended palette: the seven Okabe–Ito colours, then the
+/// same seven lightened, then darkened (our own extension for sets larger
+/// than the published palette; the hue stays the reader's first cue).
+pub const PALETTE_SLOTS: usize = 3 * OKABE_ITO.len();
+
+fn slot_colour(slot: usize) -> Color32 {
+    let n = OKABE_ITO.len();
+    let base = OKABE_ITO[slot % n];
+    match (slot / n) % 3 {
+        0 => base,
+        1 => base.lerp_to_gamma(Color32::WHITE, 0.45),
+        _ => base.lerp_to_gamma(Color32::BLACK, 0.4),
+    }
+}
+
+/// Distinct, stable colours for a set of ids (crops, blocks, canals, seasons).
+#[derive(Debug, Clone, Default)]
+pub struct Colours {
+    by_id: std::collections::HashMap<String, Color32>,
+}
+
+impl Colours {
+    /// Assigns colours to `ids` (duplicates ignored). Ids are taken in sorted
+    /// order; each takes the slot of its hash in the base palette or the
+    /// next free one, then the lightened and darkened tiers; beyond
+    /// [`PALETTE_SLOTS`] ids colours repeat.
+    pub fn for_ids<I, S>(ids: I) -> Self
+    where
+        I: IntoIterator<Item = S>,
+        S: AsRef<str>,
+    {
+        let mut sorted: Vec<String> = ids.into_iter().map(|s| s.as_ref().to_owned()).collect();
+        sorted.sort();
+        sorted.dedup();
+        let n = OKABE_ITO.len();
+        let mut taken = [false; PALETTE_SLOTS];
+        let mut by_id = std::collections::HashMap::with_capacity(sorted.len());
+        for id in sorted {
+            let home = (fnv1a_64(id.as_bytes()) % n as u64) as usize;
+            let free = (0..PALETTE_SLOTS)
+                .map(|k| (k / n) * n + (home + k) % n)
+                .find(|&slot| !taken[slot]);
+            let slot = free.unwrap_or(home);
+            if let Some(t) = taken.get_mut(slot) {
+                *t = true;
+            }
+            by_id.insert(id, slot_colour(slot));
+        }
+        Self { by_id }
+    }
+
+    /// The colour of `id`; an id outside the set gets its hash's base colour.
+    pub fn of(&self, id: &str) -> Color32 {
+        self.by_id.get(id).copied().unwrap_or_else(|| {
+            OKABE_ITO[(fnv1a_64(id.as_bytes()) % OKABE_ITO.len() as u64) as usize]
+        })
+    }
 }
 
 #[cfg(test)]
 mod tests {
-    use super::{OKABE_ITO, colour_for_id, fnv1a_64};
+    use super::{Colours, OKABE_ITO, PALETTE_SLOTS, fnv1a_64};
 
     #[test]
     fn fnv1a_matches_published_test_vectors() {
@@ -63,9 +120,38 @@ mod tests {
     }
 
     #[test]
-    fn colour_is_stable_and_from_palette() {
-        let a = colour_for_id("maize");
-        assert_eq!(a, colour_for_id("maize"));
-        assert!(OKABE_ITO.contains(&a));
+    fn colours_are_stable_distinct_and_independent_of_order() {
+        let crops = [
+            "cotton",
+            "dry-bean",
+            "maize-grain",
+            "onion-dry",
+            "potato",
+            "rice-paddy",
+            "sorghum-grain",
+            "tomato",
+            "wheat-spring",
+        ];
+        let a = Colours::for_ids(crops);
+        let mut reversed = crops;
+        reversed.reverse();
+        let b = Colours::for_ids(reversed);
+        let mut seen = std::collections::HashSet::new();
+        for c in crops {
+            assert_eq!(a.of(c), b.of(c), "{c}: same colour whatever the order");
+            assert!(seen.insert(a.of(c).to_array()), "{c}: colour already used");
+        }
+        // A set within the published palette uses only its colours.
+        let small = Colours::for_ids(["cotton", "tomato", "potato"]);
+        assert!(OKABE_ITO.contains(&small.of("cotton")));
+    }
+
+    #[test]
+    fn every_slot_is_used_before_colours_repeat() {
+        let ids: Vec<String> = (0..PALETTE_SLOTS).map(|i| format!("block-{i}")).collect();
+        let c = Colours::for_ids(&ids);
+        let distinct: std::collections::HashSet<[u8; 4]> =
+            ids.iter().map(|id| c.of(id).to_array()).collect();
+        assert_eq!(distinct.len(), PALETTE_SLOTS);
     }
 }

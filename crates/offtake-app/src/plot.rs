@@ -302,101 +302,113 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
         plot = plot.reset();
     }
     let width_px = ui.available_width().max(100.0) as usize;
-    let response = plot.show(ui, |plot_ui| {
-        let bounds = plot_ui.plot_bounds();
-        let auto = plot_ui.auto_bounds();
-        let mut stack: std::collections::HashMap<u64, f64> = std::collections::HashMap::new();
-        for s in &spec.series {
-            match s.kind {
-                SeriesKind::Line => {
-                    let shown = if auto.x || auto.y {
-                        &s.points[..]
-                    } else {
-                        visible_slice(&s.points, bounds.min()[0], bounds.max()[0])
-                    };
-                    let pts = decimate_min_max(shown, width_px);
-                    plot_ui.line(
-                        Line::new(s.name.clone(), PlotPoints::from(pts))
-                            .color(s.colour)
-                            .style(s.style),
-                    );
-                }
-                SeriesKind::Points { radius } => {
-                    plot_ui.points(
-                        egui_plot::Points::new(s.name.clone(), PlotPoints::from(s.points.clone()))
-                            .color(s.colour)
-                            .radius(radius),
-                    );
-                }
-                SeriesKind::Bars { width } => {
-                    let bars = s
-                        .points
-                        .iter()
-                        .map(|p| Bar::new(p[0], p[1]).width(width))
-                        .collect();
-                    plot_ui.bar_chart(BarChart::new(s.name.clone(), bars).color(s.colour));
-                }
-                SeriesKind::Marker => {
-                    if let Some(p) = s.points.first() {
-                        plot_ui.vline(
-                            VLine::new(s.name.clone(), p[0])
-                                .color(s.colour)
-                                .style(s.style),
-                        );
-                    }
-                }
-                SeriesKind::Shaded { base } => {
-                    let pts = decimate_min_max(&s.points, width_px);
-                    plot_ui.line(
-                        Line::new(s.name.clone(), PlotPoints::from(pts))
-                            .color(s.colour)
-                            .style(s.style)
-                            .fill(base as f32)
-                            .fill_alpha(0.45),
-                    );
-                }
-                SeriesKind::StackedBars { width } => {
-                    let bars = s
-                        .points
-                        .iter()
-                        .map(|p| {
-                            let key = p[0].to_bits();
-                            let base = stack.get(&key).copied().unwrap_or(0.0);
-                            stack.insert(key, base + p[1]);
-                            Bar::new(p[0], p[1]).width(width).base_offset(base)
-                        })
-                        .collect();
-                    plot_ui.bar_chart(BarChart::new(s.name.clone(), bars).color(s.colour));
-                }
-                SeriesKind::Spans => {
-                    let bars = s
-                        .points
-                        .chunks_exact(2)
-                        .map(|r| {
-                            let (a, b) = (r[0][0], r[1][0]);
-                            Bar::new(0.5 * (a + b), r[0][1])
-                                .width((b - a).abs())
-                                .base_offset(r[1][1])
-                        })
-                        .collect();
-                    plot_ui.bar_chart(
-                        BarChart::new(s.name.clone(), bars).color(s.colour.gamma_multiply(0.25)),
-                    );
-                }
-                SeriesKind::Level => {
-                    if let Some(p) = s.points.first() {
-                        plot_ui.hline(
-                            HLine::new(s.name.clone(), p[1])
+    // The scope's rect covers the plot with its axes and tick labels: the
+    // area a PNG export shows.
+    let scope = ui.scope(|ui| {
+        plot.show(ui, |plot_ui| {
+            let bounds = plot_ui.plot_bounds();
+            let auto = plot_ui.auto_bounds();
+            let mut stack: std::collections::HashMap<u64, f64> = std::collections::HashMap::new();
+            for s in &spec.series {
+                match s.kind {
+                    SeriesKind::Line => {
+                        let shown = if auto.x || auto.y {
+                            &s.points[..]
+                        } else {
+                            visible_slice(&s.points, bounds.min()[0], bounds.max()[0])
+                        };
+                        let pts = decimate_min_max(shown, width_px);
+                        // Already decimated to the pixel columns; egui_plot's
+                        // own band drawing would turn the vertical jumps of
+                        // step lines (period means) into filled polygons.
+                        plot_ui.line(
+                            Line::new(s.name.clone(), PlotPoints::from(pts))
                                 .color(s.colour)
                                 .style(s.style)
-                                .width(2.0),
+                                .allow_band(false),
                         );
+                    }
+                    SeriesKind::Points { radius } => {
+                        plot_ui.points(
+                            egui_plot::Points::new(
+                                s.name.clone(),
+                                PlotPoints::from(s.points.clone()),
+                            )
+                            .color(s.colour)
+                            .radius(radius),
+                        );
+                    }
+                    SeriesKind::Bars { width } => {
+                        let bars = s
+                            .points
+                            .iter()
+                            .map(|p| Bar::new(p[0], p[1]).width(width))
+                            .collect();
+                        plot_ui.bar_chart(BarChart::new(s.name.clone(), bars).color(s.colour));
+                    }
+                    SeriesKind::Marker => {
+                        if let Some(p) = s.points.first() {
+                            plot_ui.vline(
+                                VLine::new(s.name.clone(), p[0])
+                                    .color(s.colour)
+                                    .style(s.style),
+                            );
+                        }
+                    }
+                    SeriesKind::Shaded { base } => {
+                        let pts = decimate_min_max(&s.points, width_px);
+                        plot_ui.line(
+                            Line::new(s.name.clone(), PlotPoints::from(pts))
+                                .color(s.colour)
+                                .style(s.style)
+                                .fill(base as f32)
+                                .fill_alpha(0.45),
+                        );
+                    }
+                    SeriesKind::StackedBars { width } => {
+                        let bars = s
+                            .points
+                            .iter()
+                            .map(|p| {
+                                let key = p[0].to_bits();
+                                let base = stack.get(&key).copied().unwrap_or(0.0);
+                                stack.insert(key, base + p[1]);
+                                Bar::new(p[0], p[1]).width(width).base_offset(base)
+                            })
+                            .collect();
+                        plot_ui.bar_chart(BarChart::new(s.name.clone(), bars).color(s.colour));
+                    }
+                    SeriesKind::Spans => {
+                        let bars = s
+                            .points
+                            .chunks_exact(2)
+                            .map(|r| {
+                                let (a, b) = (r[0][0], r[1][0]);
+                                Bar::new(0.5 * (a + b), r[0][1])
+                                    .width((b - a).abs())
+                                    .base_offset(r[1][1])
+                            })
+                            .collect();
+                        plot_ui.bar_chart(
+                            BarChart::new(s.name.clone(), bars)
+                                .color(s.colour.gamma_multiply(0.25)),
+                        );
+                    }
+                    SeriesKind::Level => {
+                        if let Some(p) = s.points.first() {
+                            plot_ui.hline(
+                                HLine::new(s.name.clone(), p[1])
+                                    .color(s.colour)
+                                    .style(s.style)
+                                    .width(2.0),
+                            );
+                        }
                     }
                 }
             }
-        }
+        })
     });
-    let rect = response.response.rect;
+    let rect = scope.response.rect;
     ui.data_mut(|d| d.insert_temp(egui::Id::unique(LAST_PLOT_RECT), rect));
     if export_image {
         commands.push(Command::ExportPlotImage {

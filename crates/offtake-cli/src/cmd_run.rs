@@ -84,7 +84,7 @@ pub fn run(args: &Args) -> Result<()> {
     });
     std::fs::create_dir_all(&out)
         .with_context(|| format!("creating the output folder {}", out.display()))?;
-    write_tables(&results, &loaded.project, &out).map_err(anyhow::Error::msg)?;
+    write_tables(&results, &loaded.project, &out)?;
     let text = format!(
         "{}Results written to {}\n",
         summary_text(&results, &loaded.project),

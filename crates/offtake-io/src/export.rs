@@ -351,6 +351,20 @@ pub fn write_csv(table: &Table, path: &Path) -> Result<(), ExportError> {
     persist(tmp, path)
 }
 
+/// Writes `bytes` to `path` atomically (a temporary file beside it, synced,
+/// then renamed over it): a failed write leaves the old file untouched.
+///
+/// # Errors
+/// [`ExportError::Io`] on a file-system failure.
+pub fn write_bytes(bytes: &[u8], path: &Path) -> Result<(), ExportError> {
+    let mut tmp = temp_beside(path)?;
+    io::Write::write_all(tmp.as_file_mut(), bytes).map_err(|source| ExportError::Io {
+        path: path.to_path_buf(),
+        source,
+    })?;
+    persist(tmp, path)
+}
+
 /// A worksheet name Excel accepts: `[]:*?/\` replaced by `_`, at most 31
 /// characters, not blank.
 pub fn sheet_name(name: &str) -> String {

@@ -420,9 +420,15 @@ pub fn tables(r: &Results, project: &Project) -> Vec<Table> {
 /// # Errors
 /// The folder cannot be created, or a file cannot be written (the error
 /// names the file).
-pub fn write_tables(r: &Results, project: &Project, out: &Path) -> Result<Vec<String>, String> {
-    std::fs::create_dir_all(out)
-        .map_err(|e| format!("creating the folder {}: {e}", out.display()))?;
+pub fn write_tables(
+    r: &Results,
+    project: &Project,
+    out: &Path,
+) -> Result<Vec<String>, ExportError> {
+    std::fs::create_dir_all(out).map_err(|source| ExportError::Io {
+        path: out.to_path_buf(),
+        source,
+    })?;
     let all = tables(r, project);
     let files = [
         DESIGN_VALUES_CSV,
@@ -431,15 +437,14 @@ pub fn write_tables(r: &Results, project: &Project, out: &Path) -> Result<Vec<St
         DEMAND_10DAY_CSV,
         DEMAND_MONTHLY_CSV,
     ];
-    let failed = |f: &str, e: ExportError| format!("writing {f}: {e}");
     let mut written = Vec::new();
     for (t, f) in all.iter().zip(files) {
-        export::write_csv(t, &out.join(f)).map_err(|e| failed(f, e))?;
+        export::write_csv(t, &out.join(f))?;
         written.push(f.to_owned());
     }
     let roster = all.iter().find(|t| t.name == "roster");
     if let Some(t) = roster {
-        export::write_csv(t, &out.join(ROSTER_CSV)).map_err(|e| failed(ROSTER_CSV, e))?;
+        export::write_csv(t, &out.join(ROSTER_CSV))?;
         written.push(ROSTER_CSV.to_owned());
     }
     let summary = all.iter().find(|t| t.name == "summary");
@@ -449,8 +454,7 @@ pub fn write_tables(r: &Results, project: &Project, out: &Path) -> Result<Vec<St
     book.push(&all[3]);
     book.push(&all[4]);
     book.extend(roster);
-    export::write_workbook(&book, &out.join(RESULTS_WORKBOOK))
-        .map_err(|e| failed(RESULTS_WORKBOOK, e))?;
+    export::write_workbook(&book, &out.join(RESULTS_WORKBOOK))?;
     written.push(RESULTS_WORKBOOK.to_owned());
     Ok(written)
 }

@@ -1,4 +1,5 @@
-//! The Canal capacity tab: the node hydrograph (daily demand in l/s) with
+//! The Canal capacity tab: the node hydrograph (daily demand in l/s, and the
+//! 10-day or monthly means the design flow is computed from) with
 //! the design flow (dashed) and the existing capacity (dotted), shortfall
 //! shaded; the table of design values per canal and headworks, and how the
 //! design flow was computed.
@@ -10,7 +11,7 @@ use chrono::Days;
 use egui::{RichText, Ui};
 use offtake_core::engine::Results;
 use offtake_core::project::Project;
-use offtake_core::scheme::{DesignBasis, Node, NodeDesign};
+use offtake_core::scheme::{DesignBasis, Node, NodeDesign, PeriodStep};
 
 use super::{View, empty_state, engine_results, no_project};
 use crate::command::{Command, ItemRef, Selection};
@@ -68,6 +69,14 @@ pub fn node_label(project: &Project, d: &NodeDesign) -> String {
     }
 }
 
+fn basis_title(b: DesignBasis) -> &'static str {
+    match b {
+        DesignBasis::TenDay => "10-day",
+        DesignBasis::Monthly => "Monthly",
+        DesignBasis::Daily => "Daily",
+    }
+}
+
 fn basis_label(b: DesignBasis) -> &'static str {
     match b {
         DesignBasis::TenDay => "10-day",
@@ -107,23 +116,68 @@ fn hydrograph(r: &Results, project: &Project, d: &NodeDesign, choice: YearChoice
         .filter_map(|i| flow_ls.get(i).map(|q| [x(i), *q]))
         .collect();
     let label = node_label(project, d);
+    // The design flow is a statistic of period means (10-day or monthly):
+    // those means are drawn over the daily demand, which rotation and refill
+    // schedules make spiky, so the two can be read against the same line.
+    let step = match d.basis {
+        DesignBasis::TenDay => Some(PeriodStep::TenDay),
+        DesignBasis::Monthly => Some(PeriodStep::Month),
+        DesignBasis::Daily => None,
+    };
+    let (first, last) = (
+        demand.first().map_or(f64::NEG_INFINITY, |p| p[0]),
+        demand.last().map_or(f64::INFINITY, |p| p[0]),
+    );
+    let means: Vec<[f64; 2]> = step.map_or_else(Vec::new, |step| {
+        r.demand
+            .periods(d.node, step)
+            .iter()
+            .map(|p| {
+                let a = date_to_x(p.start);
+                let b = date_to_x(p.start + Days::new(u64::from(p.period_days)));
+                (a, b, p.mean_flow_ls)
+            })
+            .filter(|(a, b, _)| *b > first && *a <= last + 1.0)
+            .flat_map(|(a, b, q)| [[a, q], [b, q]])
+            .collect()
+    });
+    // Shortfall on the design basis: the series the capacity is checked against.
+    let basis_series = if step.is_some() { &means } else { &demand };
     let mut series = Vec::new();
     if let Some(cap) = d.existing_capacity_ls
-        && demand.iter().any(|p| p[1] > cap)
+        && basis_series.iter().any(|p| p[1] > cap)
     {
         series.push(Series {
-            name: "Shortfall above existing capacity".to_owned(),
-            points: demand.iter().map(|p| [p[0], p[1].max(cap)]).collect(),
+            name: format!(
+                "Shortfall of {} mean flow above existing capacity",
+                basis_label(d.basis)
+            ),
+            points: basis_series.iter().map(|p| [p[0], p[1].max(cap)]).collect(),
             colour: OKABE_ITO[6],
             style: egui_plot::LineStyle::Solid,
             kind: SeriesKind::Shaded { base: cap },
         });
     }
+    let daily_colour = if step.is_some() {
+        OKABE_ITO[2].gamma_multiply(0.35)
+    } else {
+        OKABE_ITO[2]
+    };
     series.push(Series::line(
-        format!("Demand at {label} (l/s)"),
+        format!("Daily demand at {label} (l/s)"),
         demand,
-        OKABE_ITO[2],
+        daily_colour,
     ));
+    if step.is_some() {
+        series.push(Series::line(
+            format!(
+                "{} mean demand, the design basis (l/s)",
+                basis_title(d.basis)
+            ),
+            means,
+            OKABE_ITO[2],
+        ));
+    }
     series.push(Series {
         name: format!("Design flow {} l/s", format_sig(d.design_flow_ls, 3)),
         points: vec![[0.0, d.design_flow_ls]],

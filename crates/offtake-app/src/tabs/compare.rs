@@ -12,7 +12,7 @@ use super::{View, empty_state, no_project};
 use crate::command::Command;
 use crate::edit::DocEdit;
 use crate::fields::{format_number, format_sig};
-use crate::palette::colour_for_id;
+use crate::palette::Colours;
 
 /// View state of the Compare tab.
 #[derive(Debug, Default)]
@@ -26,8 +26,12 @@ fn mm3(v: f64) -> String {
     format_sig(v / 1.0e6, 3)
 }
 
-/// Rows of the comparison table: title with unit, one value per scenario.
-pub fn table_rows(c: &Comparison) -> Vec<(String, Vec<String>)> {
+/// Rows of the comparison table: title with unit, one value per scenario;
+/// `crop_name` turns a crop id into its display name.
+pub fn table_rows(
+    c: &Comparison,
+    crop_name: &dyn Fn(&str) -> String,
+) -> Vec<(String, Vec<String>)> {
     let col = |f: &dyn Fn(&ScenarioColumn) -> String| c.columns.iter().map(f).collect::<Vec<_>>();
     let mut rows = vec![
         (
@@ -57,7 +61,7 @@ pub fn table_rows(c: &Comparison) -> Vec<(String, Vec<String>)> {
     }
     for crop in &c.crops {
         rows.push((
-            format!("Area of {crop} (ha)"),
+            format!("Area of {} (ha)", crop_name(crop)),
             col(&|s| {
                 s.area_by_crop
                     .iter()
@@ -94,6 +98,10 @@ pub fn table_rows(c: &Comparison) -> Vec<(String, Vec<String>)> {
     ]);
     rows
 }
+
+/// Name of the scenario that keeps the base plan as it is, added with the
+/// first alternative.
+pub const BASELINE_NAME: &str = "current-plan";
 
 fn fresh_name(project: &Project) -> String {
     (1..=10_000)
@@ -137,11 +145,22 @@ impl CompareTab {
             if ui
                 .button("Create scenario from the current plan")
                 .on_hover_text(
-                    "Adds a scenario equal to today's base plan (no overrides), to keep beside the alternatives",
+                    "Adds a scenario equal to today's base plan (no overrides) to change into an alternative; \
+                     the first one also adds \"current-plan\", the plan as it is, as the comparison's baseline",
                 )
                 .clicked()
             {
                 let mut list = project.scenarios.clone();
+                if list.is_empty() {
+                    // The first alternative: keep the plan as it is beside
+                    // it, so the comparison has its baseline.
+                    list.push(Scenario {
+                        name: BASELINE_NAME.to_owned(),
+                        description: "The base plan as it is (no overrides), kept for comparison.".to_owned(),
+                        overrides: Vec::new(),
+                        weather: offtake_core::project::WeatherPerturbation::default(),
+                    });
+                }
                 let name = fresh_name(project);
                 // Scenario editor: the new scenario opens for editing.
                 commands.push(Command::EditScenario(Some(name.clone())));
@@ -208,7 +227,7 @@ impl CompareTab {
                             ui.label(RichText::new(&s.name).strong());
                         }
                         ui.end_row();
-                        for (title, values) in table_rows(c) {
+                        for (title, values) in table_rows(c, &|id| view.crop_name(id)) {
                             ui.label(title);
                             for v in values {
                                 ui.label(v);
@@ -225,6 +244,7 @@ fn grouped_bars(ui: &mut Ui, c: &Comparison) {
     let names: Vec<String> = c.columns.iter().map(|s| s.name.clone()).collect();
     let n_seasons = c.seasons.len().max(1) as f64;
     let width = 0.8 / n_seasons;
+    let colours = Colours::for_ids(&c.seasons);
     Plot::new("compare-bars")
         .legend(Legend::default())
         .y_axis_label("Headworks volume (Mm³/year)")
@@ -256,7 +276,7 @@ fn grouped_bars(ui: &mut Ui, c: &Comparison) {
                     })
                     .collect();
                 plot_ui.bar_chart(
-                    BarChart::new(format!("{season} season"), bars).color(colour_for_id(season)),
+                    BarChart::new(format!("{season} season"), bars).color(colours.of(season)),
                 );
             }
         });

@@ -6,7 +6,7 @@ use egui_plot::LineStyle;
 
 use super::{View, empty_state, no_project};
 use crate::command::{Command, ItemRef, Selection};
-use crate::palette::colour_for_id;
+
 use crate::plot::{self, PlotSpec, Series, SeriesKind, XAxis};
 
 /// Shades of the four growth stages (light to dark grey-blue, distinguishable
@@ -95,6 +95,7 @@ impl CropCurvesTab {
             let _ = super::season_with_picker(ui, view, commands);
         }
         let mut series = Vec::new();
+        let colours = super::crop_colours(view.project, curves.iter().map(|c| c.crop.as_str()));
         for c in &curves {
             let name = format!("{} ({} d)", c.crop_name, c.season_days);
             let points =
@@ -102,7 +103,7 @@ impl CropCurvesTab {
                     .enumerate()
                     .map(|(i, kc)| [(i + 1) as f64, *kc])
                     .collect();
-            series.push(Series::line(name, points, colour_for_id(&c.crop)));
+            series.push(Series::line(name, points, colours.of(&c.crop)));
         }
         // The climate-adjusted Kc of the season the worker computed for the
         // selected planting (FAO-56 eq. 62 and 65 in the planting's balance),
@@ -121,7 +122,7 @@ impl CropCurvesTab {
                 .collect();
             series.push(Series {
                 name: format!(
-                    "{} climate-adjusted, season {} (cohorts averaged)",
+                    "{} adjusted Kc, season {} (area-weighted over cohorts, 0 before planting)",
                     s.request.planting, s.year
                 ),
                 points,

@@ -14,7 +14,7 @@ use offtake_core::scheme::{Node, PeriodStep, aggregate_periods};
 use super::capacity::node_of_selection;
 use super::{View, engine_results, no_project};
 use crate::command::{Command, ItemRef, Selection};
-use crate::palette::{DESIGN_FLOW, colour_for_id};
+use crate::palette::{Colours, DESIGN_FLOW};
 use crate::plot::{self, PlotSpec, Series, SeriesKind, XAxis, date_to_x};
 
 /// How the GIR bars are split.
@@ -118,8 +118,10 @@ fn index_of(r: &Results, date: NaiveDate) -> usize {
         .min(r.days)
 }
 
-fn spec(r: &Results, project: &Project, key: &CacheKey) -> PlotSpec {
+fn spec(r: &Results, project: &Project, view: &View<'_>, key: &CacheKey) -> PlotSpec {
     let d = &r.demand;
+    let crop_colours = super::crop_colours(Some(project), d.crops().iter().map(String::as_str));
+    let block_colours = Colours::for_ids(d.network().blocks().iter().map(|b| b.name.as_str()));
     let year = r
         .complete_years
         .iter()
@@ -150,7 +152,7 @@ fn spec(r: &Results, project: &Project, key: &CacheKey) -> PlotSpec {
             let name = d.network().blocks()[b].name.clone();
             push_bars(
                 format!("GIR, block {name}"),
-                colour_for_id(&name),
+                block_colours.of(&name),
                 &d.block_gir_m3_day(b),
             );
             (
@@ -163,8 +165,8 @@ fn spec(r: &Results, project: &Project, key: &CacheKey) -> PlotSpec {
                 Stacking::Crop => {
                     for (ci, crop) in d.crops().iter().enumerate() {
                         push_bars(
-                            format!("GIR, {crop}"),
-                            colour_for_id(crop),
+                            format!("GIR, {}", view.crop_name(crop)),
+                            crop_colours.of(crop),
                             d.crop_demand_m3_day(node, ci),
                         );
                     }
@@ -173,7 +175,11 @@ fn spec(r: &Results, project: &Project, key: &CacheKey) -> PlotSpec {
                     for b in d.blocks_below(node) {
                         if let Some(share) = d.block_share_m3_day(node, b) {
                             let name = d.network().blocks()[b].name.clone();
-                            push_bars(format!("GIR, block {name}"), colour_for_id(&name), &share);
+                            push_bars(
+                                format!("GIR, block {name}"),
+                                block_colours.of(&name),
+                                &share,
+                            );
                         }
                     }
                 }
@@ -325,7 +331,7 @@ impl DemandTab {
         let spec = match &self.cache {
             Some((k, s)) if *k == key => Arc::clone(s),
             _ => {
-                let s = Arc::new(spec(r, project, &key));
+                let s = Arc::new(spec(r, project, view, &key));
                 self.cache = Some((key, Arc::clone(&s)));
                 s
             }

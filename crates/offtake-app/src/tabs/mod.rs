@@ -29,6 +29,31 @@ pub struct View<'a> {
     pub computed: Option<&'a Computed>,
     /// The scenario whose results are shown (`None` = the base plan).
     pub scenario: Option<&'a str>,
+    /// Crop and soil libraries with the project's own entries overlaid.
+    pub libraries: &'a offtake_io::library::Libraries,
+}
+
+impl View<'_> {
+    /// Display name of a crop id ("Maize, field (grain)"), or the id itself
+    /// when neither library knows it.
+    pub fn crop_name(&self, id: &str) -> String {
+        self.libraries
+            .crop(id)
+            .map_or_else(|| id.to_owned(), |c| c.name.clone())
+    }
+}
+
+/// One colour per crop of the project (its plantings and any crop `extra`
+/// brings, e.g. a scenario's), the same in every tab.
+pub fn crop_colours<'a>(
+    project: Option<&'a offtake_core::project::Project>,
+    extra: impl IntoIterator<Item = &'a str>,
+) -> crate::palette::Colours {
+    let mut ids: Vec<&str> = project
+        .map(|p| p.plantings.iter().map(|x| x.crop.as_str()).collect())
+        .unwrap_or_default();
+    ids.extend(extra);
+    crate::palette::Colours::for_ids(ids)
 }
 
 /// The view state of all tabs.

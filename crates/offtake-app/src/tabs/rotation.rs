@@ -7,12 +7,13 @@ use chrono::{NaiveDateTime, NaiveTime};
 use egui::{RichText, Ui};
 use egui_plot::{Bar, BarChart, Legend, Plot};
 use offtake_core::engine::Results;
+use offtake_core::project::Project;
 use offtake_core::rotation::{Roster, RosterEntry};
 
 use super::{View, empty_state, engine_results, no_project};
 use crate::command::Command;
 use crate::fields::{format_number, format_sig};
-use crate::palette::colour_for_id;
+use crate::palette::Colours;
 use crate::plot::date_to_x;
 
 /// View state of the Rotation tab.
@@ -47,13 +48,13 @@ fn entries_in<'a>(r: &Results, roster: &'a Roster, year: i32) -> Vec<&'a RosterE
 impl RotationTab {
     /// Draws the tab from the cached results.
     pub fn ui(&mut self, ui: &mut Ui, view: &View<'_>, _commands: &mut Vec<Command>) {
-        if view.project.is_none() {
+        let Some(project) = view.project else {
             no_project(
                 ui,
                 "This tab shows the rotation roster when supply is short: dated turns per canal and block, and the relative water supply of each block.",
             );
             return;
-        }
+        };
         let Some((_, r)) = engine_results(
             ui,
             view,
@@ -72,9 +73,9 @@ impl RotationTab {
         ui.label(format!(
             "Available supply at {}; short on {} days of the record. Rotation among the offtakes of {}. \
              Relative irrigation supply {}, relative water supply (Levine 1982) {}, FAO-33 yield loss {} (area-weighted).",
-            supply.supply_node,
+            node_name(project, &supply.supply_node),
             supply.short_days,
-            supply.rotation_node,
+            node_name(project, &supply.rotation_node),
             opt(supply.relative_irrigation_supply, |v| format_number(v, 2)),
             opt(supply.relative_water_supply, |v| format_number(v, 2)),
             opt(supply.mean_yield_loss_pct, |v| format!("{} %", format_number(v, 1))),
@@ -123,7 +124,12 @@ impl RotationTab {
             ))
             .weak(),
         );
-        let units = roster.units.clone();
+        // Units are canal or block ids in the roster; the engineer reads names.
+        let units: Vec<String> = roster
+            .units
+            .iter()
+            .map(|id| unit_name(project, id))
+            .collect();
         let h = ui.available_height();
         ui.allocate_ui(
             egui::vec2(ui.available_width(), (h * 0.55).max(180.0)),
@@ -132,12 +138,31 @@ impl RotationTab {
             },
         );
         ui.separator();
-        turn_table(ui, &entries);
+        turn_table(ui, project, &entries);
     }
+}
+
+/// "the headworks" or the canal's name, for a node id in the supply results.
+fn node_name(project: &Project, id: &str) -> String {
+    if id == "headworks" {
+        "the headworks".to_owned()
+    } else {
+        unit_name(project, id)
+    }
+}
+
+/// The name of a canal or block id ("Upper Distributary"), or the id.
+fn unit_name(project: &Project, id: &str) -> String {
+    project
+        .canal(id)
+        .map(|c| c.name.clone())
+        .or_else(|| project.block(id).map(|b| b.name.clone()))
+        .unwrap_or_else(|| id.to_owned())
 }
 
 fn timeline(ui: &mut Ui, units: &[String], entries: &[&RosterEntry]) {
     let names = units.to_vec();
+    let colours = Colours::for_ids(units);
     Plot::new("roster-timeline")
         .legend(Legend::default())
         .x_axis_label("Date")
@@ -174,7 +199,7 @@ fn timeline(ui: &mut Ui, units: &[String], entries: &[&RosterEntry]) {
                 if !bars.is_empty() {
                     plot_ui.bar_chart(
                         BarChart::new(name.clone(), bars)
-                            .color(colour_for_id(name))
+                            .color(colours.of(name))
                             .horizontal(),
                     );
                 }
@@ -182,7 +207,7 @@ fn timeline(ui: &mut Ui, units: &[String], entries: &[&RosterEntry]) {
         });
 }
 
-fn turn_table(ui: &mut Ui, entries: &[&RosterEntry]) {
+fn turn_table(ui: &mut Ui, project: &Project, entries: &[&RosterEntry]) {
     const HEADERS: [&str; 7] = [
         "Cycle",
         "Turn",
@@ -213,7 +238,7 @@ fn turn_table(ui: &mut Ui, entries: &[&RosterEntry]) {
                     for e in &entries[rows] {
                         ui.label(e.cycle.to_string());
                         ui.label(e.turn.to_string());
-                        ui.label(&e.unit_name);
+                        ui.label(unit_name(project, &e.unit_name));
                         ui.label(e.start.format("%Y-%m-%d %H:%M").to_string());
                         ui.label(e.end.format("%Y-%m-%d %H:%M").to_string());
                         ui.label(format_sig(e.flow_ls, 3));
