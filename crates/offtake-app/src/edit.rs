@@ -94,6 +94,11 @@ pub enum DocEdit {
     SetUserCrops(Vec<offtake_core::crop::Crop>),
     /// Replace the project's own soils (the soil library editor).
     SetUserSoils(Vec<offtake_core::soil::Soil>),
+    /// Give several plantings of the base plan another crop in one step:
+    /// `(planting id, crop id)` pairs (the crop library editor's "Use for
+    /// all plantings of …"). The inverse gives each planting its old crop
+    /// back; nothing changes when any planting is missing.
+    SetPlantingCrops(Vec<(String, String)>),
     // --- scenario editor (crate::scenario_editor) ---
     /// Replace the scenario named `name` with a new record (its overrides,
     /// weather change, description; a new name renames it). The inverse is
@@ -298,6 +303,7 @@ impl Edit<Project> for DocEdit {
                 DocEdit::SetUserSoils(std::mem::replace(&mut doc.user_soils, s))
             }
             DocEdit::SetScenario { name, scenario } => set_scenario(doc, &name, *scenario)?,
+            DocEdit::SetPlantingCrops(pairs) => set_planting_crops(doc, pairs)?,
         })
     }
 
@@ -324,6 +330,12 @@ impl Edit<Project> for DocEdit {
             DocEdit::SetUserCrops(_) => "edit my crops".to_owned(),
             DocEdit::SetUserSoils(_) => "edit my soils".to_owned(),
             DocEdit::SetScenario { name, .. } => format!("edit scenario {name}"),
+            DocEdit::SetPlantingCrops(pairs) => match pairs.first() {
+                Some((_, crop)) if pairs.iter().all(|(_, c)| c == crop) => {
+                    format!("grow {crop} on {} plantings", pairs.len())
+                }
+                _ => format!("change the crop of {} plantings", pairs.len()),
+            },
         }
     }
 }
@@ -348,6 +360,26 @@ fn set_scenario(
         name: new_name,
         scenario: Box::new(old),
     })
+}
+
+/// Sets the crop of each listed planting; returns the edit that restores
+/// the old crops. Checks every id first, so a missing planting changes nothing.
+fn set_planting_crops(
+    doc: &mut Project,
+    pairs: Vec<(String, String)>,
+) -> Result<DocEdit, EditError> {
+    if let Some((id, _)) = pairs.iter().find(|(id, _)| doc.planting(id).is_none()) {
+        return Err(EditError::Missing(format!("planting {id:?}")));
+    }
+    let mut old = Vec::with_capacity(pairs.len());
+    for (id, crop) in pairs {
+        if let Some(p) = doc.plantings.iter_mut().find(|p| p.id == id) {
+            old.push((id, std::mem::replace(&mut p.crop, crop)));
+        }
+    }
+    // Undo in the reverse order (a planting listed twice ends as it began).
+    old.reverse();
+    Ok(DocEdit::SetPlantingCrops(old))
 }
 
 /// A fresh id with `prefix` not used by any canal, block or planting.
@@ -527,6 +559,28 @@ mod tests {
             edit.apply(&mut p),
             Err(EditError::DuplicateId(pl.id.clone()))
         );
+    }
+
+    #[test]
+    fn several_plantings_change_crop_in_one_step_and_one_inverse_restores_them() {
+        let original = tree();
+        let mut p = original.clone();
+        let pairs: Vec<(String, String)> = p
+            .plantings
+            .iter()
+            .map(|pl| (pl.id.clone(), "maize-grain-mine".to_owned()))
+            .collect();
+        let inverse = DocEdit::SetPlantingCrops(pairs).apply(&mut p).expect("set");
+        assert!(p.plantings.iter().all(|pl| pl.crop == "maize-grain-mine"));
+        inverse.apply(&mut p).expect("undo");
+        assert_eq!(p, original);
+        // A missing planting: refused, nothing changed.
+        let bad = DocEdit::SetPlantingCrops(vec![
+            (p.plantings[0].id.clone(), "cotton".to_owned()),
+            ("no-such".to_owned(), "cotton".to_owned()),
+        ]);
+        assert!(matches!(bad.apply(&mut p), Err(EditError::Missing(_))));
+        assert_eq!(p, original);
     }
 
     #[test]

@@ -11,6 +11,13 @@
 //! project is computed (pickers, the app's computation, `offtake run`). Every
 //! change is one undoable edit ([`DocEdit::SetUserCrops`],
 //! [`DocEdit::SetUserSoils`]) of the whole list of own entries.
+//!
+//! A copy has its own id, so no planting uses it at first. "Use for all
+//! plantings of <original crop>" re-points every planting of the base plan
+//! that grows the library crop the copy was made from to the copy, as one
+//! undoable edit ([`DocEdit::SetPlantingCrops`]); the form says how many
+//! plantings that changes. Scenarios that name the original crop are left
+//! as they are.
 
 use egui::{Color32, Id, RichText, Ui};
 use egui_plot::{Legend, Line, Plot, PlotPoint, Polygon, Text};
@@ -107,6 +114,92 @@ pub fn copy_crop(crop: &Crop, project: &Project, base: &Libraries) -> Crop {
         format!("{} {note}", copy.sources.kc.note)
     };
     copy
+}
+
+/// The library crop an own crop was copied from: its id is the copy's id
+/// without the `-mine` (or `-mine-N`) suffix that [`copy_crop`] adds.
+pub fn original_crop<'a>(copy: &Crop, base: &'a Libraries) -> Option<&'a Crop> {
+    let (stem, tail) = copy.id.rsplit_once("-mine")?;
+    let numbered = tail
+        .strip_prefix('-')
+        .is_some_and(|n| !n.is_empty() && n.bytes().all(|b| b.is_ascii_digit()));
+    if !(tail.is_empty() || numbered) {
+        return None;
+    }
+    base.crop(stem)
+}
+
+/// The plantings of the base plan that grow `crop` (ids, in plan order).
+pub fn plantings_growing<'a>(project: &'a Project, crop: &str) -> Vec<&'a str> {
+    project
+        .plantings
+        .iter()
+        .filter(|p| p.crop == crop)
+        .map(|p| p.id.as_str())
+        .collect()
+}
+
+/// One edit giving every planting of the base plan that grows `from` the
+/// crop `to`; `None` when no planting grows `from`.
+pub fn use_for_all_plantings(project: &Project, from: &str, to: &str) -> Option<DocEdit> {
+    let pairs: Vec<(String, String)> = plantings_growing(project, from)
+        .into_iter()
+        .map(|id| (id.to_owned(), to.to_owned()))
+        .collect();
+    (!pairs.is_empty()).then_some(DocEdit::SetPlantingCrops(pairs))
+}
+
+/// The offer to grow an own crop instead of the library crop it copies,
+/// on every planting of the base plan, with the number of plantings it
+/// changes.
+fn use_for_all_ui(
+    ui: &mut Ui,
+    project: &Project,
+    own: &Crop,
+    base: &Libraries,
+    commands: &mut Vec<Command>,
+) {
+    let Some(original) = original_crop(own, base) else {
+        return;
+    };
+    let ids = plantings_growing(project, &original.id);
+    let n = ids.len();
+    let clicked = ui
+        .add_enabled(
+            n > 0,
+            egui::Button::new(format!("Use for all plantings of {}", original.name)),
+        )
+        .on_hover_text(format!(
+            "Every planting of the base plan that grows {} grows {} instead, in one step (undo restores them all). Scenarios that name {} are not changed.",
+            original.id, own.id, original.id
+        ))
+        .on_disabled_hover_text(format!("No planting of the base plan grows {}", original.id))
+        .clicked();
+    ui.label(match n {
+        0 => format!(
+            "No planting of the base plan grows {} ({}).",
+            original.name, original.id
+        ),
+        1 => format!("Changes 1 planting of the base plan: {}.", ids[0]),
+        _ => format!(
+            "Changes {n} plantings of the base plan: {}.",
+            ids.join(", ")
+        ),
+    });
+    let using = plantings_growing(project, &own.id).len();
+    if using > 0 {
+        ui.label(
+            RichText::new(format!(
+                "{using} planting{} of the base plan grow{} this crop.",
+                if using == 1 { "" } else { "s" },
+                if using == 1 { "s" } else { "" }
+            ))
+            .weak(),
+        );
+    }
+    if clicked && let Some(edit) = use_for_all_plantings(project, &original.id, &own.id) {
+        commands.push(Command::Edit(edit));
+    }
 }
 
 /// A copy of a library soil for the project, with a new id.
@@ -290,6 +383,8 @@ impl LibraryEditor {
                 (Some(c), _) => {
                     // The curve on top, the form below it (scrolled).
                     self.plotted_kc = kc_plot(ui, c);
+                    use_for_all_ui(ui, project, c, base, commands);
+                    ui.separator();
                     egui::ScrollArea::vertical()
                         .id_salt("crop-form")
                         .max_height(420.0)
@@ -302,6 +397,7 @@ impl LibraryEditor {
                                     .collect();
                                 commands.push(Command::Edit(DocEdit::SetUserCrops(list)));
                             }
+
                             if ui.button("Remove from my crops").clicked() {
                                 let list = project
                                     .user_crops
@@ -1071,7 +1167,10 @@ fn kc_plot(ui: &mut Ui, crop: &Crop) -> Vec<[f64; 2]> {
 
 #[cfg(test)]
 mod tests {
-    use super::{copy_crop, copy_soil, kc_curve_points};
+    use super::{
+        copy_crop, copy_soil, kc_curve_points, original_crop, plantings_growing,
+        use_for_all_plantings,
+    };
     use offtake_core::project::Project;
     use offtake_io::library::Libraries;
 
@@ -1091,6 +1190,50 @@ mod tests {
         let s = copy_soil(soil, &project, &libs);
         assert_eq!(s.id, format!("{}-mine", soil.id));
         assert!((s.theta_fc - soil.theta_fc).abs() < f64::EPSILON);
+    }
+
+    #[test]
+    fn a_copy_knows_its_original_and_replaces_it_on_every_planting() {
+        use crate::edit::{DocEdit, new_block, new_canal, new_planting};
+        use crate::history::Edit;
+        let libs = Libraries::builtin().expect("built-in libraries");
+        let maize = libs.crop("maize-grain").expect("maize in the library");
+        let mut project = Project::default();
+        let canal = new_canal(&project, None);
+        project.canals.push(canal.clone());
+        let block = new_block(&project, &canal.id);
+        project.blocks.push(block.clone());
+        for crop in ["maize-grain", "cotton", "maize-grain"] {
+            let mut p = new_planting(&project, &block.id);
+            p.crop = crop.to_owned();
+            project.plantings.push(p);
+        }
+        let first = copy_crop(maize, &project, &libs);
+        project.user_crops.push(first.clone());
+        let second = copy_crop(maize, &project, &libs);
+        assert_eq!(original_crop(&first, &libs).map(|c| &c.id), Some(&maize.id));
+        assert_eq!(
+            original_crop(&second, &libs).map(|c| &c.id),
+            Some(&maize.id)
+        );
+        let mut other = first.clone();
+        other.id = "maize-grain-mineral".into();
+        assert!(original_crop(&other, &libs).is_none());
+        other.id = "my-own-crop".into();
+        assert!(original_crop(&other, &libs).is_none());
+
+        let before = project.clone();
+        let ids = plantings_growing(&project, "maize-grain");
+        assert_eq!(ids.len(), 2);
+        let edit = use_for_all_plantings(&project, "maize-grain", &first.id).expect("two");
+        assert!(matches!(&edit, DocEdit::SetPlantingCrops(p) if p.len() == 2));
+        let inverse = edit.apply(&mut project).expect("applies");
+        assert!(plantings_growing(&project, "maize-grain").is_empty());
+        assert_eq!(plantings_growing(&project, &first.id).len(), 2);
+        assert_eq!(plantings_growing(&project, "cotton").len(), 1);
+        inverse.apply(&mut project).expect("undo");
+        assert_eq!(project, before);
+        assert!(use_for_all_plantings(&project, "wheat", &first.id).is_none());
     }
 
     #[test]

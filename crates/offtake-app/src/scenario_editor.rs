@@ -4,21 +4,30 @@
 //! The window lists the plan as the scenario makes it (the base plantings
 //! with the scenario's overrides applied) and lets the engineer change a
 //! planting's crop, area, planting window and strategy, remove a planting,
-//! add one to a block, move a share of one crop to another, and change the
+//! add one to a block, move a share of one crop to another, change a block's
+//! efficiencies (Ea with its irrigation method, Eb) or a canal's conveyance
+//! efficiency, existing capacity and hours of operation, and change the
 //! weather (temperature shift, rain, radiation and wind). Each change is
 //! stored in the scenario as the matching [`Override`] — an earlier override
-//! of the same planting field is replaced, never stacked — through one
-//! undoable [`DocEdit::SetScenario`]. The base plan is never changed.
+//! of the same planting field, block or canal value is replaced, never
+//! stacked — through one undoable [`DocEdit::SetScenario`]. The base plan is
+//! never changed.
+//!
+//! As in the inspector, a number outside its allowed range is **kept**: it
+//! is stored in the scenario (so it is saved and never lost), the field
+//! shows the reason and the range, the list of stored changes repeats it,
+//! and the project validation reports it (`under scenario "…": …`). Text
+//! that is not a number never reaches the document.
 //!
 //! The pure part (what a change does to a [`Scenario`]) is in free
 //! functions ([`plan`], [`with_planting_override`], [`with_planting_removed`],
-//! [`with_shift`], [`without_override`], [`sentence`]) so it is tested
-//! without a window.
+//! [`with_item_override`], [`with_shift`], [`without_override`],
+//! [`sentence`], [`override_problems`]) so it is tested without a window.
 
 use egui::{Id, RichText, Ui};
 use offtake_core::project::{
-    MonthDay, Override, Planting, PlantingArea, Project, Scenario, ScenarioError, Strategy,
-    WeatherPerturbation,
+    IrrigationMethod, MonthDay, Override, Planting, PlantingArea, Project, Scenario, ScenarioError,
+    Strategy, WeatherPerturbation,
 };
 use offtake_io::library::Libraries;
 
@@ -263,15 +272,31 @@ pub fn with_planting_added(scenario: &Scenario, planting: Planting) -> Scenario 
     out
 }
 
+/// What a crop shift gives the plantings it makes: `None` keeps the
+/// original planting's strategy and the library season length.
+#[derive(Debug, Clone, Copy, PartialEq, Default)]
+pub struct ShiftedPlantings {
+    /// Irrigation strategy of the new plantings.
+    pub strategy: Option<Strategy>,
+    /// Season length of the new plantings (days).
+    pub season_length_days: Option<u32>,
+}
+
 /// The scenario with "move `share_pct` % of `from` to `to`": replaces an
 /// earlier shift between the same two crops, else is added at the end.
-pub fn with_shift(scenario: &Scenario, from: &str, to: &str, share_pct: f64) -> Scenario {
+pub fn with_shift(
+    scenario: &Scenario,
+    from: &str,
+    to: &str,
+    share_pct: f64,
+    new: ShiftedPlantings,
+) -> Scenario {
     let ov = Override::ShiftCropShare {
         from_crop: from.to_owned(),
         to_crop: to.to_owned(),
         share_pct,
-        strategy: None,
-        season_length_days: None,
+        strategy: new.strategy,
+        season_length_days: new.season_length_days,
     };
     let mut out = scenario.clone();
     match out.overrides.iter().position(|o| same_target(o, &ov)) {
@@ -279,6 +304,238 @@ pub fn with_shift(scenario: &Scenario, from: &str, to: &str, share_pct: f64) -> 
         None => out.overrides.push(ov),
     }
     out
+}
+
+/// `ov` without the parts that would leave the plan `p` as it is (the block
+/// or canal already has that value); `None` when nothing is left.
+#[expect(
+    clippy::float_cmp,
+    reason = "a value equal to the plan's, bit for bit, is no change"
+)]
+fn strip_noop(p: &Project, ov: Override) -> Option<Override> {
+    match ov {
+        Override::SetBlockEfficiency {
+            block,
+            method,
+            field_canal_efficiency,
+        } => {
+            let Some(b) = p.block(&block) else {
+                return Some(Override::SetBlockEfficiency {
+                    block,
+                    method,
+                    field_canal_efficiency,
+                });
+            };
+            let method = method.filter(|m| *m != b.method);
+            let field_canal_efficiency =
+                field_canal_efficiency.filter(|&eb| eb != b.field_canal_efficiency);
+            (method.is_some() || field_canal_efficiency.is_some()).then_some(
+                Override::SetBlockEfficiency {
+                    block,
+                    method,
+                    field_canal_efficiency,
+                },
+            )
+        }
+        Override::SetCanalEfficiency {
+            canal,
+            conveyance_efficiency,
+        } => match p.canal(&canal) {
+            Some(c) if c.conveyance_efficiency == conveyance_efficiency => None,
+            _ => Some(Override::SetCanalEfficiency {
+                canal,
+                conveyance_efficiency,
+            }),
+        },
+        Override::SetCanalCapacity {
+            canal,
+            existing_capacity_m3s,
+        } => match p.canal(&canal) {
+            Some(c) if c.existing_capacity_m3s == existing_capacity_m3s => None,
+            _ => Some(Override::SetCanalCapacity {
+                canal,
+                existing_capacity_m3s,
+            }),
+        },
+        Override::SetCanalHours {
+            canal,
+            operating_hours_per_day,
+        } => match p.canal(&canal) {
+            Some(c) if c.operating_hours_per_day == operating_hours_per_day => None,
+            _ => Some(Override::SetCanalHours {
+                canal,
+                operating_hours_per_day,
+            }),
+        },
+        other => Some(other),
+    }
+}
+
+/// The scenario with a block or canal override set (`SetBlockEfficiency`,
+/// `SetCanalEfficiency`, `SetCanalCapacity`, `SetCanalHours`).
+///
+/// - An earlier override of the same block (or the same value of the same
+///   canal) is replaced in place, never stacked. For a block, the parts not
+///   given are kept from the earlier override: setting Eb keeps an Ea set
+///   before, and the other way round.
+/// - Parts equal to the plan without the override are dropped; an override
+///   left with nothing to change is not stored (typing the base value back
+///   removes the change).
+/// - The value is stored as given, in range or not: validation reports it.
+///
+/// Planting overrides go through [`with_planting_override`]; any other
+/// override is returned unchanged.
+pub fn with_item_override(base: &Project, scenario: &Scenario, ov: Override) -> Scenario {
+    if !matches!(
+        ov,
+        Override::SetBlockEfficiency { .. }
+            | Override::SetCanalEfficiency { .. }
+            | Override::SetCanalCapacity { .. }
+            | Override::SetCanalHours { .. }
+    ) {
+        return scenario.clone();
+    }
+    let mut out = scenario.clone();
+    let position = out.overrides.iter().position(|o| same_target(o, &ov));
+    let ov = match (position.map(|i| &out.overrides[i]), ov) {
+        (
+            Some(Override::SetBlockEfficiency {
+                method: old_method,
+                field_canal_efficiency: old_eb,
+                ..
+            }),
+            Override::SetBlockEfficiency {
+                block,
+                method,
+                field_canal_efficiency,
+            },
+        ) => Override::SetBlockEfficiency {
+            block,
+            method: method.or_else(|| old_method.clone()),
+            field_canal_efficiency: field_canal_efficiency.or(*old_eb),
+        },
+        (_, ov) => ov,
+    };
+    let mut without = out.clone();
+    without.overrides.retain(|o| !same_target(o, &ov));
+    match (position, strip_noop(&plan(base, &without).project, ov)) {
+        (_, None) => without,
+        (Some(i), Some(ov)) => {
+            out.overrides[i] = ov;
+            out
+        }
+        (None, Some(ov)) => {
+            out.overrides.push(ov);
+            out
+        }
+    }
+}
+
+/// The values of an override that lie outside the ranges the editor allows,
+/// each as the field shows it ("Field-canal efficiency must be between 1 %
+/// and 100 %"). Such a value is kept in the scenario; this says why it
+/// needs fixing.
+pub fn override_problems(ov: &Override) -> Vec<String> {
+    use crate::inspector::bounds as ib;
+    let mut out = Vec::new();
+    let mut share = None;
+    let mut check = |b: &Bounds, stored: f64| {
+        if let Err(e) = b.check(stored * b.factor) {
+            out.push(e);
+        }
+    };
+    let planting = |pl: &Planting, check: &mut dyn FnMut(&Bounds, f64)| {
+        match pl.area {
+            PlantingArea::Hectares(ha) => check(&bounds::AREA_HA, ha),
+            PlantingArea::PercentOfBlock(p) => check(&bounds::AREA_PCT, p),
+        }
+        check(&bounds::SPREAD, f64::from(pl.spread_days));
+        strategy_problems(&pl.strategy, check);
+    };
+    match ov {
+        Override::SetPlantingArea { area, .. } => match *area {
+            PlantingArea::Hectares(ha) => check(&bounds::AREA_HA, ha),
+            PlantingArea::PercentOfBlock(p) => check(&bounds::AREA_PCT, p),
+        },
+        Override::SetPlantingDate {
+            spread_days: Some(d),
+            ..
+        } => check(&bounds::SPREAD, f64::from(*d)),
+        Override::SetPlantingStrategy { strategy, .. } => strategy_problems(strategy, &mut check),
+        Override::AddPlanting(pl) => planting(pl, &mut check),
+        Override::ShiftCropShare {
+            share_pct,
+            strategy,
+            season_length_days,
+            ..
+        } => {
+            share = check_share(&share_pct.to_string()).err();
+            if let Some(st) = strategy {
+                strategy_problems(st, &mut check);
+            }
+            if let Some(d) = season_length_days {
+                check(&ib::SEASON, f64::from(*d));
+            }
+        }
+        Override::SetBlockEfficiency {
+            method,
+            field_canal_efficiency,
+            ..
+        } => {
+            if let Some(m) = method {
+                check(&ib::APPLICATION, m.application_efficiency);
+            }
+            if let Some(eb) = field_canal_efficiency {
+                check(&ib::FIELD_CANAL, *eb);
+            }
+        }
+        Override::SetCanalEfficiency {
+            conveyance_efficiency,
+            ..
+        } => check(&ib::CONVEYANCE, *conveyance_efficiency),
+        Override::SetCanalCapacity {
+            existing_capacity_m3s: Some(q),
+            ..
+        } => check(&ib::CAPACITY, *q),
+        Override::SetCanalHours {
+            operating_hours_per_day,
+            ..
+        } => check(&ib::HOURS, *operating_hours_per_day),
+        _ => {}
+    }
+    out.extend(share);
+    out
+}
+
+/// Range checks of a strategy's parameters (the inspector's bounds).
+fn strategy_problems(s: &Strategy, check: &mut dyn FnMut(&Bounds, f64)) {
+    use crate::inspector::bounds as ib;
+    match *s {
+        Strategy::Refill { trigger_pct_of_raw } => check(&ib::TRIGGER_RAW, trigger_pct_of_raw),
+        Strategy::Interval { days } => check(&ib::INTERVAL, f64::from(days)),
+        Strategy::Depth { net_mm } => check(&ib::DEPTH, net_mm),
+        Strategy::Deficit {
+            trigger_pct_of_taw,
+            refill_pct_of_depletion,
+        } => {
+            check(&ib::TRIGGER_TAW, trigger_pct_of_taw);
+            check(&ib::REFILL, refill_pct_of_depletion);
+        }
+        Strategy::Rainfed => {}
+    }
+}
+
+/// The weather change's values outside the editor's ranges.
+pub fn weather_problems(w: &WeatherPerturbation) -> Vec<String> {
+    [
+        (&bounds::TEMPERATURE, w.temperature_shift_c),
+        (&bounds::RAIN, w.rain_change_pct),
+        (&bounds::RADIATION, w.radiation_change_pct),
+        (&bounds::WIND, w.wind_change_pct),
+    ]
+    .into_iter()
+    .filter_map(|(b, v)| b.check(v).err())
+    .collect()
 }
 
 /// The scenario without its override at `index`.
@@ -378,6 +635,14 @@ pub fn sentence(ov: &Override, base: &Project, libs: &Libraries) -> String {
             .map(|p| format!(" (base plan: {})", crop_name(libs, &p.crop)))
             .unwrap_or_default()
     };
+    let block_label = |id: &str| {
+        base.block(id)
+            .map_or_else(|| id.to_owned(), |b| format!("{} ({id})", b.name))
+    };
+    let canal_label = |id: &str| {
+        base.canal(id)
+            .map_or_else(|| id.to_owned(), |c| format!("{} ({id})", c.name))
+    };
     match ov {
         Override::SetPlantingCrop { planting, crop } => format!(
             "Planting {planting} grows {}{}.",
@@ -415,13 +680,28 @@ pub fn sentence(ov: &Override, base: &Project, libs: &Libraries) -> String {
             from_crop,
             to_crop,
             share_pct,
-            ..
-        } => format!(
-            "Moves {} % of every {} planting to {}.",
-            format_number(*share_pct, 2),
-            crop_name(libs, from_crop),
-            crop_name(libs, to_crop)
-        ),
+            strategy,
+            season_length_days,
+        } => {
+            let mut new = Vec::new();
+            if let Some(s) = strategy {
+                new.push(format!("irrigated: {}", strategy_text(s)));
+            }
+            if let Some(d) = season_length_days {
+                new.push(format!("season {d} days"));
+            }
+            format!(
+                "Moves {} % of every {} planting to {}{}.",
+                format_number(*share_pct, 2),
+                crop_name(libs, from_crop),
+                crop_name(libs, to_crop),
+                if new.is_empty() {
+                    String::new()
+                } else {
+                    format!(" (new plantings {})", new.join(", "))
+                }
+            )
+        }
         Override::SetBlockEfficiency {
             block,
             method,
@@ -430,21 +710,22 @@ pub fn sentence(ov: &Override, base: &Project, libs: &Libraries) -> String {
             let mut parts = Vec::new();
             if let Some(m) = method {
                 parts.push(format!(
-                    "method {} with application efficiency {}",
+                    "method {} with application efficiency Ea {}",
                     m.name,
                     pct(m.application_efficiency)
                 ));
             }
             if let Some(eb) = field_canal_efficiency {
-                parts.push(format!("field-canal efficiency {}", pct(*eb)));
+                parts.push(format!("field-canal efficiency Eb {}", pct(*eb)));
             }
-            format!("Block {block}: {}.", parts.join(", "))
+            format!("Block {}: {}.", block_label(block), parts.join(", "))
         }
         Override::SetCanalEfficiency {
             canal,
             conveyance_efficiency,
         } => format!(
-            "Canal {canal} conveys with {} efficiency.",
+            "Canal {} conveys with {} efficiency.",
+            canal_label(canal),
             pct(*conveyance_efficiency)
         ),
         Override::SetCanalCapacity {
@@ -452,16 +733,21 @@ pub fn sentence(ov: &Override, base: &Project, libs: &Libraries) -> String {
             existing_capacity_m3s,
         } => match existing_capacity_m3s {
             Some(q) => format!(
-                "Canal {canal} has an existing capacity of {} m³/s.",
+                "Canal {} has an existing capacity of {} m³/s.",
+                canal_label(canal),
                 format_number(*q, 3)
             ),
-            None => format!("Canal {canal} has no known existing capacity."),
+            None => format!(
+                "Canal {} has no known existing capacity.",
+                canal_label(canal)
+            ),
         },
         Override::SetCanalHours {
             canal,
             operating_hours_per_day,
         } => format!(
-            "Canal {canal} runs {} h/day.",
+            "Canal {} runs {} h/day.",
+            canal_label(canal),
             format_number(*operating_hours_per_day, 1)
         ),
         other => format!("{other:?}"),
@@ -512,6 +798,58 @@ pub struct ScenarioEditor {
     shift_from: Option<String>,
     shift_to: Option<String>,
     shift_share: String,
+    shift_new: ShiftedPlantings,
+    /// The block whose efficiencies the block form changes.
+    change_block: Option<String>,
+    /// Which of the block's values the form changes.
+    block_value: BlockValue,
+    /// The canal the canal form changes.
+    change_canal: Option<String>,
+    /// Which of the canal's values the form changes.
+    canal_value: CanalValue,
+}
+
+/// The value of a block a scenario can change (`Override::SetBlockEfficiency`).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum BlockValue {
+    /// Field-canal efficiency Eb.
+    #[default]
+    FieldCanal,
+    /// Irrigation method and its application efficiency Ea.
+    Application,
+}
+
+impl BlockValue {
+    /// The choice as the form lists it.
+    pub fn label(self) -> &'static str {
+        match self {
+            BlockValue::FieldCanal => "Field-canal efficiency Eb",
+            BlockValue::Application => "Irrigation method and application efficiency Ea",
+        }
+    }
+}
+
+/// The value of a canal a scenario can change.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum CanalValue {
+    /// Conveyance efficiency Ec (`Override::SetCanalEfficiency`).
+    #[default]
+    Conveyance,
+    /// Existing capacity (`Override::SetCanalCapacity`).
+    Capacity,
+    /// Hours of operation per day (`Override::SetCanalHours`).
+    Hours,
+}
+
+impl CanalValue {
+    /// The choice as the form lists it.
+    pub fn label(self) -> &'static str {
+        match self {
+            CanalValue::Conveyance => "Conveyance efficiency Ec",
+            CanalValue::Capacity => "Existing capacity",
+            CanalValue::Hours => "Operating hours",
+        }
+    }
 }
 
 impl ScenarioEditor {
@@ -584,7 +922,7 @@ pub fn window(
         .vscroll(true)
         .show(ctx, |ui| {
             result_line(ui, base, scenario, results);
-            editor_ui(ui, editor, base, scenario, libs, results.shown, commands);
+            editor_ui(ui, editor, base, scenario, libs, results, commands);
         });
     if !open {
         editor.scenario = None;
@@ -595,16 +933,26 @@ pub fn window(
 /// scenario that is the base plan unchanged (if the project has one).
 fn result_line(ui: &mut Ui, base: &Project, scenario: &Scenario, results: Results<'_>) {
     use crate::fields::format_sig;
-    let comparison = results
-        .computed
-        .and_then(|c| c.comparison.as_ref())
-        .and_then(|c| c.as_ref().ok());
+    let comparison = results.computed.and_then(|c| c.comparison.as_ref());
     let text = if results.recomputing {
         "Recomputing the scenarios…".to_owned()
-    } else if let Some(c) = comparison {
+    } else if let Some(Err(e)) = comparison {
+        format!("The scenarios cannot be computed: {e}")
+    } else if let Some(Ok(c)) = comparison {
         let figures = |col: &offtake_core::engine::ScenarioColumn| {
+            let short = if col.shortfall_periods > 0 {
+                format!(
+                    "; canals with an existing capacity fall short in {} of {} years ({} Mm³/year not delivered, {} means)",
+                    col.shortfall_years,
+                    col.complete_years,
+                    format_sig(col.shortfall_m3_per_year / 1.0e6, 3),
+                    col.shortfall_basis
+                )
+            } else {
+                String::new()
+            };
             format!(
-                "design flow {} l/s, volume {} Mm³/year",
+                "design flow {} l/s, volume {} Mm³/year{short}",
                 format_sig(col.design_flow_ls, 3),
                 format_sig(col.headworks_volume_m3 / 1.0e6, 3)
             )
@@ -725,11 +1073,16 @@ fn editor_ui(
     base: &Project,
     scenario: &Scenario,
     libs: &Libraries,
-    shown: Option<&str>,
+    results: Results<'_>,
     commands: &mut Vec<Command>,
 ) {
     let name = scenario.name.as_str();
+    let shown = results.shown;
     let made = plan(base, scenario);
+    let validation = results
+        .computed
+        .map(|c| validation_problems(&c.warnings, name))
+        .unwrap_or_default();
     ui.horizontal(|ui| {
         ui.label(
             RichText::new(
@@ -751,7 +1104,15 @@ fn editor_ui(
         );
     }
     ui.separator();
-    overrides_ui(ui, base, scenario, &made.problems, libs, commands);
+    overrides_ui(
+        ui,
+        base,
+        scenario,
+        &made.problems,
+        &validation,
+        libs,
+        commands,
+    );
     ui.separator();
     egui::CollapsingHeader::new("Cropping plan in this scenario")
         .default_open(true)
@@ -778,6 +1139,10 @@ fn editor_ui(
     add_planting_ui(ui, editor, scenario, &made.project, libs, commands);
     ui.separator();
     shift_ui(ui, editor, scenario, &made.project, libs, commands);
+    ui.separator();
+    block_change_ui(ui, editor, base, scenario, &made.project, commands);
+    ui.separator();
+    canal_change_ui(ui, editor, base, scenario, &made.project, commands);
     ui.separator();
     weather_ui(ui, scenario, commands);
 }
@@ -979,7 +1344,8 @@ fn planting_form(
         &b,
         2,
     );
-    if let (Some(v), None) = (out.committed, &out.error) {
+    // Kept even when out of range (the field shows why; validation reports it).
+    if let Some(v) = out.committed {
         let area = match pl.area {
             PlantingArea::Hectares(_) => PlantingArea::Hectares(v),
             PlantingArea::PercentOfBlock(_) => PlantingArea::PercentOfBlock(v),
@@ -1010,9 +1376,12 @@ fn planting_form(
         &bounds::SPREAD,
         0,
     );
-    if out.error.is_none()
-        && let Some(v) = out.committed
+    // Whole days only (a spread is a count of days); beyond a year is kept
+    // and reported.
+    if let Some(v) = out.committed
+        && v >= 0.0
         && v.fract() == 0.0
+        && v <= f64::from(u32::MAX)
     {
         push(Override::SetPlantingDate {
             planting: pl.id.clone(),
@@ -1020,7 +1389,7 @@ fn planting_form(
             spread_days: Some(v as u32),
         });
     }
-    if let Some(s) = strategy_editor(ui, name, &pl.id, pl.strategy) {
+    if let Some(s) = strategy_editor(ui, ("Strategy in scenario", ""), name, &pl.id, pl.strategy) {
         push(Override::SetPlantingStrategy {
             planting: pl.id.clone(),
             strategy: s,
@@ -1036,18 +1405,22 @@ fn planting_form(
 }
 
 /// The strategy picker with its parameters; returns a changed strategy.
+/// `combo` labels the picker; `suffix` is added to each parameter's label
+/// so that two editors in one window keep distinct labels.
 fn strategy_editor(
     ui: &mut Ui,
+    (combo, suffix): (&str, &str),
     scenario: &str,
     planting: &str,
     current: Strategy,
 ) -> Option<Strategy> {
     use crate::inspector::bounds as b;
     let mut s = current;
-    crate::inspector::strategy_kind_combo(ui, "Strategy in scenario", &mut s);
+    crate::inspector::strategy_kind_combo(ui, combo, &mut s);
     let param = |ui: &mut Ui, field: &str, label: &str, v: f64, bounds: &Bounds| {
-        let out = number_field(ui, fid(scenario, planting, field), label, v, bounds, 1);
-        out.committed.filter(|_| out.error.is_none())
+        // A number out of range is kept; the field shows why.
+        let label = format!("{label}{suffix}");
+        number_field(ui, fid(scenario, planting, field), &label, v, bounds, 1).committed
     };
     match &mut s {
         Strategy::Refill { trigger_pct_of_raw } => {
@@ -1057,7 +1430,9 @@ fn strategy_editor(
         }
         Strategy::Interval { days } => {
             if let Some(v) = param(ui, "interval", "Interval", f64::from(*days), &b::INTERVAL)
+                && v >= 0.0
                 && v.fract() == 0.0
+                && v <= f64::from(u32::MAX)
             {
                 *days = v as u32;
             }
@@ -1166,16 +1541,14 @@ fn shift_ui(
         crop_picker(ui, "Crop gaining area", &mut to, libs);
         editor.shift_to = (!to.is_empty()).then_some(to);
     });
+    shifted_plantings_ui(ui, &mut editor.shift_new, &scenario.name);
+    // A number outside (0, 100] can be applied and is kept (the scenario
+    // then cannot be computed and says why); text that is no number cannot.
     let share = if editor.shift_share.trim().is_empty() {
         None
     } else {
-        match check_share(&editor.shift_share) {
-            Ok(v) => Some(v),
-            Err(e) => {
-                share_error = Some(e);
-                None
-            }
-        }
+        share_error = check_share(&editor.shift_share).err();
+        parse_number(&editor.shift_share).ok()
     };
     if let Some(e) = &share_error {
         ui.label(RichText::new(e).color(ui.visuals().error_fg_color));
@@ -1195,8 +1568,350 @@ fn shift_ui(
     {
         commands.push(edit_command(
             &scenario.name,
-            with_shift(scenario, &from, &to, v),
+            with_shift(scenario, &from, &to, v, editor.shift_new),
         ));
+    }
+}
+
+/// The optional strategy and season length of the plantings a crop shift
+/// makes (kept in the form until the shift is applied).
+fn shifted_plantings_ui(ui: &mut Ui, new: &mut ShiftedPlantings, scenario: &str) {
+    let mut own = new.strategy.is_some();
+    if ui
+        .checkbox(&mut own, "Own irrigation strategy for the new plantings")
+        .on_hover_text(
+            "Otherwise each new planting keeps the strategy of the planting it comes from",
+        )
+        .changed()
+    {
+        new.strategy = own.then_some(Strategy::Refill {
+            trigger_pct_of_raw: 100.0,
+        });
+    }
+    if let Some(s) = new.strategy
+        && let Some(changed) = strategy_editor(
+            ui,
+            ("Strategy of the new plantings", " of the new plantings"),
+            scenario,
+            "shift",
+            s,
+        )
+    {
+        new.strategy = Some(changed);
+    }
+    let mut own = new.season_length_days.is_some();
+    if ui
+        .checkbox(&mut own, "Own season length for the new plantings")
+        .on_hover_text("Otherwise the crop library's season length (the FAO-56 stage lengths)")
+        .changed()
+    {
+        new.season_length_days = own.then_some(120);
+    }
+    if let Some(days) = new.season_length_days {
+        let out = number_field(
+            ui,
+            fid(scenario, "shift", "season"),
+            "Season length of the new plantings",
+            f64::from(days),
+            &crate::inspector::bounds::SEASON,
+            0,
+        );
+        // Whole days; a length outside the range is kept and shown.
+        if let Some(v) = out.committed
+            && v >= 0.0
+            && v.fract() == 0.0
+            && v <= f64::from(u32::MAX)
+        {
+            new.season_length_days = Some(v as u32);
+        }
+    }
+}
+
+/// A combo box choosing a block or canal by name (id in brackets)./// A combo box choosing a block or canal by name (id in brackets).
+fn item_combo<'a>(
+    ui: &mut Ui,
+    label: &str,
+    none: &str,
+    chosen: &mut Option<String>,
+    items: impl Iterator<Item = (&'a str, &'a str)> + Clone,
+) {
+    let shown = chosen
+        .as_deref()
+        .and_then(|id| items.clone().find(|(i, _)| *i == id))
+        .map_or_else(|| none.to_owned(), |(id, n)| format!("{n} ({id})"));
+    egui::ComboBox::from_label(label)
+        .selected_text(shown)
+        .show_ui(ui, |ui| {
+            for (id, n) in items {
+                ui.selectable_value(chosen, Some(id.to_owned()), format!("{n} ({id})"));
+            }
+        });
+}
+
+/// The form that changes a block's efficiencies in the scenario: pick the
+/// block and the value; the field shows the value in the scenario's plan
+/// (with its unit), and a committed value becomes a `SetBlockEfficiency`.
+fn block_change_ui(
+    ui: &mut Ui,
+    editor: &mut ScenarioEditor,
+    base: &Project,
+    scenario: &Scenario,
+    plan: &Project,
+    commands: &mut Vec<Command>,
+) {
+    use crate::inspector::bounds as ib;
+    let name = scenario.name.as_str();
+    ui.label(RichText::new("Change a block's efficiencies").strong());
+    ui.label(
+        RichText::new(
+            "Block GIR = NIR ÷ (Ea × Eb). Type the value in the scenario and press Enter; it is stored in this scenario only.",
+        )
+        .weak(),
+    );
+    ui.horizontal(|ui| {
+        item_combo(
+            ui,
+            "Block to change",
+            "(choose a block)",
+            &mut editor.change_block,
+            plan.blocks.iter().map(|b| (b.id.as_str(), b.name.as_str())),
+        );
+        egui::ComboBox::from_label("Block value to change")
+            .selected_text(editor.block_value.label())
+            .show_ui(ui, |ui| {
+                for v in [BlockValue::FieldCanal, BlockValue::Application] {
+                    ui.selectable_value(&mut editor.block_value, v, v.label());
+                }
+            });
+    });
+    let Some(b) = editor.change_block.as_deref().and_then(|id| plan.block(id)) else {
+        ui.label("Choose a block to see its values in this scenario.");
+        return;
+    };
+    let item = format!("block:{}", b.id);
+    let mut push = |ov: Override| {
+        let new = with_item_override(base, scenario, ov);
+        if new != *scenario {
+            commands.push(edit_command(name, new));
+        }
+    };
+    let was = base.block(&b.id);
+    match editor.block_value {
+        BlockValue::FieldCanal => {
+            let out = number_field(
+                ui,
+                fid(name, &item, "eb"),
+                "Field-canal efficiency Eb in scenario",
+                b.field_canal_efficiency,
+                &ib::FIELD_CANAL,
+                1,
+            );
+            if let Some(v) = out.committed {
+                push(Override::SetBlockEfficiency {
+                    block: b.id.clone(),
+                    method: None,
+                    field_canal_efficiency: Some(v),
+                });
+            }
+            if let Some(w) = was {
+                ui.label(
+                    RichText::new(format!("Base plan: Eb {}", pct(w.field_canal_efficiency)))
+                        .weak(),
+                );
+            }
+        }
+        BlockValue::Application => {
+            let out = crate::fields::name_field(
+                ui,
+                fid(name, &item, "method"),
+                "Irrigation method in scenario",
+                &b.method.name,
+            );
+            if let Some(m) = out.committed {
+                push(Override::SetBlockEfficiency {
+                    block: b.id.clone(),
+                    method: Some(IrrigationMethod {
+                        name: m,
+                        application_efficiency: b.method.application_efficiency,
+                    }),
+                    field_canal_efficiency: None,
+                });
+            }
+            let out = number_field(
+                ui,
+                fid(name, &item, "ea"),
+                "Application efficiency Ea in scenario",
+                b.method.application_efficiency,
+                &ib::APPLICATION,
+                1,
+            );
+            if let Some(v) = out.committed {
+                push(Override::SetBlockEfficiency {
+                    block: b.id.clone(),
+                    method: Some(IrrigationMethod {
+                        name: b.method.name.clone(),
+                        application_efficiency: v,
+                    }),
+                    field_canal_efficiency: None,
+                });
+            }
+            if let Some(w) = was {
+                ui.label(
+                    RichText::new(format!(
+                        "Base plan: {} with Ea {} (a paddy rice planting uses its own paddy field efficiency instead of Ea)",
+                        w.method.name,
+                        pct(w.method.application_efficiency)
+                    ))
+                    .weak(),
+                );
+            }
+        }
+    }
+}
+
+/// The form that changes a canal in the scenario: conveyance efficiency,
+/// existing capacity (or none known) or hours of operation.
+fn canal_change_ui(
+    ui: &mut Ui,
+    editor: &mut ScenarioEditor,
+    base: &Project,
+    scenario: &Scenario,
+    plan: &Project,
+    commands: &mut Vec<Command>,
+) {
+    use crate::inspector::bounds as ib;
+    let name = scenario.name.as_str();
+    ui.label(RichText::new("Change a canal").strong());
+    ui.label(
+        RichText::new(
+            "Conveyance efficiency Ec = water delivered to the children ÷ water entering the reach; required capacity = design flow × 24 h ÷ hours of operation.",
+        )
+        .weak(),
+    );
+    ui.horizontal(|ui| {
+        item_combo(
+            ui,
+            "Canal to change",
+            "(choose a canal)",
+            &mut editor.change_canal,
+            plan.canals.iter().map(|c| (c.id.as_str(), c.name.as_str())),
+        );
+        egui::ComboBox::from_label("Canal value to change")
+            .selected_text(editor.canal_value.label())
+            .show_ui(ui, |ui| {
+                for v in [
+                    CanalValue::Conveyance,
+                    CanalValue::Capacity,
+                    CanalValue::Hours,
+                ] {
+                    ui.selectable_value(&mut editor.canal_value, v, v.label());
+                }
+            });
+    });
+    let Some(c) = editor.change_canal.as_deref().and_then(|id| plan.canal(id)) else {
+        ui.label("Choose a canal to see its values in this scenario.");
+        return;
+    };
+    let item = format!("canal:{}", c.id);
+    let mut push = |ov: Override| {
+        let new = with_item_override(base, scenario, ov);
+        if new != *scenario {
+            commands.push(edit_command(name, new));
+        }
+    };
+    let was = base.canal(&c.id);
+    let capacity_text = |q: Option<f64>| {
+        q.map_or_else(
+            || "not known".to_owned(),
+            |q| format!("{} m³/s", format_number(q, 3)),
+        )
+    };
+    match editor.canal_value {
+        CanalValue::Conveyance => {
+            let out = number_field(
+                ui,
+                fid(name, &item, "ec"),
+                "Conveyance efficiency Ec in scenario",
+                c.conveyance_efficiency,
+                &ib::CONVEYANCE,
+                1,
+            );
+            if let Some(v) = out.committed {
+                push(Override::SetCanalEfficiency {
+                    canal: c.id.clone(),
+                    conveyance_efficiency: v,
+                });
+            }
+            if let Some(w) = was {
+                ui.label(
+                    RichText::new(format!("Base plan: Ec {}", pct(w.conveyance_efficiency))).weak(),
+                );
+            }
+        }
+        CanalValue::Capacity => {
+            let mut known = c.existing_capacity_m3s.is_some();
+            if ui
+                .checkbox(&mut known, "Existing capacity known in scenario")
+                .changed()
+            {
+                // Start from the base plan's capacity if it has one.
+                let start = was.and_then(|w| w.existing_capacity_m3s).unwrap_or(0.0);
+                push(Override::SetCanalCapacity {
+                    canal: c.id.clone(),
+                    existing_capacity_m3s: known.then_some(start),
+                });
+            }
+            if let Some(q) = c.existing_capacity_m3s {
+                let out = number_field(
+                    ui,
+                    fid(name, &item, "capacity"),
+                    "Existing capacity in scenario",
+                    q,
+                    &ib::CAPACITY,
+                    3,
+                );
+                if let Some(v) = out.committed {
+                    push(Override::SetCanalCapacity {
+                        canal: c.id.clone(),
+                        existing_capacity_m3s: Some(v),
+                    });
+                }
+            }
+            if let Some(w) = was {
+                ui.label(
+                    RichText::new(format!(
+                        "Base plan: existing capacity {}",
+                        capacity_text(w.existing_capacity_m3s)
+                    ))
+                    .weak(),
+                );
+            }
+        }
+        CanalValue::Hours => {
+            let out = number_field(
+                ui,
+                fid(name, &item, "hours"),
+                "Operating hours in scenario",
+                c.operating_hours_per_day,
+                &ib::HOURS,
+                1,
+            );
+            if let Some(v) = out.committed {
+                push(Override::SetCanalHours {
+                    canal: c.id.clone(),
+                    operating_hours_per_day: v,
+                });
+            }
+            if let Some(w) = was {
+                ui.label(
+                    RichText::new(format!(
+                        "Base plan: {} h/day",
+                        format_number(w.operating_hours_per_day, 1)
+                    ))
+                    .weak(),
+                );
+            }
+        }
     }
 }
 
@@ -1229,9 +1944,8 @@ fn weather_ui(ui: &mut Ui, scenario: &Scenario, commands: &mut Vec<Command>) {
     ];
     for (key, label, value, b) in fields {
         let out = number_field(ui, fid(name, "weather", key), label, value, &b, 2);
-        if out.error.is_none()
-            && let Some(v) = out.committed
-        {
+        // Kept even when out of range (the field shows why).
+        if let Some(v) = out.committed {
             match key {
                 "temp" => new.temperature_shift_c = v,
                 "rain" => new.rain_change_pct = v,
@@ -1252,6 +1966,7 @@ fn overrides_ui(
     base: &Project,
     scenario: &Scenario,
     problems: &[(usize, String)],
+    validation: &[&str],
     libs: &Libraries,
     commands: &mut Vec<Command>,
 ) {
@@ -1271,6 +1986,10 @@ fn overrides_ui(
                 RichText::new(format!("Cannot apply: {why}")).color(ui.visuals().error_fg_color),
             );
         }
+        // A value kept out of range: the reason, as its field shows it.
+        for why in override_problems(ov) {
+            ui.label(RichText::new(format!("{}. {why}", i + 1)).color(ui.visuals().error_fg_color));
+        }
     }
     ui.horizontal(|ui| {
         ui.label(weather_text(&scenario.weather));
@@ -1280,6 +1999,31 @@ fn overrides_ui(
             commands.push(edit_command(&scenario.name, s));
         }
     });
+    for why in weather_problems(&scenario.weather) {
+        ui.label(RichText::new(why).color(ui.visuals().error_fg_color));
+    }
+    if !validation.is_empty() {
+        ui.label(
+            RichText::new(format!(
+                "Problems the project validation finds in this scenario ({}):",
+                validation.len()
+            ))
+            .strong(),
+        );
+        for p in validation {
+            ui.label(RichText::new(*p).color(ui.visuals().error_fg_color));
+        }
+    }
+}
+
+/// The validation problems of the last computation that belong to the
+/// scenario `name` (the part after `under scenario "name": `).
+pub fn validation_problems<'a>(warnings: &'a [String], name: &str) -> Vec<&'a str> {
+    let prefix = format!("under scenario {name:?}: ");
+    warnings
+        .iter()
+        .filter_map(|w| w.strip_prefix(&prefix))
+        .collect()
 }
 
 #[cfg(test)]
@@ -1357,10 +2101,36 @@ mod tests {
     #[test]
     fn shifts_between_the_same_crops_replace_and_bad_overrides_are_reported() {
         let base = demo();
-        let s = with_shift(&empty("a"), "rice-paddy", "maize-grain", 30.0);
-        let s = with_shift(&s, "rice-paddy", "maize-grain", 40.0);
+        let own = ShiftedPlantings {
+            strategy: Some(Strategy::Interval { days: 7 }),
+            season_length_days: Some(110),
+        };
+        let s = with_shift(&empty("a"), "rice-paddy", "maize-grain", 30.0, own);
+        let s = with_shift(&s, "rice-paddy", "maize-grain", 40.0, own);
+        assert!(matches!(
+            s.overrides.as_slice(),
+            [Override::ShiftCropShare { share_pct, strategy: Some(Strategy::Interval { days: 7 }), season_length_days: Some(110), .. }]
+                if (*share_pct - 40.0).abs() < 1e-12
+        ));
+        let made = plan(&base, &s);
+        let new = made.project.planting("C1-rice-maize-grain").unwrap();
+        assert_eq!(new.strategy, Strategy::Interval { days: 7 });
+        assert_eq!(new.season_length_days, Some(110));
+        let s = with_shift(
+            &s,
+            "rice-paddy",
+            "maize-grain",
+            40.0,
+            ShiftedPlantings::default(),
+        );
         assert_eq!(s.overrides.len(), 1);
-        let s = with_shift(&s, "no-such-crop", "maize-grain", 10.0);
+        let s = with_shift(
+            &s,
+            "no-such-crop",
+            "maize-grain",
+            10.0,
+            ShiftedPlantings::default(),
+        );
         let p = plan(&base, &s);
         assert_eq!(p.problems.len(), 1);
         assert_eq!(p.problems[0].0, 1);
@@ -1368,6 +2138,140 @@ mod tests {
         assert!(check_share("0").is_err());
         assert!(check_share("abc").is_err());
         assert_eq!(check_share("100"), Ok(100.0));
+    }
+
+    fn eb(block: &str, v: f64) -> Override {
+        Override::SetBlockEfficiency {
+            block: block.to_owned(),
+            method: None,
+            field_canal_efficiency: Some(v),
+        }
+    }
+
+    #[test]
+    fn block_changes_merge_per_block_and_vanish_at_the_base_values() {
+        let base = demo();
+        let c1 = base.block("C1").unwrap().clone();
+        let s = with_item_override(&base, &empty("a"), eb("C1", 0.4));
+        assert_eq!(s.overrides, vec![eb("C1", 0.4)]);
+        assert!(
+            (plan(&base, &s)
+                .project
+                .block("C1")
+                .unwrap()
+                .field_canal_efficiency
+                - 0.4)
+                .abs()
+                < 1e-12
+        );
+        // Ea on the same block joins the same override; Eb is kept.
+        let drip = IrrigationMethod {
+            name: "drip".into(),
+            application_efficiency: 0.9,
+        };
+        let s = with_item_override(
+            &base,
+            &s,
+            Override::SetBlockEfficiency {
+                block: "C1".into(),
+                method: Some(drip.clone()),
+                field_canal_efficiency: None,
+            },
+        );
+        assert_eq!(
+            s.overrides,
+            vec![Override::SetBlockEfficiency {
+                block: "C1".into(),
+                method: Some(drip.clone()),
+                field_canal_efficiency: Some(0.4),
+            }]
+        );
+        // Eb typed back to the base value: only the method change is left.
+        let s = with_item_override(&base, &s, eb("C1", c1.field_canal_efficiency));
+        assert_eq!(
+            s.overrides,
+            vec![Override::SetBlockEfficiency {
+                block: "C1".into(),
+                method: Some(drip),
+                field_canal_efficiency: None,
+            }]
+        );
+        // The base method back: nothing left to store.
+        let s = with_item_override(
+            &base,
+            &s,
+            Override::SetBlockEfficiency {
+                block: "C1".into(),
+                method: Some(c1.method.clone()),
+                field_canal_efficiency: None,
+            },
+        );
+        assert!(s.overrides.is_empty());
+    }
+
+    #[test]
+    fn canal_changes_replace_the_same_value_of_the_same_canal() {
+        let base = demo();
+        let cap = |q: Option<f64>| Override::SetCanalCapacity {
+            canal: "upper-dy".into(),
+            existing_capacity_m3s: q,
+        };
+        let hours = Override::SetCanalHours {
+            canal: "upper-dy".into(),
+            operating_hours_per_day: 12.0,
+        };
+        let s = with_item_override(&base, &empty("a"), cap(Some(1.0)));
+        let s = with_item_override(&base, &s, hours.clone());
+        let s = with_item_override(&base, &s, cap(Some(0.5)));
+        assert_eq!(s.overrides, vec![cap(Some(0.5)), hours.clone()]);
+        let made = plan(&base, &s);
+        assert!(made.problems.is_empty());
+        let c = made.project.canal("upper-dy").unwrap();
+        assert_eq!(c.existing_capacity_m3s, Some(0.5));
+        assert!((c.operating_hours_per_day - 12.0).abs() < 1e-12);
+        // The base plan knows no capacity for this canal: "unknown" is no change.
+        let s = with_item_override(&base, &s, cap(None));
+        assert_eq!(s.overrides, vec![hours]);
+        // A planting override is not a block or canal change.
+        let same = with_item_override(&base, &s, crop("C1-rice", "cotton"));
+        assert_eq!(same, s);
+    }
+
+    #[test]
+    fn out_of_range_values_are_kept_and_named_with_their_range() {
+        let base = demo();
+        let s = with_item_override(&base, &empty("a"), eb("C1", 1.5));
+        assert_eq!(s.overrides, vec![eb("C1", 1.5)]);
+        assert_eq!(
+            override_problems(&s.overrides[0]),
+            vec!["Field-canal efficiency must be between 1 % and 100 %".to_owned()]
+        );
+        let hours = Override::SetCanalHours {
+            canal: "main".into(),
+            operating_hours_per_day: 30.0,
+        };
+        assert_eq!(
+            override_problems(&hours),
+            vec!["Operating hours must be between 0.1 h/day and 24 h/day".to_owned()]
+        );
+        assert!(override_problems(&eb("C1", 0.5)).is_empty());
+        let w = WeatherPerturbation {
+            rain_change_pct: -150.0,
+            ..WeatherPerturbation::default()
+        };
+        assert_eq!(
+            weather_problems(&w),
+            vec!["Rain change must be between -100 % and 200 %".to_owned()]
+        );
+        let warnings = vec![
+            "under scenario \"a\": block \"C1\": field_canal_efficiency = 1.5 is outside (0, 1]"
+                .to_owned(),
+            "under scenario \"b\": something else".to_owned(),
+        ];
+        assert_eq!(
+            validation_problems(&warnings, "a"),
+            vec!["block \"C1\": field_canal_efficiency = 1.5 is outside (0, 1]"]
+        );
     }
 
     #[test]

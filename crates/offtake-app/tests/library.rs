@@ -150,3 +150,98 @@ fn a_project_with_own_crop_and_soil_round_trips_through_save_and_open() {
     app.open_file(&path);
     assert_eq!(app.project().cloned(), Some(saved));
 }
+
+/// An invented scheme: one canal, one block, four plantings (three of grain
+/// maize in different windows, one of cotton).
+fn invented_scheme() -> Project {
+    use offtake_app::edit::{new_block, new_canal, new_planting};
+    use offtake_core::project::MonthDay;
+    let mut p = invented_project();
+    let canal = new_canal(&p, None);
+    p.canals.push(canal.clone());
+    let mut block = new_block(&p, &canal.id);
+    block.area_ha = 40.0;
+    block.soil = "loam".into();
+    p.blocks.push(block.clone());
+    for (crop, month) in [
+        ("maize-grain", 3),
+        ("cotton", 4),
+        ("maize-grain", 7),
+        ("maize-grain", 11),
+    ] {
+        let mut pl = new_planting(&p, &block.id);
+        pl.crop = crop.into();
+        pl.area = offtake_core::project::PlantingArea::Hectares(5.0);
+        pl.first_planting = MonthDay { month, day: 1 };
+        p.plantings.push(pl);
+    }
+    p
+}
+
+fn crops_of(h: &Harness<'static, OfftakeApp>) -> Vec<(String, String)> {
+    h.state()
+        .project()
+        .expect("open")
+        .plantings
+        .iter()
+        .map(|p| (p.id.clone(), p.crop.clone()))
+        .collect()
+}
+
+#[test]
+fn use_for_all_plantings_re_points_every_planting_of_the_crop_in_one_undo_step() {
+    let scheme = invented_scheme();
+    let maize: Vec<String> = scheme
+        .plantings
+        .iter()
+        .filter(|p| p.crop == "maize-grain")
+        .map(|p| p.id.clone())
+        .collect();
+    assert_eq!(maize.len(), 3);
+    let mut h = harness(scheme);
+    h.run();
+    let before = crops_of(&h);
+    h.get_by_label("Crops…").click();
+    h.run();
+    h.get_by_label("Maize, field (grain) (maize-grain)").click();
+    h.run();
+    h.get_by_label("Copy to my crops").click();
+    h.run();
+    h.run();
+    let copy = h.state().project().expect("open").user_crops[0].id.clone();
+    assert_eq!(copy, "maize-grain-mine");
+    // The offer names the original crop and how many plantings it changes.
+    h.get_by_label(&format!(
+        "Changes 3 plantings of the base plan: {}.",
+        maize.join(", ")
+    ));
+    h.get_by_label("Use for all plantings of Maize, field (grain)")
+        .click();
+    h.run();
+    h.run();
+    let after = crops_of(&h);
+    for (id, crop) in &after {
+        if maize.contains(id) {
+            assert_eq!(crop, &copy, "planting {id} grows the copy");
+        } else {
+            assert_eq!(crop, "cotton", "planting {id} keeps its crop");
+        }
+    }
+    h.get_by_label("No planting of the base plan grows Maize, field (grain) (maize-grain).");
+    h.get_by_label("3 plantings of the base plan grow this crop.");
+
+    // One undo puts all three back on the library crop; the copy stays.
+    h.key_press(Key::Escape);
+    h.run();
+    h.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+    h.run();
+    h.run();
+    assert_eq!(crops_of(&h), before);
+    assert_eq!(h.state().project().expect("open").user_crops.len(), 1);
+    h.get_by_label_contains("Changes 3 plantings of the base plan");
+    // Redo is one step too.
+    h.key_press_modifiers(Modifiers::COMMAND | Modifiers::SHIFT, Key::Z);
+    h.run();
+    h.run();
+    assert_eq!(crops_of(&h), after);
+}

@@ -13,8 +13,10 @@ use egui_kittest::Harness;
 use egui_kittest::kittest::Queryable;
 use offtake_app::OfftakeApp;
 use offtake_app::fields::format_sig;
-use offtake_core::engine::ScenarioColumn;
-use offtake_core::project::{Override, Project, Scenario};
+use offtake_core::engine::{Results, ScenarioColumn};
+use offtake_core::project::{
+    Override, Project, Scenario, Strategy, ValidationContext, ValidationProblem,
+};
 
 fn demo_file() -> PathBuf {
     PathBuf::from(concat!(
@@ -65,6 +67,48 @@ fn column(h: &Harness<'static, OfftakeApp>, name: &str) -> ScenarioColumn {
         .expect("column of the scenario")
 }
 
+/// The engine results the app shows (the base plan, or the scenario shown
+/// in every tab).
+fn engine_results(h: &Harness<'static, OfftakeApp>) -> std::sync::Arc<Results> {
+    h.state()
+        .computed
+        .as_ref()
+        .and_then(|c| c.engine.clone())
+        .expect("engine ran")
+        .expect("the demo computes")
+        .results
+}
+
+/// Total gross irrigation requirement of a block over the record (m³),
+/// from the engine's demand at the block.
+fn block_gir_m3(r: &Results, block: &str) -> f64 {
+    let i = r
+        .demand
+        .network()
+        .block_index(block)
+        .expect("block in the network");
+    r.demand.block_gir_slice_m3_day(i).iter().sum()
+}
+
+/// Total net irrigation requirement of a block over the record (m³).
+fn block_nir_m3(r: &Results, block: &str) -> f64 {
+    let i = r
+        .demand
+        .network()
+        .block_index(block)
+        .expect("block in the network");
+    r.demand.block_nir_m3_day(i).iter().sum()
+}
+
+/// Replaces the text of a field found by label and presses Enter.
+fn type_into(h: &mut Harness<'static, OfftakeApp>, label: &str, text: &str) {
+    h.get_by_label(label).focus();
+    h.run();
+    h.key_press_modifiers(Modifiers::COMMAND, Key::A);
+    h.get_by_label(label).type_text(text);
+    h.run();
+}
+
 /// Opens the Compare tab and creates a scenario from the current plan; the
 /// editor opens on it. Returns its name.
 fn create_scenario(h: &mut Harness<'static, OfftakeApp>) -> String {
@@ -80,6 +124,15 @@ fn create_scenario(h: &mut Harness<'static, OfftakeApp>) -> String {
     assert!(scenario(h, &name).overrides.is_empty());
     assert_eq!(h.state().scenario_editor.scenario.as_deref(), Some(&*name));
     name
+}
+
+/// Scrolls the editor window to the control with this label and clicks it
+/// (the window scrolls when its forms are taller than the screen).
+fn click(h: &mut Harness<'static, OfftakeApp>, label: &str) {
+    h.get_by_label(label).scroll_to_me();
+    h.run();
+    h.get_by_label(label).click();
+    h.run();
 }
 
 /// Clicks the last node with this label (a combo box option: the popup is
@@ -186,13 +239,12 @@ fn deleting_an_override_from_the_list_removes_it() {
     // Remove another planting: a second override.
     h.get_by_label("C1-onion").click();
     h.run();
-    h.get_by_label("Remove this planting from the scenario")
-        .click();
+    click(&mut h, "Remove this planting from the scenario");
     settle(&mut h);
     assert_eq!(scenario(&h, &name).overrides.len(), 2);
     h.get_by_label_contains("Removes planting C1-onion");
     // Delete the first from the list: only the removal is left.
-    h.get_by_label("Delete override 1").click();
+    click(&mut h, "Delete override 1");
     settle(&mut h);
     assert_eq!(
         scenario(&h, &name).overrides,
@@ -235,7 +287,7 @@ fn a_weather_change_that_is_not_a_number_is_refused_with_its_reason() {
 }
 
 #[test]
-fn a_crop_shift_is_stored_with_its_share_and_a_bad_share_is_refused() {
+fn a_crop_shift_is_stored_with_its_share_and_strategy_and_a_bad_share_is_kept_with_its_reason() {
     let mut h = demo_harness();
     let name = create_scenario(&mut h);
     let share = h.get_by_label("Share moved");
@@ -244,23 +296,48 @@ fn a_crop_shift_is_stored_with_its_share_and_a_bad_share_is_refused() {
     h.get_by_label("Share moved").type_text("150");
     h.run();
     h.get_by_label("Share moved must be more than 0 % and at most 100 %");
-    h.key_press_modifiers(Modifiers::COMMAND, Key::A);
-    h.get_by_label("Share moved").type_text("25");
-    h.run();
-    h.get_by_label("Crop losing area").click();
-    h.run();
+    click(&mut h, "Crop losing area");
     click_last(&mut h, "Rice, paddy");
-    h.get_by_label("Crop gaining area").click();
-    h.run();
+    click(&mut h, "Crop gaining area");
     click_last(&mut h, "Maize, field (grain)");
-    h.get_by_label("Apply shift").click();
+    // The new plantings get their own strategy: every 10 days.
+    click(&mut h, "Own irrigation strategy for the new plantings");
+    click(&mut h, "Strategy of the new plantings");
+    click_last(&mut h, "Fixed interval");
+    type_into(&mut h, "Interval of the new plantings", "10");
+    h.key_press(Key::Enter);
+    h.run();
+    // A share out of range is applied as typed and kept; the scenario says
+    // why it cannot be computed.
+    click(&mut h, "Apply shift");
     settle(&mut h);
     let s = scenario(&h, &name);
-    assert!(matches!(
-        s.overrides.as_slice(),
-        [Override::ShiftCropShare { from_crop, to_crop, share_pct, .. }]
-            if from_crop == "rice-paddy" && to_crop == "maize-grain" && (*share_pct - 25.0).abs() < 1e-12
-    ));
+    assert!(
+        matches!(
+            s.overrides.as_slice(),
+            [Override::ShiftCropShare { share_pct, .. }] if (*share_pct - 150.0).abs() < 1e-12
+        ),
+        "{:?}",
+        s.overrides
+    );
+    h.get_by_label("Cannot apply: share 150 % is outside (0, 100]");
+    h.get_by_label("1. Share moved must be more than 0 % and at most 100 %");
+
+    // 25 % between the same crops replaces it.
+    type_into(&mut h, "Share moved", "25");
+    click(&mut h, "Apply shift");
+    settle(&mut h);
+    let s = scenario(&h, &name);
+    assert!(
+        matches!(
+            s.overrides.as_slice(),
+            [Override::ShiftCropShare { from_crop, to_crop, share_pct, strategy: Some(Strategy::Interval { days: 10 }), season_length_days: None }]
+                if from_crop == "rice-paddy" && to_crop == "maize-grain" && (*share_pct - 25.0).abs() < 1e-12
+        ),
+        "{:?}",
+        s.overrides
+    );
+    h.get_by_label_contains("(new plantings irrigated: every 10 days)");
     // The plan table lists the new maize plantings the shift makes.
     h.get_by_label("C1-rice-maize-grain");
 }
@@ -306,5 +383,221 @@ fn renaming_a_scenario_keeps_the_editor_on_it_and_a_taken_name_is_refused() {
     assert_eq!(
         h.state().scenario_editor.scenario.as_deref(),
         Some("current")
+    );
+}
+
+#[test]
+fn a_canal_capacity_set_in_the_form_makes_that_canal_fall_short() {
+    let mut h = demo_harness();
+    // The Upper Distributary has no known capacity in the base plan; its
+    // design flow comes from the engine's own base run.
+    let base_run = engine_results(&h);
+    let upper = base_run.canal("upper-dy").expect("upper distributary");
+    assert!(upper.existing_capacity_ls.is_none());
+    let design_ls = upper.design_flow_ls;
+    assert!(design_ls > 0.0);
+    let name = create_scenario(&mut h);
+    let current = column(&h, "current");
+
+    click(&mut h, "Canal to change");
+    click_last(&mut h, "Upper Distributary (upper-dy)");
+    click(&mut h, "Canal value to change");
+    click_last(&mut h, "Existing capacity");
+    click(&mut h, "Existing capacity known in scenario");
+    // Half the design flow, typed in m³/s (the unit the field shows).
+    let capacity_m3s = (design_ls / 2.0).round() / 1000.0;
+    type_into(
+        &mut h,
+        "Existing capacity in scenario",
+        &format!("{capacity_m3s}"),
+    );
+    h.key_press(Key::Enter);
+    settle(&mut h);
+    assert_eq!(
+        scenario(&h, &name).overrides,
+        vec![Override::SetCanalCapacity {
+            canal: "upper-dy".to_owned(),
+            existing_capacity_m3s: Some(capacity_m3s),
+        }],
+        "one override, the value typed (the first tick's start value replaced)"
+    );
+    assert_eq!(project(&h).canals, base_run_canals(), "base plan untouched");
+    h.get_by_label_contains("Upper Distributary (upper-dy) has an existing capacity of");
+
+    // The comparison: this scenario now falls short where the base plan
+    // (the unchanged "current" scenario) does not.
+    let changed = column(&h, &name);
+    assert!(
+        changed.shortfall_m3_per_year > current.shortfall_m3_per_year,
+        "shortfall {} vs {} m³/year",
+        changed.shortfall_m3_per_year,
+        current.shortfall_m3_per_year
+    );
+    assert!(changed.shortfall_years >= 1);
+    h.get_by_label_contains("canals with an existing capacity fall short in");
+
+    // The scenario's own run: the capacity is the one typed and the extra
+    // shortfall of the comparison is exactly this canal's.
+    click(&mut h, "Show this scenario in every tab");
+    settle(&mut h);
+    let run = engine_results(&h);
+    assert_eq!(run.scenario.as_deref(), Some(name.as_str()));
+    let upper = run.canal("upper-dy").expect("upper distributary");
+    assert!((upper.existing_capacity_ls.expect("capacity") - capacity_m3s * 1000.0).abs() < 1e-9);
+    assert!(
+        (upper.design_flow_ls - design_ls).abs() < 1e-9 * design_ls,
+        "a capacity does not change the demand"
+    );
+    let short = upper.shortfall.as_ref().expect("shortfall computed");
+    let record_years = run.days as f64 / 365.25;
+    let extra = short.basis_volume_not_delivered_m3 / record_years;
+    assert!(extra > 0.0);
+    assert!(
+        ((changed.shortfall_m3_per_year - current.shortfall_m3_per_year) - extra).abs()
+            < 1e-6 * extra,
+        "comparison {} − {} vs canal {extra} m³/year",
+        changed.shortfall_m3_per_year,
+        current.shortfall_m3_per_year
+    );
+}
+
+/// The canals of the demo file as saved.
+fn base_run_canals() -> Vec<offtake_core::project::Canal> {
+    offtake_io::project_file::load_project(&demo_file())
+        .expect("demo")
+        .canals
+}
+
+#[test]
+fn a_block_field_canal_efficiency_set_in_the_form_scales_its_gir() {
+    let mut h = demo_harness();
+    let base_run = engine_results(&h);
+    let base_gir = block_gir_m3(&base_run, "C1");
+    let base_nir = block_nir_m3(&base_run, "C1");
+    let other_gir = block_gir_m3(&base_run, "L1");
+    let eb_base = project(&h).block("C1").expect("C1").field_canal_efficiency;
+    assert!(base_gir > 0.0);
+    let name = create_scenario(&mut h);
+
+    click(&mut h, "Block to change");
+    click_last(&mut h, "Clay 1 (C1)");
+    click(&mut h, "Block value to change");
+    click_last(&mut h, "Field-canal efficiency Eb");
+    // Eb in %, as the field shows it: half the base value.
+    let eb_new_pct = eb_base * 100.0 / 2.0;
+    type_into(
+        &mut h,
+        "Field-canal efficiency Eb in scenario",
+        &format!("{eb_new_pct}"),
+    );
+    h.key_press(Key::Enter);
+    settle(&mut h);
+    let s = scenario(&h, &name);
+    assert_eq!(s.overrides.len(), 1);
+    let Override::SetBlockEfficiency {
+        block,
+        method: None,
+        field_canal_efficiency: Some(eb_new),
+    } = &s.overrides[0]
+    else {
+        panic!("one block efficiency override, got {:?}", s.overrides);
+    };
+    assert_eq!(block, "C1");
+    assert!((eb_new - eb_base / 2.0).abs() < 1e-12);
+    h.get_by_label_contains("Clay 1 (C1): field-canal efficiency Eb");
+
+    // GIR = NIR ÷ (Ea × Eb): halving Eb doubles the block's GIR and leaves
+    // its NIR and the other blocks alone.
+    click(&mut h, "Show this scenario in every tab");
+    settle(&mut h);
+    let run = engine_results(&h);
+    assert_eq!(run.scenario.as_deref(), Some(name.as_str()));
+    let gir = block_gir_m3(&run, "C1");
+    let expected = base_gir * eb_base / eb_new;
+    assert!(
+        (gir - expected).abs() < 1e-9 * expected,
+        "GIR {gir} m³, expected {expected} m³ (base {base_gir} m³ × {eb_base} / {eb_new})"
+    );
+    assert!(gir > base_gir);
+    assert!((block_nir_m3(&run, "C1") - base_nir).abs() < 1e-9 * base_nir);
+    assert!((block_gir_m3(&run, "L1") - other_gir).abs() < 1e-9 * other_gir);
+
+    // One undo takes the change out again.
+    h.key_press(Key::Escape);
+    h.run();
+    h.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+    settle(&mut h);
+    assert!(scenario(&h, &name).overrides.is_empty());
+}
+
+/// Validation of a project with the built-in crop library, as the app runs it.
+fn validate(p: &Project) -> Vec<ValidationProblem> {
+    let libs = offtake_io::library::Libraries::builtin().expect("libraries");
+    let season = |crop: &str| libs.crop(crop).map(|c| c.stages.total_days());
+    p.validate(&ValidationContext {
+        crops: &season,
+        weather_range: None,
+    })
+}
+
+#[test]
+fn an_out_of_range_efficiency_is_kept_shown_validated_and_saved() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let path = dir.path().join("kept.ron");
+    let mut h = demo_harness();
+    let name = create_scenario(&mut h);
+    click(&mut h, "Block to change");
+    click_last(&mut h, "Clay 1 (C1)");
+    type_into(&mut h, "Field-canal efficiency Eb in scenario", "150");
+    // The reason and the range while typing…
+    h.get_by_label("Field-canal efficiency must be between 1 % and 100 %");
+    h.key_press(Key::Enter);
+    settle(&mut h);
+    // …and the value is kept in the scenario, as typed (a fraction).
+    let kept = Override::SetBlockEfficiency {
+        block: "C1".to_owned(),
+        method: None,
+        field_canal_efficiency: Some(1.5),
+    };
+    assert_eq!(scenario(&h, &name).overrides, vec![kept.clone()]);
+    // The field keeps showing it with the reason, and so does the list.
+    assert_eq!(
+        h.get_by_label("Field-canal efficiency Eb in scenario")
+            .value()
+            .as_deref(),
+        Some("150")
+    );
+    h.get_by_label("Field-canal efficiency must be between 1 % and 100 %");
+    h.get_by_label("1. Field-canal efficiency must be between 1 % and 100 %");
+    // Project validation reports it under the scenario, and the editor
+    // lists that problem.
+    let problems = validate(&project(&h));
+    let expected = format!(
+        "under scenario {name:?}: block \"C1\": field_canal_efficiency = 1.5 is outside (0, 1]"
+    );
+    assert!(
+        problems.iter().any(|p| p.to_string() == expected),
+        "{problems:?}"
+    );
+    h.get_by_label_contains("Problems the project validation finds in this scenario");
+    h.get_by_label("block \"C1\": field_canal_efficiency = 1.5 is outside (0, 1]");
+
+    // Saved and loaded: the value survives, and loading gives the
+    // validation problem, not an error.
+    h.state_mut().save_to(&path);
+    h.run();
+    let loaded = offtake_io::project_file::load_project(&path).expect("loads");
+    assert_eq!(
+        loaded.scenario(&name).expect("scenario saved").overrides,
+        vec![kept.clone()]
+    );
+    assert!(validate(&loaded).iter().any(|p| p.to_string() == expected));
+    let mut app = OfftakeApp::new().without_dialogs();
+    app.open_file(&path);
+    assert_eq!(
+        app.project()
+            .and_then(|p| p.scenario(&name))
+            .map(|s| s.overrides.clone()),
+        Some(vec![kept])
     );
 }
