@@ -362,10 +362,14 @@ impl EngineCache {
     /// The comparison of every scenario, computed once per project.
     fn compare(&mut self, project: &Project, days: &[WeatherDay], libraries: &Libraries) {
         if self.comparison.is_none() && !project.scenarios.is_empty() {
-            self.comparison = Some(
-                engine::compare_scenarios(project, &libraries.crops, &libraries.soils, days)
-                    .map_err(|e| e.to_string()),
-            );
+            // Every scenario that computes is compared; one made invalid in
+            // the editor is listed with its reason instead of hiding the rest.
+            self.comparison = Some(Ok(engine::compare_scenarios_each(
+                project,
+                &libraries.crops,
+                &libraries.soils,
+                days,
+            )));
         }
     }
 

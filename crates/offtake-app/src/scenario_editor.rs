@@ -40,14 +40,36 @@ use crate::fields::{Bounds, date_free_month_day, format_number, number_field, pa
 pub mod bounds {
     use crate::fields::Bounds;
 
-    /// Shift of every air temperature.
-    pub const TEMPERATURE: Bounds = Bounds::new("Temperature shift", "°C", -10.0, 10.0);
+    use offtake_core::project::WeatherPerturbation as P;
+
+    /// Shift of every air temperature (the core's accepted range).
+    pub const TEMPERATURE: Bounds = Bounds::new(
+        "Temperature shift",
+        "°C",
+        P::TEMPERATURE_SHIFT_C.0,
+        P::TEMPERATURE_SHIFT_C.1,
+    );
     /// Change of daily rain.
-    pub const RAIN: Bounds = Bounds::new("Rain change", "%", -100.0, 200.0);
+    pub const RAIN: Bounds = Bounds::new(
+        "Rain change",
+        "%",
+        P::RAIN_CHANGE_PCT.0,
+        P::RAIN_CHANGE_PCT.1,
+    );
     /// Change of solar radiation.
-    pub const RADIATION: Bounds = Bounds::new("Radiation change", "%", -50.0, 50.0);
+    pub const RADIATION: Bounds = Bounds::new(
+        "Radiation change",
+        "%",
+        P::RADIATION_CHANGE_PCT.0,
+        P::RADIATION_CHANGE_PCT.1,
+    );
     /// Change of wind speed.
-    pub const WIND: Bounds = Bounds::new("Wind change", "%", -100.0, 200.0);
+    pub const WIND: Bounds = Bounds::new(
+        "Wind change",
+        "%",
+        P::WIND_CHANGE_PCT.0,
+        P::WIND_CHANGE_PCT.1,
+    );
     /// Area of a planting in hectares.
     pub const AREA_HA: Bounds = Bounds::new("Area", "ha", 0.0, 1.0e6);
     /// Area of a planting as a share of its block.
@@ -972,7 +994,17 @@ fn result_line(ui: &mut Ui, base: &Project, scenario: &Scenario, results: Result
                     figures(b)
                 ))
             ),
-            None => "Not computed yet: open the Compare tab to compute every scenario.".to_owned(),
+            None => c
+                .failed
+                .iter()
+                .find(|(name, _)| *name == scenario.name)
+                .map_or_else(
+                    || {
+                        "Not computed yet: open the Compare tab to compute every scenario."
+                            .to_owned()
+                    },
+                    |(_, e)| format!("This scenario cannot be computed: {e}"),
+                ),
         }
     } else {
         "Results appear here while the Compare tab is shown (it computes every scenario)."

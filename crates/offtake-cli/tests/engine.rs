@@ -14,7 +14,7 @@
 
 use std::path::Path;
 
-use offtake_core::engine::{self, Results, compare_scenarios};
+use offtake_core::engine::{self, Results, compare_scenarios, compare_scenarios_each};
 use offtake_core::project::Project;
 use offtake_core::scheme::Node;
 use offtake_core::weather::WeatherDay;
@@ -185,6 +185,36 @@ fn shifting_rice_to_maize_lowers_the_headworks_volume() {
     // Warmer and drier weather raises the demand.
     let warm = col("warmer-drier");
     assert!(warm.headworks_volume_m3 > current.headworks_volume_m3);
+}
+
+#[test]
+fn one_invalid_scenario_is_listed_and_the_others_still_compared() {
+    let (mut project, libs, weather) = demo();
+    let strict = compare_scenarios(&project, &libs.crops, &libs.soils, &weather).unwrap();
+    // A temperature shift beyond the accepted range, in warmer-drier only.
+    let s = project
+        .scenarios
+        .iter_mut()
+        .find(|s| s.name == "warmer-drier")
+        .unwrap();
+    s.weather.temperature_shift_c = 25.0;
+    let each = compare_scenarios_each(&project, &libs.crops, &libs.soils, &weather);
+    assert_eq!(each.failed.len(), 1);
+    assert_eq!(each.failed[0].0, "warmer-drier");
+    assert!(
+        each.failed[0].1.to_string().contains("temperature_shift_c"),
+        "{}",
+        each.failed[0].1
+    );
+    // The others are computed exactly as before.
+    let names: Vec<&str> = each.columns.iter().map(|c| c.name.as_str()).collect();
+    assert_eq!(names, ["current", "shift-to-maize"]);
+    for c in &each.columns {
+        let before = strict.columns.iter().find(|b| b.name == c.name).unwrap();
+        assert_eq!(c, before);
+    }
+    // The strict form (used by `offtake compare`) stops at the failure.
+    assert!(compare_scenarios(&project, &libs.crops, &libs.soils, &weather).is_err());
 }
 
 #[test]

@@ -197,6 +197,20 @@ impl CompareTab {
                 return;
             }
         };
+        for (name, e) in &c.failed {
+            ui.label(
+                RichText::new(format!("Scenario {name} cannot be computed: {e}"))
+                    .color(ui.visuals().error_fg_color),
+            );
+        }
+        if c.columns.is_empty() {
+            empty_state(
+                ui,
+                "No scenario can be computed",
+                "Correct the problems listed above (Edit scenario… shows each scenario's fields).",
+            );
+            return;
+        }
         for s in &project.scenarios {
             // Scenario editor: one button per scenario.
             ui.horizontal(|ui| {

@@ -58,6 +58,9 @@ pub struct Comparison {
     pub crops: Vec<String>,
     /// Every season label of any column, in first-seen order.
     pub seasons: Vec<String>,
+    /// Scenarios that could not be computed, with the reason (only from
+    /// [`compare_scenarios_each`]; [`compare_scenarios`] stops at the first).
+    pub failed: Vec<(String, EngineError)>,
 }
 
 impl ScenarioColumn {
@@ -122,6 +125,25 @@ pub fn compare_scenarios(
     soils: &[Soil],
     weather: &[WeatherDay],
 ) -> Result<Comparison, EngineError> {
+    let mut c = compare_scenarios_each(project, crops, soils, weather);
+    if c.failed.is_empty() {
+        Ok(c)
+    } else {
+        Err(c.failed.swap_remove(0).1)
+    }
+}
+
+/// Runs every scenario of the project (the base case when there is none),
+/// going on past a scenario that cannot be computed: its name and error are
+/// in [`Comparison::failed`] and the others are compared. For an editor,
+/// where one scenario being edited into an invalid state should not hide
+/// the rest.
+pub fn compare_scenarios_each(
+    project: &Project,
+    crops: &[Crop],
+    soils: &[Soil],
+    weather: &[WeatherDay],
+) -> Comparison {
     let names: Vec<Option<&str>> = if project.scenarios.is_empty() {
         vec![None]
     } else {
@@ -132,9 +154,13 @@ pub fn compare_scenarios(
             .collect()
     };
     let mut columns = Vec::with_capacity(names.len());
+    let mut failed = Vec::new();
     for name in names {
-        let r = run_scenario(project, name, crops, soils, weather)?;
-        columns.push(ScenarioColumn::from_results(name.unwrap_or("base"), &r));
+        let label = name.unwrap_or("base");
+        match run_scenario(project, name, crops, soils, weather) {
+            Ok(r) => columns.push(ScenarioColumn::from_results(label, &r)),
+            Err(e) => failed.push((label.to_owned(), e)),
+        }
     }
     let mut crops_seen: Vec<String> = Vec::new();
     let mut seasons: Vec<String> = Vec::new();
@@ -150,9 +176,10 @@ pub fn compare_scenarios(
             }
         }
     }
-    Ok(Comparison {
+    Comparison {
         columns,
         crops: crops_seen,
         seasons,
-    })
+        failed,
+    }
 }

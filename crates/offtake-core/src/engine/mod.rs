@@ -59,7 +59,7 @@ use crate::scheme::{
 use crate::soil::Soil;
 use crate::weather::{StationSite, WeatherDay};
 
-pub use compare::{Comparison, ScenarioColumn, compare_scenarios};
+pub use compare::{Comparison, ScenarioColumn, compare_scenarios, compare_scenarios_each};
 pub use planting_step::{PlantingOutcome, SeasonOutcome};
 pub use plantings::PlantingSummary;
 pub use storage::StorageLosses;
@@ -554,6 +554,17 @@ pub fn run_scenario(
                 .scenario(name)
                 .map(|s| s.weather)
                 .unwrap_or_default();
+            // A weather change outside its accepted range is refused, as
+            // validation reports it (not silently computed).
+            if let Some((field, value, expected)) = w.out_of_range().into_iter().next() {
+                return Err(ScenarioError::WeatherChangeOutOfRange {
+                    scenario: name.to_owned(),
+                    field,
+                    value,
+                    expected,
+                }
+                .into());
+            }
             (p, w)
         }
         None => (project.clone(), WeatherPerturbation::default()),

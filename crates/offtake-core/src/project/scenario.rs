@@ -146,6 +146,54 @@ pub struct WeatherPerturbation {
     pub wind_change_pct: f64,
 }
 
+impl WeatherPerturbation {
+    /// Accepted range of `temperature_shift_c` (°C). The limits of this and
+    /// the ranges below are our own: they bound a sensitivity study, not the
+    /// climate (common practice; wider changes belong in a new weather file).
+    pub const TEMPERATURE_SHIFT_C: (f64, f64) = (-10.0, 10.0);
+    /// Accepted range of `rain_change_pct` (%): −100 % is no rain.
+    pub const RAIN_CHANGE_PCT: (f64, f64) = (-100.0, 200.0);
+    /// Accepted range of `radiation_change_pct` (%).
+    pub const RADIATION_CHANGE_PCT: (f64, f64) = (-50.0, 50.0);
+    /// Accepted range of `wind_change_pct` (%): −100 % is calm.
+    pub const WIND_CHANGE_PCT: (f64, f64) = (-100.0, 200.0);
+
+    /// The changes outside their accepted ranges (or not finite): field
+    /// name, value and the range in words.
+    pub fn out_of_range(&self) -> Vec<(&'static str, f64, &'static str)> {
+        [
+            (
+                "weather.temperature_shift_c",
+                self.temperature_shift_c,
+                Self::TEMPERATURE_SHIFT_C,
+                "between −10 and +10 °C",
+            ),
+            (
+                "weather.rain_change_pct",
+                self.rain_change_pct,
+                Self::RAIN_CHANGE_PCT,
+                "between −100 and +200 %",
+            ),
+            (
+                "weather.radiation_change_pct",
+                self.radiation_change_pct,
+                Self::RADIATION_CHANGE_PCT,
+                "between −50 and +50 %",
+            ),
+            (
+                "weather.wind_change_pct",
+                self.wind_change_pct,
+                Self::WIND_CHANGE_PCT,
+                "between −100 and +200 %",
+            ),
+        ]
+        .into_iter()
+        .filter(|(_, v, (lo, hi), _)| !(v.is_finite() && (*lo..=*hi).contains(v)))
+        .map(|(field, v, _, expected)| (field, v, expected))
+        .collect()
+    }
+}
+
 /// Why a scenario could not be applied.
 #[derive(Debug, Clone, PartialEq, Error)]
 #[non_exhaustive]
@@ -189,6 +237,18 @@ pub enum ScenarioError {
         index: usize,
         /// The bad share.
         value: f64,
+    },
+    /// A weather change outside its accepted range.
+    #[error("scenario {scenario:?}: {field} = {value} is outside the accepted range ({expected})")]
+    WeatherChangeOutOfRange {
+        /// Scenario name.
+        scenario: String,
+        /// The field, e.g. `weather.temperature_shift_c`.
+        field: &'static str,
+        /// The value given.
+        value: f64,
+        /// The accepted range in words.
+        expected: &'static str,
     },
     /// `ShiftCropShare` found no planting of the crop.
     #[error("scenario {scenario:?}, override {index}: no planting grows {crop:?}")]

@@ -486,6 +486,35 @@ fn problems_only_under_a_scenario_are_attributed_to_it() {
     ));
 }
 
+#[test]
+fn weather_changes_outside_their_ranges_are_reported_with_the_range() {
+    let mut p = fixture();
+    p.scenarios[0].weather = WeatherPerturbation {
+        temperature_shift_c: 12.0,
+        rain_change_pct: -100.0, // no rain: allowed
+        radiation_change_pct: 60.0,
+        wind_change_pct: f64::NAN,
+    };
+    let problems = p.validate(&ctx());
+    let fields: Vec<&str> = problems
+        .iter()
+        .filter_map(|q| match q {
+            ValidationProblem::BadValue { field, .. } => Some(*field),
+            _ => None,
+        })
+        .collect();
+    assert_eq!(
+        fields,
+        [
+            "weather.temperature_shift_c",
+            "weather.radiation_change_pct",
+            "weather.wind_change_pct"
+        ],
+        "{problems:#?}"
+    );
+    assert!(problems[0].to_string().contains("between −10 and +10 °C"));
+}
+
 /// FAO-56 Annex 2, Table 2.3 (p. 214): e°(20 °C) = 2.338 kPa,
 /// e°(30 °C) = 4.243 kPa. Checked through a perturbation that only shifts the
 /// dewpoint: a day with Tdew = 20 °C keeps RH when shifted, and its dewpoint

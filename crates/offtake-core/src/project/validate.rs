@@ -329,22 +329,13 @@ impl Project {
                     }
                 }
             }
-            let w = &s.weather;
-            for (field, v) in [
-                ("weather.temperature_shift_c", w.temperature_shift_c),
-                ("weather.rain_change_pct", w.rain_change_pct),
-                ("weather.radiation_change_pct", w.radiation_change_pct),
-                ("weather.wind_change_pct", w.wind_change_pct),
-            ] {
-                let ok = v.is_finite() && (field.ends_with("_c") || v >= -100.0);
-                if !ok {
-                    problems.push(ValidationProblem::BadValue {
-                        subject: format!("scenario {:?}", s.name),
-                        field,
-                        value: v,
-                        expected: "a finite number (percent changes ≥ −100)",
-                    });
-                }
+            for (field, value, expected) in s.weather.out_of_range() {
+                problems.push(ValidationProblem::BadValue {
+                    subject: format!("scenario {:?}", s.name),
+                    field,
+                    value,
+                    expected,
+                });
             }
         }
         problems
