@@ -601,3 +601,32 @@ fn an_out_of_range_efficiency_is_kept_shown_validated_and_saved() {
         Some(vec![kept])
     );
 }
+
+#[test]
+fn a_scenario_edited_out_of_range_is_named_and_the_others_still_compared() {
+    let mut h = demo_harness();
+    let name = create_scenario(&mut h);
+    h.get_by_label("Temperature shift").focus();
+    h.run();
+    h.key_press_modifiers(Modifiers::COMMAND, Key::A);
+    h.get_by_label("Temperature shift").type_text("15");
+    h.run();
+    h.key_press(Key::Enter);
+    settle(&mut h);
+    // Kept in the scenario, with its reason at the field.
+    assert!((scenario(&h, &name).weather.temperature_shift_c - 15.0).abs() < 1e-12);
+    // The engine refuses it; the comparison names it and keeps the others.
+    let c = h
+        .state()
+        .computed
+        .as_ref()
+        .and_then(|c| c.comparison.clone())
+        .expect("comparison asked")
+        .expect("comparison made");
+    assert_eq!(c.failed.len(), 1);
+    assert_eq!(c.failed[0].0, name);
+    assert!(c.columns.iter().any(|col| col.name == "current"));
+    assert!(c.columns.iter().all(|col| col.name != name));
+    h.get_by_label_contains("This scenario cannot be computed");
+    h.get_by_label_contains(&format!("Scenario {name} cannot be computed"));
+}
