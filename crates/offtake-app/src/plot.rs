@@ -193,7 +193,8 @@ fn visible_slice(points: &[[f64; 2]], x_min: f64, x_max: f64) -> &[[f64; 2]] {
     }
 }
 
-fn csv_field(text: &str) -> String {
+/// A CSV field, quoted (RFC 4180) when it holds a comma, quote or newline.
+pub fn csv_field(text: &str) -> String {
     if text.contains([',', '"', '\n']) {
         format!("\"{}\"", text.replace('"', "\"\""))
     } else {
@@ -273,21 +274,10 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
         ui.label("Nothing to plot for this selection.");
         return;
     }
-    let mut reset = false;
-    let mut export_image = false;
-    ui.horizontal(|ui| {
-        reset = ui
-            .button("Reset zoom")
-            .on_hover_text("Back to the whole series (double-click the plot does the same)")
-            .clicked();
-        if ui.button("Export data (CSV)…").clicked() {
-            commands.push(Command::ExportPlotCsv {
-                file_name: format!("{}.csv", spec.id),
-                csv: plot_csv(spec),
-            });
-        }
-        export_image = ui.button("Export image (PNG)…").clicked();
-    });
+    let Toolbar {
+        reset,
+        export_image,
+    } = toolbar(ui, &spec.id, || plot_csv(spec), commands);
     let mut plot = Plot::new(&spec.id)
         .legend(Legend::default())
         .y_axis_label(spec.y_title.clone())
@@ -409,11 +399,57 @@ pub fn show(ui: &mut Ui, spec: &PlotSpec, commands: &mut Vec<Command>) {
             }
         })
     });
-    let rect = scope.response.rect;
+    drawn(ui, &spec.id, scope.response.rect, export_image, commands);
+}
+
+/// What the plot toolbar's buttons asked for this frame.
+#[derive(Debug, Clone, Copy, Default)]
+pub struct Toolbar {
+    /// Reset zoom and pan to the whole series.
+    pub reset: bool,
+    /// Save an image of the plot once it is drawn (see [`drawn`]).
+    pub export_image: bool,
+}
+
+/// The toolbar every plot carries: *Reset zoom*, *Export data (CSV)…*
+/// (`csv` is only built when clicked) and *Export image (PNG)…*. `id` names
+/// the exported files.
+pub fn toolbar(
+    ui: &mut Ui,
+    id: &str,
+    csv: impl FnOnce() -> String,
+    commands: &mut Vec<Command>,
+) -> Toolbar {
+    let mut out = Toolbar::default();
+    ui.horizontal(|ui| {
+        out.reset = ui
+            .button("Reset zoom")
+            .on_hover_text("Back to the whole series (double-click the plot does the same)")
+            .clicked();
+        if ui.button("Export data (CSV)…").clicked() {
+            commands.push(Command::ExportPlotCsv {
+                file_name: format!("{id}.csv"),
+                csv: csv(),
+            });
+        }
+        out.export_image = ui.button("Export image (PNG)…").clicked();
+    });
+    out
+}
+
+/// Records where a plot was drawn (`rect`: the plot with its axes) and, if
+/// the toolbar asked, requests its image.
+pub fn drawn(
+    ui: &mut Ui,
+    id: &str,
+    rect: egui::Rect,
+    export_image: bool,
+    commands: &mut Vec<Command>,
+) {
     ui.data_mut(|d| d.insert_temp(egui::Id::unique(LAST_PLOT_RECT), rect));
     if export_image {
         commands.push(Command::ExportPlotImage {
-            file_name: format!("{}.png", spec.id),
+            file_name: format!("{id}.png"),
             rect,
         });
     }

@@ -204,3 +204,138 @@ fn a_cancelled_or_unanswered_export_writes_nothing_and_says_so() {
     h.run();
     h.get_by_label("File dialogs are off");
 }
+
+/// Clicks the first `label` on screen.
+fn click_first(h: &mut Harness<'static, OfftakeApp>, label: &str) {
+    h.query_all_by_label(label)
+        .next()
+        .unwrap_or_else(|| panic!("no {label:?} on screen"))
+        .click();
+    h.run();
+}
+
+#[test]
+fn every_results_plot_carries_reset_and_both_exports() {
+    let mut h = capacity_tab(Harness::builder());
+    for tab in [
+        Tab::Weather,
+        Tab::CropCurves,
+        Tab::WaterBalance,
+        Tab::Demand,
+        Tab::CanalCapacity,
+        Tab::Rotation,
+        Tab::Compare,
+    ] {
+        h.get_by_label(tab.title()).click();
+        for _ in 0..2 {
+            let _ = h.run_ok();
+            h.state_mut().wait_for_recompute(Duration::from_mins(1));
+        }
+        h.run();
+        for button in ["Reset zoom", "Export data (CSV)…", "Export image (PNG)…"] {
+            assert!(
+                h.query_all_by_label(button).next().is_some(),
+                "{button} on the {} tab",
+                tab.title()
+            );
+        }
+    }
+}
+
+#[test]
+fn roster_and_comparison_plots_export_the_data_they_draw() {
+    let mut h = capacity_tab(Harness::builder());
+    let dir = tempfile::tempdir().expect("temp dir");
+
+    // Rotation: the design year's turns, one line each.
+    click_first(&mut h, Tab::Rotation.title());
+    let roster_file = dir.path().join("roster.csv");
+    h.state_mut().answer_next(&roster_file);
+    click_first(&mut h, "Export data (CSV)…");
+    let csv = std::fs::read_to_string(&roster_file).expect("roster csv");
+    let mut lines = csv.lines();
+    assert_eq!(
+        lines.next(),
+        Some("cycle,turn,canal_or_block,start,end,flow_ls,volume_m3")
+    );
+    let rows: Vec<&str> = lines.collect();
+    let head = headworks(&h);
+    let expected = {
+        let computed = h.state().computed.as_ref().expect("results");
+        let run = computed.engine.as_ref().expect("ran").as_ref().expect("ok");
+        let roster = run
+            .results
+            .supply
+            .as_ref()
+            .and_then(|s| s.roster.as_ref())
+            .expect("the demo's supply is short: a roster");
+        roster
+            .entries
+            .iter()
+            .filter(|e| head.design_year.contains(e.start.date()))
+            .map(|e| e.volume_m3)
+            .collect::<Vec<_>>()
+    };
+    assert_eq!(rows.len(), expected.len());
+    let volumes: Vec<f64> = rows
+        .iter()
+        .map(|r| {
+            r.rsplit(',')
+                .next()
+                .expect("volume")
+                .parse()
+                .expect("number")
+        })
+        .collect();
+    assert_eq!(volumes, expected);
+    // Units by name, as on screen.
+    assert!(rows.iter().any(|r| r.contains("Upper Distributary")));
+
+    // Compare: headworks volume per scenario and season.
+    click_first(&mut h, Tab::Compare.title());
+    for _ in 0..2 {
+        let _ = h.run_ok();
+        h.state_mut().wait_for_recompute(Duration::from_mins(1));
+    }
+    h.run();
+    let compare_file = dir.path().join("compare.csv");
+    h.state_mut().answer_next(&compare_file);
+    click_first(&mut h, "Export data (CSV)…");
+    let csv = std::fs::read_to_string(&compare_file).expect("compare csv");
+    let comparison = h
+        .state()
+        .computed
+        .as_ref()
+        .and_then(|c| c.comparison.clone())
+        .expect("asked")
+        .expect("computed");
+    let mut lines = csv.lines();
+    assert_eq!(
+        lines.next(),
+        Some("scenario,season,headworks_volume_mm3_per_year")
+    );
+    let mut n = 0;
+    for line in lines {
+        let f: Vec<&str> = line.split(',').collect();
+        let col = comparison
+            .columns
+            .iter()
+            .find(|c| c.name == f[0])
+            .expect("a scenario of the comparison");
+        let v = col
+            .season_volumes
+            .iter()
+            .find(|v| v.season == f[1])
+            .expect("its season");
+        let mm3: f64 = f[2].parse().expect("number");
+        assert!((mm3 - v.headworks_m3 / 1.0e6).abs() < 1e-9);
+        n += 1;
+    }
+    let expected_n: usize = comparison
+        .columns
+        .iter()
+        .map(|c| c.season_volumes.len())
+        .sum();
+    assert_eq!(n, expected_n);
+    assert!(n >= 6, "three scenarios, two seasons");
+}

@@ -226,7 +226,7 @@ impl CompareTab {
         ui.allocate_ui(
             egui::vec2(ui.available_width(), (h * 0.45).max(180.0)),
             |ui| {
-                grouped_bars(ui, c);
+                grouped_bars(ui, c, commands);
             },
         );
         ui.separator();
@@ -253,13 +253,32 @@ impl CompareTab {
     }
 }
 
+/// The grouped bars as CSV: headworks volume per scenario and season.
+fn bars_csv(c: &Comparison) -> String {
+    use std::fmt::Write as _;
+    let mut out = "scenario,season,headworks_volume_mm3_per_year\n".to_owned();
+    for s in &c.columns {
+        for v in &s.season_volumes {
+            let _ = writeln!(
+                out,
+                "{},{},{}",
+                crate::plot::csv_field(&s.name),
+                crate::plot::csv_field(&v.season),
+                v.headworks_m3 / 1.0e6
+            );
+        }
+    }
+    out
+}
+
 /// Headworks volume per season (Mm³/year), bars grouped by scenario.
-fn grouped_bars(ui: &mut Ui, c: &Comparison) {
+fn grouped_bars(ui: &mut Ui, c: &Comparison, commands: &mut Vec<Command>) {
+    let tb = crate::plot::toolbar(ui, "compare-volumes", || bars_csv(c), commands);
     let names: Vec<String> = c.columns.iter().map(|s| s.name.clone()).collect();
     let n_seasons = c.seasons.len().max(1) as f64;
     let width = 0.8 / n_seasons;
     let colours = Colours::for_ids(&c.seasons);
-    Plot::new("compare-bars")
+    let mut plot = Plot::new("compare-bars")
         .legend(Legend::default())
         .y_axis_label("Headworks volume (Mm³/year)")
         .x_axis_label("Scenario")
@@ -270,8 +289,12 @@ fn grouped_bars(ui: &mut Ui, c: &Comparison) {
             } else {
                 String::new()
             }
-        })
-        .show(ui, |plot_ui| {
+        });
+    if tb.reset {
+        plot = plot.reset();
+    }
+    let scope = ui.scope(|ui| {
+        plot.show(ui, |plot_ui| {
             for (k, season) in c.seasons.iter().enumerate() {
                 let offset = (k as f64 - (n_seasons - 1.0) / 2.0) * width;
                 let bars: Vec<Bar> = c
@@ -293,5 +316,13 @@ fn grouped_bars(ui: &mut Ui, c: &Comparison) {
                     BarChart::new(format!("{season} season"), bars).color(colours.of(season)),
                 );
             }
-        });
+        })
+    });
+    crate::plot::drawn(
+        ui,
+        "compare-volumes",
+        scope.response.rect,
+        tb.export_image,
+        commands,
+    );
 }

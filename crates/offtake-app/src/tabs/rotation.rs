@@ -47,7 +47,7 @@ fn entries_in<'a>(r: &Results, roster: &'a Roster, year: i32) -> Vec<&'a RosterE
 
 impl RotationTab {
     /// Draws the tab from the cached results.
-    pub fn ui(&mut self, ui: &mut Ui, view: &View<'_>, _commands: &mut Vec<Command>) {
+    pub fn ui(&mut self, ui: &mut Ui, view: &View<'_>, commands: &mut Vec<Command>) {
         let Some(project) = view.project else {
             no_project(
                 ui,
@@ -134,7 +134,7 @@ impl RotationTab {
         ui.allocate_ui(
             egui::vec2(ui.available_width(), (h * 0.55).max(180.0)),
             |ui| {
-                timeline(ui, &units, &entries);
+                timeline(ui, &units, &entries, year, commands);
             },
         );
         ui.separator();
@@ -160,10 +160,41 @@ fn unit_name(project: &Project, id: &str) -> String {
         .unwrap_or_else(|| id.to_owned())
 }
 
-fn timeline(ui: &mut Ui, units: &[String], entries: &[&RosterEntry]) {
+/// The roster of one year as CSV: one line per turn.
+fn roster_csv(units: &[String], entries: &[&RosterEntry]) -> String {
+    use std::fmt::Write as _;
+    let mut out = "cycle,turn,canal_or_block,start,end,flow_ls,volume_m3\n".to_owned();
+    for e in entries {
+        let unit = units
+            .get(e.unit)
+            .map_or(e.unit_name.as_str(), String::as_str);
+        let _ = writeln!(
+            out,
+            "{},{},{},{},{},{},{}",
+            e.cycle,
+            e.turn,
+            crate::plot::csv_field(unit),
+            e.start.format("%Y-%m-%d %H:%M"),
+            e.end.format("%Y-%m-%d %H:%M"),
+            e.flow_ls,
+            e.volume_m3
+        );
+    }
+    out
+}
+
+fn timeline(
+    ui: &mut Ui,
+    units: &[String],
+    entries: &[&RosterEntry],
+    year: i32,
+    commands: &mut Vec<Command>,
+) {
+    let id = format!("roster-{year}");
+    let tb = crate::plot::toolbar(ui, &id, || roster_csv(units, entries), commands);
     let names = units.to_vec();
     let colours = Colours::for_ids(units);
-    Plot::new("roster-timeline")
+    let mut plot = Plot::new("roster-timeline")
         .legend(Legend::default())
         .x_axis_label("Date")
         .y_axis_label("Canal or block")
@@ -175,8 +206,13 @@ fn timeline(ui: &mut Ui, units: &[String], entries: &[&RosterEntry]) {
             } else {
                 String::new()
             }
-        })
-        .show(ui, |plot_ui| {
+        });
+
+    if tb.reset {
+        plot = plot.reset();
+    }
+    let scope = ui.scope(|ui| {
+        plot.show(ui, |plot_ui| {
             for (u, name) in units.iter().enumerate() {
                 let bars: Vec<Bar> = entries
                     .iter()
@@ -204,7 +240,9 @@ fn timeline(ui: &mut Ui, units: &[String], entries: &[&RosterEntry]) {
                     );
                 }
             }
-        });
+        })
+    });
+    crate::plot::drawn(ui, &id, scope.response.rect, tb.export_image, commands);
 }
 
 fn turn_table(ui: &mut Ui, project: &Project, entries: &[&RosterEntry]) {
