@@ -308,6 +308,77 @@ pub fn date_free_month_day(
     FieldOutcome { committed, error }
 }
 
+/// A calendar beside a month-day field: *Pick on a calendar* opens a month
+/// chooser and the days of that month (of a common year: the planting
+/// window repeats every year, so 29 February is not offered). Returns the
+/// day clicked, if it differs from `stored`.
+pub fn month_day_calendar(
+    ui: &mut Ui,
+    id: Id,
+    label: &str,
+    stored: (u32, u32),
+) -> Option<(u32, u32)> {
+    let open_id = id.with("calendar-open");
+    let month_id = id.with("calendar-month");
+    let mut open = ui.data(|d| d.get_temp::<bool>(open_id)).unwrap_or(false);
+    let toggle = ui
+        .button(if open {
+            format!("Close the {label} calendar")
+        } else {
+            format!("Pick {label} on a calendar")
+        })
+        .clicked();
+    if toggle {
+        open = !open;
+        ui.data_mut(|d| d.insert_temp(month_id, stored.0));
+    }
+    let mut picked = None;
+    if open {
+        let mut month = ui
+            .data(|d| d.get_temp::<u32>(month_id))
+            .unwrap_or(stored.0)
+            .clamp(1, 12);
+        let name = |m: u32| {
+            chrono::NaiveDate::from_ymd_opt(2001, m, 1)
+                .map_or_else(String::new, |d| d.format("%B").to_string())
+        };
+        egui::Frame::group(ui.style()).show(ui, |ui| {
+            egui::ComboBox::new(month_id, "Month")
+                .selected_text(name(month))
+                .show_ui(ui, |ui| {
+                    for m in 1..=12 {
+                        ui.selectable_value(&mut month, m, name(m));
+                    }
+                });
+            // A common (non-leap) year: 2001.
+            let days = (1..=31)
+                .take_while(|&d| chrono::NaiveDate::from_ymd_opt(2001, month, d).is_some())
+                .count() as u32;
+            egui::Grid::new(id.with("calendar-days")).show(ui, |ui| {
+                for d in 1..=days {
+                    let selected = (month, d) == stored;
+                    if ui
+                        .selectable_label(selected, d.to_string())
+                        .on_hover_text(format!("{} {d}", name(month)))
+                        .clicked()
+                    {
+                        picked = Some((month, d));
+                    }
+                    if d % 7 == 0 {
+                        ui.end_row();
+                    }
+                }
+            });
+        });
+        ui.data_mut(|d| d.insert_temp(month_id, month));
+        if picked.is_some() {
+            open = false;
+        }
+    }
+    ui.data_mut(|d| d.insert_temp(open_id, open));
+    picked.filter(|md| *md != stored)
+}
+
 #[cfg(test)]
 mod month_day_tests {
     use super::parse_month_day;

@@ -456,7 +456,13 @@ fn planting_ui(
         "First planting",
         (p.first_planting.month, p.first_planting.day),
     );
-    if let Some((month, day)) = out.committed {
+    let picked = crate::fields::month_day_calendar(
+        ui,
+        fid(&p.id, "first"),
+        "first planting",
+        (p.first_planting.month, p.first_planting.day),
+    );
+    if let Some((month, day)) = out.committed.or(picked) {
         let mut n = p.clone();
         n.first_planting = MonthDay { month, day };
         commands.push(set_planting(n));

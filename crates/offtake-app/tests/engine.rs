@@ -367,3 +367,34 @@ fn switching_to_a_scenario_shows_its_design_flow_everywhere() {
     settle(&mut h);
     assert_eq!(h.state().project().expect("demo").scenarios.len(), n);
 }
+
+#[test]
+fn a_planting_date_picked_on_the_calendar_is_one_undoable_edit() {
+    let mut h = demo_harness();
+    let before = headworks_design_flow_ls(&h);
+    h.state_mut()
+        .push(Command::Select(Selection::Item(ItemRef::Planting(
+            "C1-rice".to_owned(),
+        ))));
+    h.run();
+    h.get_by_label("Pick first planting on a calendar").click();
+    h.run();
+    // Choose the month, then the day.
+    h.get_by_label("Month").click();
+    h.run();
+    h.query_all_by_label("March").last().expect("March").click();
+    h.run();
+    // March has 31 days in the calendar; February 28 (no leap day).
+    h.get_by_label("31");
+    h.query_all_by_label("1").last().expect("day 1").click();
+    settle(&mut h);
+    let p = h.state().project().expect("demo");
+    let rice = p.planting("C1-rice").expect("planting");
+    assert_eq!((rice.first_planting.month, rice.first_planting.day), (3, 1));
+    // The calendar closed, and the design flow moved as when typed.
+    h.get_by_label("Pick first planting on a calendar");
+    assert!((headworks_design_flow_ls(&h) - before).abs() > 1.0);
+    h.key_press_modifiers(Modifiers::COMMAND, Key::Z);
+    settle(&mut h);
+    assert!((headworks_design_flow_ls(&h) - before).abs() < 1e-9);
+}
