@@ -512,14 +512,17 @@ where
 /// (absolute paths are kept).
 pub fn weather_path(project_path: &Path, project: &Project) -> PathBuf {
     let p = Path::new(&project.weather.path);
-    if p.is_absolute() {
+    let joined = if p.is_absolute() {
         p.to_path_buf()
     } else {
         project_path
             .parent()
             .unwrap_or_else(|| Path::new(""))
             .join(p)
-    }
+    };
+    // The real path when the file exists, so messages name it without
+    // `dir/../` detours; as joined otherwise (the error then names it).
+    std::fs::canonicalize(&joined).unwrap_or(joined)
 }
 
 pub mod v0 {

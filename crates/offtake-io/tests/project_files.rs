@@ -329,10 +329,21 @@ fn a_save_failing_mid_write_leaves_the_old_file_intact() {
 fn weather_path_is_relative_to_the_project() {
     let p = load_project(&demo()).unwrap();
     let w = weather_path(&demo(), &p);
+    // Resolved from the project's folder (`../demo-weather/weather.csv`)
+    // to the file's real path.
+    assert!(w.is_absolute(), "{w:?}");
     assert!(
-        w.ends_with("demo-scheme/../demo-weather/weather.csv"),
+        w.ends_with("demo-projects/demo-weather/weather.csv"),
         "{w:?}"
     );
+    assert_eq!(
+        w,
+        std::fs::canonicalize(demo().parent().unwrap().join(&p.weather.path)).unwrap()
+    );
+    // A file that does not exist keeps the joined path, for the error to name.
+    let mut missing = p.clone();
+    missing.weather.path = "no-such.csv".into();
+    assert!(weather_path(&demo(), &missing).ends_with("demo-scheme/no-such.csv"));
 }
 
 /// Season lengths (days) for the demo check, from FAO-56 (Allen et al. 1998)

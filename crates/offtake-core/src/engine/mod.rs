@@ -379,8 +379,11 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     .map_err(|e| EngineError::WeatherFill(e.to_string()))?;
     if !repaired.rejected.is_empty() {
         warnings.push(format!(
-            "weather: {} days rejected by the ET0 checks and filled as gaps (first: {})",
-            repaired.rejected.len(),
+            "weather: {} rejected by the ET0 checks and filled as gaps (first: {})",
+            match repaired.rejected.len() {
+                1 => "1 day".to_owned(),
+                n => format!("{n} days"),
+            },
             repaired
                 .rejected
                 .iter()
