@@ -240,6 +240,10 @@ pub struct Network {
     upward_order: Vec<usize>,
     /// Commanded area below each canal (ha).
     canal_area_ha: Vec<f64>,
+    /// Canal index by id and block index by name: lookups stay O(1) in
+    /// schemes of thousands of blocks.
+    canal_by_id: HashMap<String, usize>,
+    block_by_name: HashMap<String, usize>,
 }
 
 impl Network {
@@ -389,6 +393,16 @@ impl Network {
                 canal_area_ha[p] += canal_area_ha[i];
             }
         }
+        let canal_by_id = canals
+            .iter()
+            .enumerate()
+            .map(|(i, c)| (c.id.clone(), i))
+            .collect();
+        let block_by_name = blocks
+            .iter()
+            .enumerate()
+            .map(|(i, b)| (b.name.clone(), i))
+            .collect();
         Ok(Self {
             canals,
             blocks,
@@ -396,6 +410,8 @@ impl Network {
             block_canal,
             upward_order,
             canal_area_ha,
+            canal_by_id,
+            block_by_name,
         })
     }
 
@@ -411,12 +427,12 @@ impl Network {
 
     /// Index of a canal by its identifier.
     pub fn canal_index(&self, id: &str) -> Option<usize> {
-        self.canals.iter().position(|c| c.id == id)
+        self.canal_by_id.get(id).copied()
     }
 
     /// Index of a block by its name.
     pub fn block_index(&self, name: &str) -> Option<usize> {
-        self.blocks.iter().position(|b| b.name == name)
+        self.block_by_name.get(name).copied()
     }
 
     /// Parent canal index of canal `canal` (`None` for a main canal).
