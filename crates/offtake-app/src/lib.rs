@@ -41,8 +41,8 @@
 //!
 //! ## Measured (release build, 2-core shared machine, demo scheme, 25 years)
 //! Both with `cargo test --release -p offtake-app --test frame_time -- --ignored --nocapture`:
-//! - Recompute after an edit (a planting date): 45–85 ms of worker wall
-//!   time over three runs of six edits; the engine is nearly all of it.
+//! - Recompute after an edit (a planting date): 31–85 ms of worker wall
+//!   time over four runs of six edits; the engine is nearly all of it.
 //! - Panning the 9131-day headworks hydrograph: 0.7–1.1 ms mean egui CPU
 //!   time per frame (UI code and tessellation, no renderer), 95th
 //!   percentile 0.7–4.9 ms, worst frame 4.8–8.8 ms.
