@@ -487,6 +487,26 @@ fn problems_only_under_a_scenario_are_attributed_to_it() {
 }
 
 #[test]
+fn a_station_left_at_the_new_project_values_is_reported() {
+    let mut p = fixture();
+    p.weather.path = "w.csv".into();
+    p.weather.latitude_deg = 0.0;
+    p.weather.elevation_m = 0.0;
+    assert!(
+        p.validate(&ctx())
+            .iter()
+            .any(|q| matches!(q, ValidationProblem::StationNotEntered))
+    );
+    // Either value entered: a real station may sit on the equator or at sea level.
+    p.weather.elevation_m = 12.0;
+    assert!(
+        !p.validate(&ctx())
+            .iter()
+            .any(|q| matches!(q, ValidationProblem::StationNotEntered))
+    );
+}
+
+#[test]
 fn weather_changes_outside_their_ranges_are_reported_with_the_range() {
     let mut p = fixture();
     p.scenarios[0].weather = WeatherPerturbation {

@@ -262,6 +262,12 @@ pub enum ValidationProblem {
     /// The weather import settings contradict themselves.
     #[error("{0}")]
     WeatherImport(ImportSettingsProblem),
+    /// The station is still at latitude 0° and elevation 0 m, the values of a
+    /// new project: almost certainly not entered yet.
+    #[error(
+        "weather: station latitude 0° and elevation 0 m are the values of a new project; enter the station's (they set Ra, day length and the psychrometric constant of ET₀)"
+    )]
+    StationNotEntered,
     /// The import mapping's wind column states a measurement height other
     /// than the weather source's `wind_height_m`.
     #[error(
@@ -647,6 +653,9 @@ impl Project {
             });
         }
         check_positive("weather", "wind_height_m", w.wind_height_m, out);
+        if w.latitude_deg == 0.0 && w.elevation_m == 0.0 && !w.path.trim().is_empty() {
+            out.push(ValidationProblem::StationNotEntered);
+        }
         if let Some(import) = &w.import {
             out.extend(
                 import
