@@ -401,6 +401,8 @@ pub fn fresh_id(doc: &Project, prefix: &str) -> String {
 pub const NEW_CANAL_CONVEYANCE_EFFICIENCY: f64 = 0.9;
 /// Typical field-canal efficiency of a new block (same source and caveat).
 pub const NEW_BLOCK_FIELD_CANAL_EFFICIENCY: f64 = 0.8;
+/// Irrigation method name of a new block, until the user names its own.
+pub const NEW_BLOCK_METHOD: &str = "Surface (typical values)";
 /// Typical application efficiency of surface irrigation for a new block
 /// (from memory of Brouwer et al. 1989, FAO Irrigation Water Management
 /// Training Manual 4: surface 60 %, sprinkler 75 %, drip 90 %).
@@ -444,7 +446,7 @@ pub fn new_block(doc: &Project, canal: &str) -> Block {
         area_ha: 0.0,
         soil: String::new(),
         method: IrrigationMethod {
-            name: "Surface (typical values)".to_owned(),
+            name: NEW_BLOCK_METHOD.to_owned(),
             application_efficiency: NEW_BLOCK_APPLICATION_EFFICIENCY,
         },
         field_canal_efficiency: NEW_BLOCK_FIELD_CANAL_EFFICIENCY,

@@ -376,6 +376,19 @@ fn block_ui(ui: &mut Ui, doc: &Project, b: &Block, ctx: &Context<'_>, commands: 
         commands.push(set_block(n));
     }
     ui.label(RichText::new("Block GIR = NIR ÷ (Ea × Eb).").weak());
+    if b.method.name == crate::edit::NEW_BLOCK_METHOD
+        && b.method.application_efficiency == crate::edit::NEW_BLOCK_APPLICATION_EFFICIENCY
+        && b.field_canal_efficiency == crate::edit::NEW_BLOCK_FIELD_CANAL_EFFICIENCY
+    {
+        ui.label(
+            RichText::new(
+                "Ea 60 % and Eb 80 % are typical starting values for surface irrigation \
+                 (common practice; Ea after FAO Irrigation Water Management Training Manual 4, \
+                 Brouwer et al. 1989, from memory): replace them with the block's own.",
+            )
+            .color(ui.visuals().warn_fg_color),
+        );
+    }
 }
 
 fn set_planting(p: Planting) -> Command {

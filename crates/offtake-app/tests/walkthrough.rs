@@ -118,7 +118,14 @@ fn add_block(h: &mut H, canal: &str, area: &str, crop: &str, date: &str) {
     context(h, canal, "Add block");
     type_into(h, "Area", area);
     pick(h, "Soil", "Loam");
+    // A new block starts at typical surface-irrigation efficiencies, said so.
+    h.get_by_label_contains("typical starting values for surface irrigation");
     type_into(h, "Application efficiency Ea", "55");
+    assert!(
+        h.query_all_by_label_contains("typical starting values")
+            .next()
+            .is_none()
+    );
     let block = project(h).blocks.last().expect("new block").clone();
     assert!((block.method.application_efficiency - 0.55).abs() < 1e-12);
     context(h, &format!("{} — {} ha", block.name, area), "Add planting");
