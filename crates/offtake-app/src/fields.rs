@@ -90,9 +90,10 @@ pub fn format_number(v: f64, decimals: usize) -> String {
     }
 }
 
-/// A number rounded to `sig` significant figures, without exponent or
-/// trailing zeros after the point (5575 → "5580", 1.9163 → "1.92",
-/// 0.0412 → "0.0412"). Non-finite values show as "—".
+/// A number to `sig` significant figures, without exponent, keeping the
+/// trailing zeros that are significant so a column reads alike (5575 →
+/// "5580", 1.9163 → "1.92", 32.0 → "32.0", 0.0412 → "0.0412"). Non-finite
+/// values show as "—".
 pub fn format_sig(v: f64, sig: i32) -> String {
     if !v.is_finite() {
         return "—".to_owned();
@@ -101,10 +102,12 @@ pub fn format_sig(v: f64, sig: i32) -> String {
         return "0".to_owned();
     }
     let magnitude = v.abs().log10().floor() as i32;
-    let decimals = (sig - 1 - magnitude).max(0);
     let factor = 10f64.powi(sig - 1 - magnitude);
     let rounded = (v * factor).round() / factor;
-    format_number(rounded, decimals as usize)
+    // Rounding may add a digit (99.96 → 100.0 at 3 figures → "100").
+    let magnitude = rounded.abs().log10().floor() as i32;
+    let decimals = usize::try_from((sig - 1 - magnitude).max(0)).unwrap_or(0);
+    format!("{rounded:.decimals$}")
 }
 
 /// Parses what the user typed as a number in display units.
@@ -241,6 +244,10 @@ mod tests {
         assert_eq!(format_sig(120.04, 3), "120");
         assert_eq!(format_sig(0.0, 3), "0");
         assert_eq!(format_sig(f64::NAN, 3), "—");
+        assert_eq!(format_sig(32.0, 3), "32.0");
+        assert_eq!(format_sig(99.96, 3), "100");
+        assert_eq!(format_sig(1.5, 3), "1.50");
+        assert_eq!(format_sig(-0.5, 2), "-0.50");
     }
 
     #[test]
