@@ -154,6 +154,65 @@ fn demo_runs_end_to_end_with_finite_values_and_conserves_water() {
     );
 }
 
+/// The engine adds block series to the scheme demand in chunks of blocks;
+/// a scheme of six copies of the demo's blocks (96 blocks, more than one
+/// chunk) gives every copy exactly its original's series, and the
+/// headworks still equals Σ block GIR ÷ Π Ec every day.
+#[test]
+fn blocks_computed_in_chunks_keep_their_own_series() {
+    let (demo_project, libs, weather) = demo();
+    let mut big = demo_project.clone();
+    big.scenarios.clear();
+    big.options.available_supply = None;
+    for copy in 1..6 {
+        for b in &demo_project.blocks {
+            let mut nb = b.clone();
+            nb.id = format!("{}-copy{copy}", b.id);
+            nb.name = format!("{} copy {copy}", b.name);
+            big.blocks.push(nb);
+        }
+        for p in &demo_project.plantings {
+            let mut np = p.clone();
+            np.id = format!("{}-copy{copy}", p.id);
+            np.block = format!("{}-copy{copy}", p.block);
+            big.plantings.push(np);
+        }
+    }
+    assert!(big.blocks.len() > 64);
+    let r = engine::run_scenario(&big, None, &libs.crops, &libs.soils, &weather).expect("runs");
+    let net = r.demand.network();
+    for b in &demo_project.blocks {
+        let original = r.demand.block_gir_m3_day(net.block_index(&b.id).unwrap());
+        for copy in 1..6 {
+            let id = format!("{}-copy{copy}", b.id);
+            assert_eq!(
+                r.demand.block_gir_m3_day(net.block_index(&id).unwrap()),
+                original,
+                "{id}"
+            );
+            assert_eq!(
+                r.demand.block_nir_m3_day(net.block_index(&id).unwrap()),
+                r.demand.block_nir_m3_day(net.block_index(&b.id).unwrap()),
+            );
+        }
+    }
+    let head_m3 = r.demand.demand_m3_day(Node::Headworks);
+    for (day, &h) in head_m3.iter().enumerate() {
+        let sum: f64 = big
+            .blocks
+            .iter()
+            .map(|b| {
+                let k = 1.0 / big.conveyance_to_headworks(&b.id).unwrap();
+                r.demand.block_gir_m3_day(net.block_index(&b.id).unwrap())[day] * k
+            })
+            .sum();
+        assert!(
+            (h - sum).abs() <= 1e-9 * sum.max(1.0),
+            "day {day}: headworks {h} vs blocks {sum}"
+        );
+    }
+}
+
 #[test]
 fn shifting_rice_to_maize_lowers_the_headworks_volume() {
     let (project, libs, weather) = demo();

@@ -441,7 +441,7 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
 
     let t1 = Instant::now();
     let keep_daily = project.options.available_supply.is_some();
-    let computed = plantings::compute_plantings(
+    let mut computed = plantings::compute_plantings(
         project,
         input.crops,
         input.soils,
@@ -454,8 +454,10 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     let t_plantings = t1.elapsed();
 
     let t2 = Instant::now();
-    let demand = SchemeDemand::compute(&network, weather.start, weather.days(), &computed.series)?;
-    drop(computed.series);
+    let demand = match computed.demand.take() {
+        Some(d) => d?,
+        None => SchemeDemand::compute(&network, weather.start, weather.days(), &[])?,
+    };
     let design = scheme::design_values(&demand, &options)?;
     let storage = match &project.reservoir {
         Some(r) => Some(storage::reservoir_losses(r, &weather, &complete_years)?),

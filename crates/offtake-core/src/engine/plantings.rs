@@ -17,7 +17,7 @@ use crate::calendar::IrrigationYear;
 use crate::crop::Crop;
 use crate::planting::CoefficientMode;
 use crate::project::Project;
-use crate::scheme::{Network, NirSeries, Node};
+use crate::scheme::{DemandAccumulator, Network, NirSeries, Node, SchemeDemand, SchemeError};
 use crate::soil::Soil;
 use crate::units::depth_mm_over_area_ha_to_m3;
 
@@ -59,8 +59,9 @@ pub struct PlantingSummary {
 /// Plantings computed for the scheme.
 #[derive(Debug, Clone, Default)]
 pub struct ComputedPlantings {
-    /// NIR series per block and crop (m³/day).
-    pub series: Vec<NirSeries>,
+    /// The demand of the scheme, built from the NIR series per block and
+    /// crop (m³/day) as each chunk of blocks is computed.
+    pub demand: Option<Result<SchemeDemand, SchemeError>>,
     /// One summary per planting, in project order.
     pub summaries: Vec<PlantingSummary>,
     /// Daily NIR per hectare of each planting (mm/day), in project order,
@@ -69,6 +70,9 @@ pub struct ComputedPlantings {
     /// Warnings.
     pub warnings: Vec<String>,
 }
+
+/// Blocks computed together before their series are added to the demand.
+const BLOCKS_PER_CHUNK: usize = 64;
 
 /// Index range of the complete irrigation years in the record.
 pub fn complete_range(w: &PreparedWeather, years: &[IrrigationYear]) -> std::ops::Range<usize> {
@@ -223,86 +227,96 @@ pub fn compute_plantings(
         }
     }
 
-    let per_block: Vec<Result<BlockOut, EngineError>> = by_block
-        .par_iter()
-        .filter(|jobs| !jobs.is_empty())
-        .map(|jobs| {
-            let mut series: Vec<NirSeries> = Vec::new();
-            let mut summaries = Vec::with_capacity(jobs.len());
-            for job in jobs {
-                let p = &project.plantings[job.index];
-                let block_id = &project.blocks[job.block].id;
-                let outcome = &outcomes[job.distinct];
-                let nir_mm_year: f64 = outcome.nir_mm[range.clone()].iter().sum::<f64>() / n_years;
-                let nir_m3_per_year = depth_mm_over_area_ha_to_m3(nir_mm_year, job.area_ha);
-                // Blocks are named by id in the network (see `network_of`).
-                let block_ea = project.blocks[job.block].method.application_efficiency;
-                let ea = job.ea_override.unwrap_or(block_ea);
-                let factor = network
-                    .block_index(block_id)
-                    .and_then(|b| network.block_factor_with_efficiency(b, Node::Headworks, ea))
-                    .unwrap_or(0.0);
-                // One series per crop and efficiency override.
-                let target = if let Some(s) = series
-                    .iter_mut()
-                    .find(|s| s.crop == p.crop && s.application_efficiency == job.ea_override)
-                {
-                    s
-                } else {
-                    series.push(NirSeries {
-                        block: block_id.clone(),
-                        crop: p.crop.clone(),
-                        nir_m3_day: vec![0.0; w.days()],
-                        application_efficiency: job.ea_override,
-                    });
-                    series.last_mut().ok_or_else(|| EngineError::Planting {
-                        planting: p.id.clone(),
-                        cause: "internal: series list empty".into(),
-                    })?
-                };
-                for (acc, &mm) in target.nir_m3_day.iter_mut().zip(&outcome.nir_mm) {
-                    *acc += depth_mm_over_area_ha_to_m3(mm, job.area_ha);
-                }
-                summaries.push((
-                    job.index,
-                    PlantingSummary {
-                        id: p.id.clone(),
-                        block: block_id.clone(),
-                        crop: p.crop.clone(),
-                        season: p.season.clone(),
-                        area_ha: job.area_ha,
-                        nir_m3_per_year,
-                        headworks_m3_per_year: nir_m3_per_year * factor,
-                        application_efficiency: ea,
-                        seasons: outcome.seasons.clone(),
-                        seasons_excluded: outcome.seasons_excluded,
-                        raw_and_etc: raw_and_peak_etc(
-                            distinct[job.distinct].crop,
-                            job.soil,
-                            p,
-                            outcome.peak_etc_10day_mm_day,
-                        ),
-                        is_paddy: job.ea_override.is_some(),
-                    },
-                    if keep_daily {
-                        outcome.nir_mm.clone()
-                    } else {
-                        Vec::new()
-                    },
-                ));
+    let block_out = |jobs: &Vec<Job<'_>>| -> Result<BlockOut, EngineError> {
+        let mut series: Vec<NirSeries> = Vec::new();
+        let mut summaries = Vec::with_capacity(jobs.len());
+        for job in jobs {
+            let p = &project.plantings[job.index];
+            let block_id = &project.blocks[job.block].id;
+            let outcome = &outcomes[job.distinct];
+            let nir_mm_year: f64 = outcome.nir_mm[range.clone()].iter().sum::<f64>() / n_years;
+            let nir_m3_per_year = depth_mm_over_area_ha_to_m3(nir_mm_year, job.area_ha);
+            // Blocks are named by id in the network (see `network_of`).
+            let block_ea = project.blocks[job.block].method.application_efficiency;
+            let ea = job.ea_override.unwrap_or(block_ea);
+            let factor = network
+                .block_index(block_id)
+                .and_then(|b| network.block_factor_with_efficiency(b, Node::Headworks, ea))
+                .unwrap_or(0.0);
+            // One series per crop and efficiency override.
+            let target = if let Some(s) = series
+                .iter_mut()
+                .find(|s| s.crop == p.crop && s.application_efficiency == job.ea_override)
+            {
+                s
+            } else {
+                series.push(NirSeries {
+                    block: block_id.clone(),
+                    crop: p.crop.clone(),
+                    nir_m3_day: vec![0.0; w.days()],
+                    application_efficiency: job.ea_override,
+                });
+                series.last_mut().ok_or_else(|| EngineError::Planting {
+                    planting: p.id.clone(),
+                    cause: "internal: series list empty".into(),
+                })?
+            };
+            for (acc, &mm) in target.nir_m3_day.iter_mut().zip(&outcome.nir_mm) {
+                *acc += depth_mm_over_area_ha_to_m3(mm, job.area_ha);
             }
-            Ok((series, summaries))
-        })
-        .collect();
+            summaries.push((
+                job.index,
+                PlantingSummary {
+                    id: p.id.clone(),
+                    block: block_id.clone(),
+                    crop: p.crop.clone(),
+                    season: p.season.clone(),
+                    area_ha: job.area_ha,
+                    nir_m3_per_year,
+                    headworks_m3_per_year: nir_m3_per_year * factor,
+                    application_efficiency: ea,
+                    seasons: outcome.seasons.clone(),
+                    seasons_excluded: outcome.seasons_excluded,
+                    raw_and_etc: raw_and_peak_etc(
+                        distinct[job.distinct].crop,
+                        job.soil,
+                        p,
+                        outcome.peak_etc_10day_mm_day,
+                    ),
+                    is_paddy: job.ea_override.is_some(),
+                },
+                if keep_daily {
+                    outcome.nir_mm.clone()
+                } else {
+                    Vec::new()
+                },
+            ));
+        }
+        Ok((series, summaries))
+    };
 
     let mut out = ComputedPlantings::default();
     out.warnings.append(&mut warnings);
     let mut indexed = Vec::with_capacity(project.plantings.len());
-    for r in per_block {
-        let (series, summaries) = r?;
-        out.series.extend(series);
-        indexed.extend(summaries);
+    // Blocks in chunks, in order: each chunk's series are added to the
+    // demand and dropped before the next chunk, so the memory peak is one
+    // chunk of series rather than every planting's.
+    let mut demand = DemandAccumulator::new(network, w.start, w.days());
+    for chunk in by_block.chunks(BLOCKS_PER_CHUNK) {
+        let per_block: Vec<Result<BlockOut, EngineError>> = chunk
+            .par_iter()
+            .filter(|jobs| !jobs.is_empty())
+            .map(block_out)
+            .collect();
+        for r in per_block {
+            let (series, summaries) = r?;
+            for s in &series {
+                demand.add(s);
+            }
+            indexed.extend(summaries);
+        }
     }
+    out.demand = Some(demand.finish());
     indexed.sort_by_key(|(i, _, _)| *i);
     let mut excluded = 0;
     for (_, s, d) in indexed {

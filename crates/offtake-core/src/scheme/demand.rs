@@ -193,108 +193,146 @@ pub struct SchemeDemand {
     node_crop_m3_day: Vec<f64>,
 }
 
-impl SchemeDemand {
-    /// Computes the demand at every node from the NIR series of the plantings.
-    ///
-    /// `days` is the length of every series, counted from `start`.
+/// Builds a [`SchemeDemand`] one NIR series at a time, so a caller can
+/// drop each series once added instead of holding every planting's series
+/// at once (the memory peak of large schemes). Adding the series in the
+/// same order as [`SchemeDemand::compute`] gives the same result, bit for
+/// bit.
+#[derive(Debug)]
+pub struct DemandAccumulator {
+    network: Network,
+    start: NaiveDate,
+    days: usize,
+    crops: Vec<String>,
+    block_nir_m3_day: Vec<f64>,
+    block_gir_m3_day: Vec<f64>,
+    /// GIR at the canal each block takes from, per crop (`[crop][canal × days]`).
+    canal_crop_m3_day: Vec<Vec<f64>>,
+    problems: Vec<NetworkProblem>,
+}
+
+impl DemandAccumulator {
+    /// An empty accumulator for series of `days` days from `start`.
+    pub fn new(network: &Network, start: NaiveDate, days: usize) -> Self {
+        let n_blocks = network.blocks().len();
+        Self {
+            network: network.clone(),
+            start,
+            days,
+            crops: Vec::new(),
+            block_nir_m3_day: vec![0.0; n_blocks * days],
+            block_gir_m3_day: vec![0.0; n_blocks * days],
+            canal_crop_m3_day: Vec::new(),
+            problems: Vec::new(),
+        }
+    }
+
+    /// Adds one series: its NIR to its block, its GIR = NIR ÷ (Ea × Eb)
+    /// (with the series' Ea where it overrides the block's) to the block and
+    /// to the (canal, crop) row of the canal the block takes from. A series
+    /// with a problem is recorded for [`Self::finish`] and not added.
+    pub fn add(&mut self, s: &NirSeries) {
+        let days = self.days;
+        let block = self.network.block_index(&s.block);
+        if block.is_none() {
+            self.problems.push(NetworkProblem::SeriesOnMissingBlock {
+                block: s.block.clone(),
+            });
+        }
+        if s.nir_m3_day.len() != days {
+            self.problems.push(NetworkProblem::SeriesLength {
+                block: s.block.clone(),
+                crop: s.crop.clone(),
+                expected: days,
+                found: s.nir_m3_day.len(),
+            });
+        }
+        if let Some((day, &value)) = s
+            .nir_m3_day
+            .iter()
+            .enumerate()
+            .find(|(_, v)| !(v.is_finite() && **v >= 0.0))
+        {
+            self.problems.push(NetworkProblem::BadRequirement {
+                block: s.block.clone(),
+                crop: s.crop.clone(),
+                day,
+                value,
+            });
+        }
+        if let Some(ea) = s.application_efficiency
+            && !(ea.is_finite() && ea > 0.0 && ea <= 1.0)
+        {
+            self.problems.push(NetworkProblem::EfficiencyOutOfRange {
+                kind: "Ea",
+                item: format!("{} ({})", s.block, s.crop),
+                value: ea,
+            });
+        }
+        let n_canals = self.network.canals().len();
+        let c = if let Some(i) = self.crops.iter().position(|c| *c == s.crop) {
+            i
+        } else {
+            self.crops.push(s.crop.clone());
+            self.canal_crop_m3_day.push(vec![0.0; n_canals * days]);
+            self.crops.len() - 1
+        };
+        let Some(b) = block else {
+            return;
+        };
+        if !self.problems.is_empty() {
+            // Nothing is computed once a problem is known: finish() fails.
+            return;
+        }
+        let blk = &self.network.blocks()[b];
+        let ea = s
+            .application_efficiency
+            .unwrap_or(blk.application_efficiency);
+        let to_gir = 1.0 / (ea * blk.field_canal_efficiency);
+        let canal = self.network.block_canal(b);
+        let block_row = &mut self.block_nir_m3_day[b * days..(b + 1) * days];
+        let block_gir_row = &mut self.block_gir_m3_day[b * days..(b + 1) * days];
+        let node_row = &mut self.canal_crop_m3_day[c][canal * days..(canal + 1) * days];
+        for (((nir_acc, block_gir_acc), gir_acc), &v) in block_row
+            .iter_mut()
+            .zip(block_gir_row.iter_mut())
+            .zip(node_row.iter_mut())
+            .zip(&s.nir_m3_day)
+        {
+            *nir_acc += v;
+            *block_gir_acc += v * to_gir;
+            *gir_acc += v * to_gir;
+        }
+    }
+
+    /// Carries the canal sums up the tree (children first, each divided by
+    /// its conveyance efficiency Ec) to the headworks.
     ///
     /// # Errors
-    /// [`SchemeError::Invalid`] listing every series on a missing block,
-    /// every series of the wrong length, every negative or non-finite value
-    /// (the first bad day of each series) and every efficiency override
-    /// outside (0, 1].
-    pub fn compute(
-        network: &Network,
-        start: NaiveDate,
-        days: usize,
-        nir: &[NirSeries],
-    ) -> Result<Self, SchemeError> {
-        let mut problems = Vec::new();
-        let mut series_block = Vec::with_capacity(nir.len());
-        let mut crops: Vec<String> = Vec::new();
-        let mut series_crop = Vec::with_capacity(nir.len());
-        for s in nir {
-            if let Some(b) = network.block_index(&s.block) {
-                series_block.push(b);
-            } else {
-                series_block.push(usize::MAX);
-                problems.push(NetworkProblem::SeriesOnMissingBlock {
-                    block: s.block.clone(),
-                });
-            }
-            if s.nir_m3_day.len() != days {
-                problems.push(NetworkProblem::SeriesLength {
-                    block: s.block.clone(),
-                    crop: s.crop.clone(),
-                    expected: days,
-                    found: s.nir_m3_day.len(),
-                });
-            }
-            if let Some((day, &value)) = s
-                .nir_m3_day
-                .iter()
-                .enumerate()
-                .find(|(_, v)| !(v.is_finite() && **v >= 0.0))
-            {
-                problems.push(NetworkProblem::BadRequirement {
-                    block: s.block.clone(),
-                    crop: s.crop.clone(),
-                    day,
-                    value,
-                });
-            }
-            if let Some(ea) = s.application_efficiency
-                && !(ea.is_finite() && ea > 0.0 && ea <= 1.0)
-            {
-                problems.push(NetworkProblem::EfficiencyOutOfRange {
-                    kind: "Ea",
-                    item: format!("{} ({})", s.block, s.crop),
-                    value: ea,
-                });
-            }
-            let ci = if let Some(i) = crops.iter().position(|c| *c == s.crop) {
-                i
-            } else {
-                crops.push(s.crop.clone());
-                crops.len() - 1
-            };
-            series_crop.push(ci);
+    /// [`SchemeError::Invalid`] with every problem found while adding.
+    pub fn finish(self) -> Result<SchemeDemand, SchemeError> {
+        if !self.problems.is_empty() {
+            return Err(SchemeError::Invalid(self.problems));
         }
-        if !problems.is_empty() {
-            return Err(SchemeError::Invalid(problems));
-        }
-
-        let n_blocks = network.blocks().len();
+        let Self {
+            network,
+            start,
+            days,
+            crops,
+            block_nir_m3_day,
+            block_gir_m3_day,
+            canal_crop_m3_day,
+            ..
+        } = self;
         let n_canals = network.canals().len();
         let n_nodes = n_canals + 1;
         let n_crops = crops.len();
-        let mut block_nir_m3_day = vec![0.0; n_blocks * days];
-        let mut block_gir_m3_day = vec![0.0; n_blocks * days];
         let mut node_crop_m3_day = vec![0.0; n_nodes * n_crops * days];
-
-        // Blocks: NIR into the block rows; GIR = NIR ÷ (Ea × Eb), with the
-        // series' Ea where it overrides the block's, into the block's GIR
-        // row and the (canal, crop) row of the canal the block takes from.
-        for ((s, &b), &c) in nir.iter().zip(&series_block).zip(&series_crop) {
-            let block = &network.blocks()[b];
-            let ea = s
-                .application_efficiency
-                .unwrap_or(block.application_efficiency);
-            let to_gir = 1.0 / (ea * block.field_canal_efficiency);
-            let canal = network.block_canal(b);
-            let at = (canal * n_crops + c) * days;
-            let block_row = &mut block_nir_m3_day[b * days..(b + 1) * days];
-            let block_gir_row = &mut block_gir_m3_day[b * days..(b + 1) * days];
-            let node_row = &mut node_crop_m3_day[at..at + days];
-            for (((nir_acc, block_gir_acc), gir_acc), &v) in block_row
-                .iter_mut()
-                .zip(block_gir_row.iter_mut())
-                .zip(node_row.iter_mut())
-                .zip(&s.nir_m3_day)
-            {
-                *nir_acc += v;
-                *block_gir_acc += v * to_gir;
-                *gir_acc += v * to_gir;
+        for (c, rows) in canal_crop_m3_day.into_iter().enumerate() {
+            for canal in 0..n_canals {
+                let at = (canal * n_crops + c) * days;
+                node_crop_m3_day[at..at + days]
+                    .copy_from_slice(&rows[canal * days..(canal + 1) * days]);
             }
         }
         // Canals, children first: divide the sum at the canal by its Ec, then
@@ -329,8 +367,8 @@ impl SchemeDemand {
                 }
             }
         }
-        Ok(Self {
-            network: network.clone(),
+        Ok(SchemeDemand {
+            network,
             start,
             days,
             crops,
@@ -339,6 +377,31 @@ impl SchemeDemand {
             node_m3_day,
             node_crop_m3_day,
         })
+    }
+}
+
+impl SchemeDemand {
+    /// Computes the demand at every node from the NIR series of the plantings.
+    ///
+    /// `days` is the length of every series, counted from `start`. The same
+    /// as adding each series to a [`DemandAccumulator`] and finishing it.
+    ///
+    /// # Errors
+    /// [`SchemeError::Invalid`] listing every series on a missing block,
+    /// every series of the wrong length, every negative or non-finite value
+    /// (the first bad day of each series) and every efficiency override
+    /// outside (0, 1].
+    pub fn compute(
+        network: &Network,
+        start: NaiveDate,
+        days: usize,
+        nir: &[NirSeries],
+    ) -> Result<Self, SchemeError> {
+        let mut acc = DemandAccumulator::new(network, start, days);
+        for s in nir {
+            acc.add(s);
+        }
+        acc.finish()
     }
 
     /// The network the demand was computed on.

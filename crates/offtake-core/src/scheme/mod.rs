@@ -18,7 +18,8 @@ pub mod network;
 use std::fmt;
 
 pub use demand::{
-    NirSeries, PeriodDemand, PeriodStep, SchemeDemand, aggregate_periods, storage_losses_m3_day,
+    DemandAccumulator, NirSeries, PeriodDemand, PeriodStep, SchemeDemand, aggregate_periods,
+    storage_losses_m3_day,
 };
 pub use design::{
     BasisShortfallPeriod, DesignBasis, DesignOptions, NodeDesign, Shortfall, ShortfallDay,
