@@ -121,10 +121,18 @@ pub fn ui(
             scheme_ui(ui, doc, commands);
             if !ctx.problems.is_empty() {
                 ui.separator();
-                ui.label(RichText::new(format!("Data warnings ({})", ctx.problems.len())).strong());
-                for p in ctx.problems {
-                    ui.label(RichText::new(p).color(ui.visuals().warn_fg_color));
-                }
+                // Open while short; a long list starts folded so the scheme's
+                // fields stay in view (the status bar keeps the count).
+                egui::CollapsingHeader::new(
+                    RichText::new(format!("Data warnings ({})", ctx.problems.len())).strong(),
+                )
+                .id_salt("data-warnings")
+                .default_open(ctx.problems.len() <= 6)
+                .show(ui, |ui| {
+                    for p in ctx.problems {
+                        ui.label(RichText::new(p).color(ui.visuals().warn_fg_color));
+                    }
+                });
             }
         }
         Selection::Weather => weather_ui(ui, doc, commands),

@@ -398,3 +398,23 @@ fn a_planting_date_picked_on_the_calendar_is_one_undoable_edit() {
     settle(&mut h);
     assert!((headworks_design_flow_ls(&h) - before).abs() < 1e-9);
 }
+
+#[test]
+fn a_long_list_of_data_warnings_starts_folded_under_its_count() {
+    let mut h = demo_harness();
+    h.state_mut().push(Command::Select(Selection::Scheme));
+    h.run();
+    let n = h.state().computed.as_ref().expect("results").warnings.len();
+    assert!(n > 6, "the demo has {n} warnings");
+    let header = format!("Data warnings ({n})");
+    h.get_by_label(&header);
+    assert!(
+        h.query_all_by_label_contains("rain missing on 4 days")
+            .next()
+            .is_none(),
+        "folded"
+    );
+    h.get_by_label(&header).click();
+    h.run();
+    h.get_by_label_contains("rain missing on 4 days");
+}
