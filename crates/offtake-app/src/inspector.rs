@@ -16,6 +16,9 @@ use crate::command::{Command, ItemRef, Selection};
 use crate::edit::DocEdit;
 use crate::fields::{Bounds, date_free_month_day, name_field, number_field};
 
+/// Temporary-memory key the status bar sets to unfold the data warnings.
+pub const OPEN_WARNINGS: &str = "offtake-open-data-warnings";
+
 /// Allowed ranges, in the units shown.
 pub mod bounds {
     use crate::fields::Bounds;
@@ -123,11 +126,16 @@ pub fn ui(
                 ui.separator();
                 // Open while short; a long list starts folded so the scheme's
                 // fields stay in view (the status bar keeps the count).
+                let open_now = ui.ctx().data_mut(|d| {
+                    d.remove_temp::<bool>(egui::Id::unique(OPEN_WARNINGS))
+                        .unwrap_or(false)
+                });
                 egui::CollapsingHeader::new(
                     RichText::new(format!("Data warnings ({})", ctx.problems.len())).strong(),
                 )
                 .id_salt("data-warnings")
                 .default_open(ctx.problems.len() <= 6)
+                .open(open_now.then_some(true))
                 .show(ui, |ui| {
                     for p in ctx.problems {
                         ui.label(RichText::new(p).color(ui.visuals().warn_fg_color));

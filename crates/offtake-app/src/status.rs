@@ -58,7 +58,18 @@ pub fn ui(ui: &mut Ui, state: &RuntimeState, save: SaveState, commands: &mut Vec
             1 => "1 data warning".to_owned(),
             n => format!("{n} data warnings"),
         };
-        ui.label(warnings);
+        if state.warning_count == 0 {
+            ui.label(warnings);
+        } else if ui
+            .link(warnings)
+            .on_hover_text("Show them in the inspector (the scheme's page)")
+            .clicked()
+        {
+            commands.push(Command::Select(crate::command::Selection::Scheme));
+            ui.ctx().data_mut(|d| {
+                d.insert_temp(egui::Id::unique(crate::inspector::OPEN_WARNINGS), true);
+            });
+        }
         ui.separator();
         ui.label(save.text());
         if let Some(msg) = &state.message {

@@ -417,4 +417,17 @@ fn a_long_list_of_data_warnings_starts_folded_under_its_count() {
     h.get_by_label(&header).click();
     h.run();
     h.get_by_label_contains("rain missing on 4 days");
+
+    // The count in the status bar leads there too, from any selection.
+    h.get_by_label(&header).click();
+    h.state_mut()
+        .push(Command::Select(Selection::Item(ItemRef::Planting(
+            "C1-rice".to_owned(),
+        ))));
+    h.run();
+    h.get_by_label(&format!("{n} data warnings")).click();
+    h.run();
+    h.run();
+    assert_eq!(h.state().state.selection, Selection::Scheme);
+    h.get_by_label_contains("rain missing on 4 days");
 }
