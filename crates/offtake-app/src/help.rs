@@ -40,7 +40,7 @@ const FAO56: &str = "Allen, R.G., Pereira, L.S., Raes, D. and Smith, M. (1998). 
      Guidelines for computing crop water requirements. FAO Irrigation and Drainage Paper 56. FAO, Rome.";
 
 /// The methods Offtake uses, in the order of the computation chain.
-pub const METHODS: [MethodEntry; 14] = [
+pub const METHODS: [MethodEntry; 15] = [
     MethodEntry {
         quantity: "Reference evapotranspiration ET₀ (mm/day)",
         method: "FAO-56 Penman–Monteith, eq. 6, with the Chapter 3 auxiliaries: atmospheric pressure \
@@ -139,6 +139,16 @@ pub const METHODS: [MethodEntry; 14] = [
                  optional. Duty = design flow ÷ area commanded. Required capacity = design \
                  flow × 24 ÷ hours of operation per day.",
         source: "Offtake definitions (DESIGN.md).",
+    },
+    MethodEntry {
+        quantity: "Starting values of new canals and blocks",
+        method: "A new canal starts at Ec 90 % and 24 h/day; a new block at surface irrigation \
+                 with Ea 60 % and Eb 80 %. They are typical values for a first layout, shown \
+                 as such in the inspector, to be replaced by the scheme's own.",
+        source: "Common practice; Ea after Brouwer, C. et al. (1989), Irrigation Water \
+                 Management: Irrigation Scheduling, FAO Training Manual 4, and the canal \
+                 ranges of Bos, M.G. and Nugteren, J. (1974), On irrigation efficiencies, \
+                 ILRI Publication 19 (both from memory: check against the printed tables).",
     },
     MethodEntry {
         quantity: "Relative water supply",
