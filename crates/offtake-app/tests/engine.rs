@@ -4,56 +4,21 @@
 //! move it as they should. Every wait on the background worker goes through
 //! `Worker::wait` (via `wait_for_recompute`), so the tests are deterministic.
 
-use std::path::PathBuf;
 use std::time::Duration;
 
 use egui::{Key, Modifiers};
 use egui_kittest::Harness;
 use egui_kittest::kittest::Queryable;
-use offtake_app::OfftakeApp;
 use offtake_app::command::{Command, ItemRef, Selection, Tab};
 use offtake_app::edit;
 use offtake_app::fields::format_sig;
 use offtake_core::project::PlantingArea;
 
-fn demo_file() -> PathBuf {
-    PathBuf::from(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/../../demo-projects/demo-scheme/scheme.ron"
-    ))
-}
+mod support;
+use support::{demo_file, headworks_design_flow_ls, settle};
 
-fn demo_harness() -> Harness<'static, OfftakeApp> {
-    let mut app = OfftakeApp::new().without_dialogs();
-    app.open_file(&demo_file());
-    let mut h = Harness::builder()
-        .with_size(egui::vec2(1500.0, 950.0))
-        .build_ui_state(|ui, app: &mut OfftakeApp| app.ui(ui), app);
-    settle(&mut h);
-    h
-}
-
-/// Runs frames and lets the worker finish (twice: the first results bring
-/// the design year, which asks for that season's balance).
-fn settle(h: &mut Harness<'static, OfftakeApp>) {
-    for _ in 0..2 {
-        // Frames poll the running worker; on a busy machine they may outlast
-        // the harness's step limit, which is not a failure here.
-        let _ = h.run_ok();
-        h.state_mut().wait_for_recompute(Duration::from_mins(1));
-    }
-    h.run();
-}
-
-fn headworks_design_flow_ls(h: &Harness<'static, OfftakeApp>) -> f64 {
-    let computed = h.state().computed.as_ref().expect("results");
-    let run = computed
-        .engine
-        .as_ref()
-        .expect("engine ran")
-        .as_ref()
-        .expect("demo computes");
-    run.results.headworks().expect("headworks").design_flow_ls
+fn demo_harness() -> support::H {
+    support::open_demo(Harness::builder(), egui::vec2(1500.0, 950.0))
 }
 
 /// What `offtake run` computes for the demo: the same engine call on the

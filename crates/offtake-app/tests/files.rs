@@ -6,7 +6,6 @@
 //! it checks against is the one the engine (the call `offtake run` makes)
 //! computes for the invented demo scheme.
 
-use std::path::PathBuf;
 use std::time::Duration;
 
 use egui_kittest::Harness;
@@ -14,43 +13,16 @@ use egui_kittest::kittest::Queryable;
 use offtake_app::OfftakeApp;
 use offtake_app::command::Tab;
 
-fn demo_file() -> PathBuf {
-    PathBuf::from(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/../../demo-projects/demo-scheme/scheme.ron"
-    ))
-}
+mod support;
+use support::{headworks, headworks_design_flow_ls};
 
 /// The demo open on the Canal capacity tab (the headworks hydrograph of the
 /// design year, with its design-flow line).
 fn capacity_tab(builder: egui_kittest::HarnessBuilder<OfftakeApp>) -> Harness<'static, OfftakeApp> {
-    let mut app = OfftakeApp::new().without_dialogs();
-    app.open_file(&demo_file());
-    let mut h = builder
-        .with_size(egui::vec2(1500.0, 950.0))
-        .build_ui_state(|ui, app: &mut OfftakeApp| app.ui(ui), app);
-    for _ in 0..2 {
-        let _ = h.run_ok();
-        h.state_mut().wait_for_recompute(Duration::from_mins(1));
-    }
+    let mut h = support::open_demo(builder, egui::vec2(1500.0, 950.0));
     h.get_by_label(Tab::CanalCapacity.title()).click();
     h.run();
     h
-}
-
-fn headworks(h: &Harness<'static, OfftakeApp>) -> offtake_core::scheme::NodeDesign {
-    h.state()
-        .computed
-        .as_ref()
-        .and_then(|c| c.engine.as_ref())
-        .and_then(|e| e.as_ref().ok())
-        .and_then(|r| r.results.headworks())
-        .expect("headworks results")
-        .clone()
-}
-
-fn headworks_design_flow_ls(h: &Harness<'static, OfftakeApp>) -> f64 {
-    headworks(h).design_flow_ls
 }
 
 #[test]

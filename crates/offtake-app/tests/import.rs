@@ -13,6 +13,9 @@ use offtake_core::project::{Project, SchemeInfo};
 use offtake_core::weather_import::units::{TemperatureUnit, WindUnit};
 use offtake_core::weather_import::{DateFormat, Quantity};
 
+mod support;
+use support::replace_text as type_into;
+
 fn harness() -> Harness<'static, OfftakeApp> {
     let mut app = OfftakeApp::new().without_dialogs();
     app.open_project(Project {
@@ -38,14 +41,6 @@ fn read(h: &mut Harness<'static, OfftakeApp>) {
     h.run();
     h.state_mut().wait_for_import(Duration::from_secs(30));
     h.run();
-    h.run();
-}
-
-fn type_into(h: &mut Harness<'static, OfftakeApp>, label: &str, text: &str) {
-    h.get_by_label(label).focus();
-    h.run();
-    h.key_press_modifiers(Modifiers::COMMAND, Key::A);
-    h.get_by_label(label).type_text(text);
     h.run();
 }
 

@@ -5,9 +5,6 @@
 //! inline validation behave. Every wait on the background worker goes
 //! through `wait_for_recompute`, as in `tests/engine.rs`.
 
-use std::path::PathBuf;
-use std::time::Duration;
-
 use egui::{Key, Modifiers};
 use egui_kittest::Harness;
 use egui_kittest::kittest::Queryable;
@@ -18,36 +15,11 @@ use offtake_core::project::{
     Override, Project, Scenario, Strategy, ValidationContext, ValidationProblem,
 };
 
-fn demo_file() -> PathBuf {
-    PathBuf::from(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/../../demo-projects/demo-scheme/scheme.ron"
-    ))
-}
+mod support;
+use support::{demo_file, project, replace_text as type_into, settle};
 
-fn demo_harness() -> Harness<'static, OfftakeApp> {
-    let mut app = OfftakeApp::new().without_dialogs();
-    app.open_file(&demo_file());
-    let mut h = Harness::builder()
-        .with_size(egui::vec2(1500.0, 1000.0))
-        .build_ui_state(|ui, app: &mut OfftakeApp| app.ui(ui), app);
-    settle(&mut h);
-    h
-}
-
-/// Runs frames and lets the worker finish.
-fn settle(h: &mut Harness<'static, OfftakeApp>) {
-    for _ in 0..2 {
-        // Frames poll the running worker; on a busy machine they may outlast
-        // the harness's step limit, which is not a failure here.
-        let _ = h.run_ok();
-        h.state_mut().wait_for_recompute(Duration::from_mins(2));
-    }
-    h.run();
-}
-
-fn project(h: &Harness<'static, OfftakeApp>) -> Project {
-    h.state().project().expect("demo open").clone()
+fn demo_harness() -> support::H {
+    support::open_demo(Harness::builder(), egui::vec2(1500.0, 1000.0))
 }
 
 fn scenario(h: &Harness<'static, OfftakeApp>, name: &str) -> Scenario {
@@ -98,15 +70,6 @@ fn block_nir_m3(r: &Results, block: &str) -> f64 {
         .block_index(block)
         .expect("block in the network");
     r.demand.block_nir_m3_day(i).iter().sum()
-}
-
-/// Replaces the text of a field found by label and presses Enter.
-fn type_into(h: &mut Harness<'static, OfftakeApp>, label: &str, text: &str) {
-    h.get_by_label(label).focus();
-    h.run();
-    h.key_press_modifiers(Modifiers::COMMAND, Key::A);
-    h.get_by_label(label).type_text(text);
-    h.run();
 }
 
 /// Opens the Compare tab and creates a scenario from the current plan; the

@@ -8,7 +8,7 @@
 //! call `offtake run` makes), so the app shows what the command computes.
 //! Weather: the invented demo station (`demo-projects/demo-weather`).
 
-use std::path::{Path, PathBuf};
+use std::path::Path;
 use std::time::Duration;
 
 use egui::{Key, Modifiers};
@@ -16,28 +16,9 @@ use egui_kittest::Harness;
 use egui_kittest::kittest::Queryable;
 use offtake_app::OfftakeApp;
 use offtake_app::command::Tab;
-use offtake_core::project::Project;
 
-type H = Harness<'static, OfftakeApp>;
-
-fn demo_weather() -> PathBuf {
-    PathBuf::from(concat!(
-        env!("CARGO_MANIFEST_DIR"),
-        "/../../demo-projects/demo-weather/weather.csv"
-    ))
-}
-
-fn settle(h: &mut H) {
-    for _ in 0..2 {
-        let _ = h.run_ok();
-        h.state_mut().wait_for_recompute(Duration::from_mins(1));
-    }
-    h.run();
-}
-
-fn project(h: &H) -> Project {
-    h.state().project().expect("a project is open").clone()
-}
+mod support;
+use support::{H, demo_weather, project, settle};
 
 /// Clicks `label` (the last one on screen: a combo's popup is drawn last).
 fn click(h: &mut H, label: &str) {
@@ -62,13 +43,10 @@ fn context(h: &mut H, node: &str, entry: &str) {
     settle(h);
 }
 
-/// Types `text` into the field labelled `label`, replacing what is there.
+/// Types `text` into the field labelled `label`, replacing what is there,
+/// and presses Enter.
 fn type_into(h: &mut H, label: &str, text: &str) {
-    h.get_by_label(label).focus();
-    h.run();
-    h.key_press_modifiers(Modifiers::COMMAND, Key::A);
-    h.get_by_label(label).type_text(text);
-    h.run();
+    support::replace_text(h, label, text);
     h.key_press(Key::Enter);
     settle(h);
 }
