@@ -189,15 +189,7 @@ fn click_first(h: &mut Harness<'static, OfftakeApp>, label: &str) {
 #[test]
 fn every_results_plot_carries_reset_and_both_exports() {
     let mut h = capacity_tab(Harness::builder());
-    for tab in [
-        Tab::Weather,
-        Tab::CropCurves,
-        Tab::WaterBalance,
-        Tab::Demand,
-        Tab::CanalCapacity,
-        Tab::Rotation,
-        Tab::Compare,
-    ] {
+    for tab in Tab::ALL {
         h.get_by_label(tab.title()).click();
         for _ in 0..2 {
             let _ = h.run_ok();

@@ -78,17 +78,6 @@ fn engine_design_flow_ls(file: &Path) -> f64 {
     .design_flow_ls
 }
 
-fn shown_design_flow_ls(h: &H) -> f64 {
-    h.state()
-        .computed
-        .as_ref()
-        .and_then(|c| c.engine.as_ref())
-        .and_then(|e| e.as_ref().ok())
-        .and_then(|r| r.results.headworks())
-        .expect("headworks results shown")
-        .design_flow_ls
-}
-
 /// Adds a block under `canal` with `area` ha of loam, surface irrigated at
 /// Ea 55 % (typed in %, as the inspector shows efficiencies), and one
 /// planting of `crop` on `date` (MM-DD).
@@ -170,7 +159,7 @@ fn a_new_user_builds_a_two_canal_scheme_compares_two_patterns_and_exports_the_wo
     // The design flow is on screen and is what the engine computes.
     h.key_press_modifiers(Modifiers::COMMAND, Key::S);
     settle(&mut h);
-    let q = shown_design_flow_ls(&h);
+    let q = support::headworks_design_flow_ls(&h);
     assert!(q > 0.0);
     assert!((q - engine_design_flow_ls(&file)).abs() < 1e-9 * q);
     click(&mut h, Tab::CanalCapacity.title());
