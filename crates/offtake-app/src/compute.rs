@@ -39,7 +39,7 @@ pub struct Computed {
     pub season: Option<Result<SeasonView, String>>,
     /// Every scenario side by side (offtake-core `engine::compare`), when the
     /// project has scenarios.
-    pub comparison: Option<Result<Comparison, String>>,
+    pub comparison: Option<Comparison>,
 }
 
 /// One engine run, shared without copying between the worker and the tabs.
@@ -312,7 +312,7 @@ type EngineKey = (Project, Option<String>, Option<WeatherKey>);
 struct EngineCache {
     key: Option<EngineKey>,
     run: Option<Result<EngineRun, String>>,
-    comparison: Option<Result<Comparison, String>>,
+    comparison: Option<Comparison>,
     /// Weather prepared as the engine prepares it (gaps filled), for season
     /// details; kept while the weather file, station, ET₀ method and weather
     /// perturbation stay the same (edits of the scheme do not change it).
@@ -364,12 +364,12 @@ impl EngineCache {
         if self.comparison.is_none() && !project.scenarios.is_empty() {
             // Every scenario that computes is compared; one made invalid in
             // the editor is listed with its reason instead of hiding the rest.
-            self.comparison = Some(Ok(engine::compare_scenarios_each(
+            self.comparison = Some(engine::compare_scenarios_each(
                 project,
                 &libraries.crops,
                 &libraries.soils,
                 days,
-            )));
+            ));
         }
     }
 

@@ -641,10 +641,6 @@ fn strategy_short(s: &Strategy) -> String {
     }
 }
 
-fn crop_name<'a>(libs: &'a Libraries, id: &'a str) -> &'a str {
-    libs.crop(id).map_or(id, |c| c.name.as_str())
-}
-
 fn pct(fraction: f64) -> String {
     format!("{} %", format_number(fraction * 100.0, 1))
 }
@@ -654,7 +650,7 @@ fn pct(fraction: f64) -> String {
 pub fn sentence(ov: &Override, base: &Project, libs: &Libraries) -> String {
     let was = |id: &str| {
         base.planting(id)
-            .map(|p| format!(" (base plan: {})", crop_name(libs, &p.crop)))
+            .map(|p| format!(" (base plan: {})", libs.crop_name(&p.crop)))
             .unwrap_or_default()
     };
     let block_label = |id: &str| {
@@ -668,7 +664,7 @@ pub fn sentence(ov: &Override, base: &Project, libs: &Libraries) -> String {
     match ov {
         Override::SetPlantingCrop { planting, crop } => format!(
             "Planting {planting} grows {}{}.",
-            crop_name(libs, crop),
+            libs.crop_name(crop),
             was(planting)
         ),
         Override::SetPlantingArea { planting, area } => {
@@ -690,7 +686,7 @@ pub fn sentence(ov: &Override, base: &Project, libs: &Libraries) -> String {
         Override::AddPlanting(p) => format!(
             "Adds planting {}: {} on block {}, {}, first planted on {}.",
             p.id,
-            crop_name(libs, &p.crop),
+            libs.crop_name(&p.crop),
             p.block,
             area_text(p.area),
             month_day_text(p.first_planting)
@@ -715,8 +711,8 @@ pub fn sentence(ov: &Override, base: &Project, libs: &Libraries) -> String {
             format!(
                 "Moves {} % of every {} planting to {}{}.",
                 format_number(*share_pct, 2),
-                crop_name(libs, from_crop),
-                crop_name(libs, to_crop),
+                libs.crop_name(from_crop),
+                libs.crop_name(to_crop),
                 if new.is_empty() {
                     String::new()
                 } else {
@@ -958,9 +954,7 @@ fn result_line(ui: &mut Ui, base: &Project, scenario: &Scenario, results: Result
     let comparison = results.computed.and_then(|c| c.comparison.as_ref());
     let text = if results.recomputing {
         "Recomputing the scenarios…".to_owned()
-    } else if let Some(Err(e)) = comparison {
-        format!("The scenarios cannot be computed: {e}")
-    } else if let Some(Ok(c)) = comparison {
+    } else if let Some(c) = comparison {
         let figures = |col: &offtake_core::engine::ScenarioColumn| {
             let short = if col.shortfall_periods > 0 {
                 format!(
@@ -1218,7 +1212,7 @@ fn plan_table(
                                 editor.selected = Some(pl.id.clone());
                             }
                             ui.label(&block.name);
-                            ui.label(crop_name(libs, &pl.crop));
+                            ui.label(libs.crop_name(&pl.crop));
                             ui.label(format_number(pl.area.hectares(block.area_ha), 1));
                             ui.label(match pl.area {
                                 PlantingArea::Hectares(ha) => {
@@ -1277,7 +1271,7 @@ fn crop_picker(ui: &mut Ui, label: &str, current: &mut String, libs: &Libraries)
     let shown = if current.is_empty() {
         "(choose a crop)".to_owned()
     } else {
-        crop_name(libs, current).to_owned()
+        libs.crop_name(current).to_owned()
     };
     egui::ComboBox::from_label(label)
         .selected_text(shown)
@@ -1317,7 +1311,7 @@ fn planting_form(
         ui.label(
             RichText::new(format!(
                 "Base plan: {}, {}, first planted on {}, spread {} days, {}.",
-                crop_name(libs, &b.crop),
+                libs.crop_name(&b.crop),
                 area_text(b.area),
                 month_day_text(b.first_planting),
                 b.spread_days,
@@ -1561,11 +1555,11 @@ fn shift_ui(
         egui::ComboBox::from_label("Crop losing area")
             .selected_text(
                 from.as_deref()
-                    .map_or("(a crop grown)", |c| crop_name(libs, c)),
+                    .map_or("(a crop grown)", |c| libs.crop_name(c)),
             )
             .show_ui(ui, |ui| {
                 for c in &grown {
-                    ui.selectable_value(&mut from, Some((*c).to_owned()), crop_name(libs, c));
+                    ui.selectable_value(&mut from, Some((*c).to_owned()), libs.crop_name(c));
                 }
             });
         editor.shift_from = from;

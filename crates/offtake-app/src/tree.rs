@@ -221,10 +221,10 @@ fn planting_node(
     commands: &mut Vec<Command>,
 ) {
     let me = Selection::Item(ItemRef::Planting(p.id.clone()));
-    let crop = match libraries.crop(&p.crop) {
-        Some(c) => c.name.as_str(),
-        None if p.crop.is_empty() => "(no crop)",
-        None => p.crop.as_str(),
+    let crop = if p.crop.is_empty() {
+        "(no crop)"
+    } else {
+        libraries.crop_name(&p.crop)
     };
     let area = doc
         .planting_area_ha(p)

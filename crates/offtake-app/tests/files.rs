@@ -271,8 +271,8 @@ fn roster_and_comparison_plots_export_the_data_they_draw() {
         .computed
         .as_ref()
         .and_then(|c| c.comparison.clone())
-        .expect("asked")
-        .expect("computed");
+        .expect("asked");
+    assert!(comparison.failed.is_empty(), "{:?}", comparison.failed);
     let mut lines = csv.lines();
     assert_eq!(
         lines.next(),

@@ -236,6 +236,12 @@ impl Libraries {
         self.crops.iter().find(|c| c.id == id)
     }
 
+    /// Display name of a crop id ("Maize, field (grain)"), or the id itself
+    /// when the library does not know it.
+    pub fn crop_name<'a>(&'a self, id: &'a str) -> &'a str {
+        self.crop(id).map_or(id, |c| c.name.as_str())
+    }
+
     /// The soil with this id.
     pub fn soil(&self, id: &str) -> Option<&Soil> {
         self.soils.iter().find(|s| s.id == id)

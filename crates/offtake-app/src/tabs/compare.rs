@@ -182,20 +182,13 @@ impl CompareTab {
             );
             return;
         }
-        let Some(result) = view.computed.and_then(|c| c.comparison.as_ref()) else {
+        let Some(c) = view.computed.and_then(|c| c.comparison.as_ref()) else {
             empty_state(
                 ui,
                 "Computing the scenarios…",
                 "Each scenario is computed in the background; the table appears when they finish.",
             );
             return;
-        };
-        let c = match result {
-            Ok(c) => c,
-            Err(e) => {
-                empty_state(ui, "The scenarios cannot be compared", e);
-                return;
-            }
         };
         for (name, e) in &c.failed {
             ui.label(

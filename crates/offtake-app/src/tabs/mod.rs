@@ -37,9 +37,7 @@ impl View<'_> {
     /// Display name of a crop id ("Maize, field (grain)"), or the id itself
     /// when neither library knows it.
     pub fn crop_name(&self, id: &str) -> String {
-        self.libraries
-            .crop(id)
-            .map_or_else(|| id.to_owned(), |c| c.name.clone())
+        self.libraries.crop_name(id).to_owned()
     }
 }
 

@@ -130,21 +130,15 @@ pub fn compute_plantings(
     let mut keys: std::collections::HashMap<String, usize> = std::collections::HashMap::new();
     let mut distinct: Vec<Distinct<'_>> = Vec::new();
     let mut mode_warnings: Vec<String> = Vec::new();
-    // Block index by id: one map instead of a search per planting, which
-    // grew with plantings × blocks in large schemes.
-    let block_by_id: std::collections::HashMap<&str, usize> = project
-        .blocks
-        .iter()
-        .enumerate()
-        .map(|(i, b)| (b.id.as_str(), i))
-        .collect();
     for (index, p) in project.plantings.iter().enumerate() {
-        let block = block_by_id.get(p.block.as_str()).copied().ok_or_else(|| {
-            EngineError::MissingBlock {
+        // The network's blocks are the project's, in order, named by id
+        // (`network_of`): its map gives the project index.
+        let block = network
+            .block_index(&p.block)
+            .ok_or_else(|| EngineError::MissingBlock {
                 planting: p.id.clone(),
                 block: p.block.clone(),
-            }
-        })?;
+            })?;
         let b = &project.blocks[block];
         let crop =
             crops

@@ -381,14 +381,15 @@ pub fn supply_and_rerun(
     }
     result.relative_irrigation_supply =
         crate::rotation::relative_irrigation_supply(tot_del, tot_dem);
-    let block_by_id: std::collections::HashMap<&str, &crate::project::Block> =
-        project.blocks.iter().map(|b| (b.id.as_str(), b)).collect();
     let reruns: Vec<Result<PlantingSupply, EngineError>> = jobs
         .par_iter()
         .map(|(pi, mm)| {
             let p = &project.plantings[*pi];
             let summary = &summaries[*pi];
-            let block = block_by_id.get(p.block.as_str()).copied();
+            // Network blocks are the project's, in order, named by id.
+            let block = network
+                .block_index(&p.block)
+                .and_then(|b| project.blocks.get(b));
             let crop = crops.iter().find(|c| c.id == p.crop);
             let soil = block.and_then(|b| soils.iter().find(|s| s.id == b.soil));
             let (Some(block), Some(crop), Some(soil)) = (block, crop, soil) else {
