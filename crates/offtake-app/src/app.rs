@@ -583,7 +583,8 @@ impl OfftakeApp {
             },
             Command::SaveAs => {
                 if self.document.is_some()
-                    && let Some(path) = self.pick_file(true, "project.ron")
+                    && let Some(path) =
+                        self.ask(&crate::prompt::Ask::SaveProject("project.ron".to_owned()))
                 {
                     self.save_to(&path);
                 }
@@ -644,7 +645,7 @@ impl OfftakeApp {
         match command {
             Command::NewProject => self.new_project(),
             Command::OpenProject => {
-                if let Some(path) = self.pick_file(false, "project.ron") {
+                if let Some(path) = self.ask(&crate::prompt::Ask::OpenProject) {
                     self.open_file(&path);
                 }
             }
@@ -789,14 +790,6 @@ impl OfftakeApp {
         self.state.recent.retain(|p| p != path);
         self.state.recent.insert(0, path.to_path_buf());
         self.state.recent.truncate(10);
-    }
-
-    fn pick_file(&mut self, save: bool, suggested: &str) -> Option<std::path::PathBuf> {
-        self.ask(&if save {
-            crate::prompt::Ask::SaveProject(suggested.to_owned())
-        } else {
-            crate::prompt::Ask::OpenProject
-        })
     }
 
     /// The "discard unsaved changes?" window and the close guard.

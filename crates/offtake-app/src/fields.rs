@@ -358,9 +358,7 @@ pub fn month_day_calendar(
                     }
                 });
             // A common (non-leap) year: 2001.
-            let days = (1..=31)
-                .take_while(|&d| chrono::NaiveDate::from_ymd_opt(2001, month, d).is_some())
-                .count() as u32;
+            let days = offtake_core::calendar::days_in_month(2001, month).unwrap_or(31);
             egui::Grid::new(id.with("calendar-days")).show(ui, |ui| {
                 for d in 1..=days {
                     let selected = (month, d) == stored;

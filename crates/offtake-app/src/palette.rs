@@ -54,6 +54,11 @@ fn fnv1a_64(bytes: &[u8]) -> u64 {
 /// than the published palette; the hue stays the reader's first cue).
 pub const PALETTE_SLOTS: usize = 3 * OKABE_ITO.len();
 
+/// The base-palette slot an id hashes to.
+fn home_slot(id: &str) -> usize {
+    (fnv1a_64(id.as_bytes()) % OKABE_ITO.len() as u64) as usize
+}
+
 fn slot_colour(slot: usize) -> Color32 {
     let n = OKABE_ITO.len();
     let base = OKABE_ITO[slot % n];
@@ -87,7 +92,7 @@ impl Colours {
         let mut taken = [false; PALETTE_SLOTS];
         let mut by_id = std::collections::HashMap::with_capacity(sorted.len());
         for id in sorted {
-            let home = (fnv1a_64(id.as_bytes()) % n as u64) as usize;
+            let home = home_slot(&id);
             let free = (0..PALETTE_SLOTS)
                 .map(|k| (k / n) * n + (home + k) % n)
                 .find(|&slot| !taken[slot]);
@@ -102,9 +107,10 @@ impl Colours {
 
     /// The colour of `id`; an id outside the set gets its hash's base colour.
     pub fn of(&self, id: &str) -> Color32 {
-        self.by_id.get(id).copied().unwrap_or_else(|| {
-            OKABE_ITO[(fnv1a_64(id.as_bytes()) % OKABE_ITO.len() as u64) as usize]
-        })
+        self.by_id
+            .get(id)
+            .copied()
+            .unwrap_or_else(|| OKABE_ITO[home_slot(id)])
     }
 }
 

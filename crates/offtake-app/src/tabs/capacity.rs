@@ -69,14 +69,6 @@ pub fn node_label(project: &Project, d: &NodeDesign) -> String {
     }
 }
 
-fn basis_title(b: DesignBasis) -> &'static str {
-    match b {
-        DesignBasis::TenDay => "10-day",
-        DesignBasis::Monthly => "Monthly",
-        DesignBasis::Daily => "Daily",
-    }
-}
-
 fn basis_label(b: DesignBasis) -> &'static str {
     match b {
         DesignBasis::TenDay => "10-day",
@@ -172,7 +164,7 @@ fn hydrograph(r: &Results, project: &Project, d: &NodeDesign, choice: YearChoice
         series.push(Series::line(
             format!(
                 "{} mean demand, the design basis (l/s)",
-                basis_title(d.basis)
+                basis_label(d.basis)
             ),
             means,
             OKABE_ITO[2],
