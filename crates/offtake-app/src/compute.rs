@@ -481,13 +481,8 @@ pub fn season_view(
     let soil = libraries
         .soil(&b.soil)
         .ok_or_else(|| format!("soil {:?} is not in the soil library", b.soil))?;
-    let spec = planting_spec(
-        crop,
-        soil,
-        p,
-        project.options.effective_rain,
-        coefficient_mode(p, b).0,
-    );
+    let (mode, wetting, _) = coefficient_mode(p, b);
+    let spec = planting_spec(crop, soil, p, project.options.effective_rain, mode, wetting);
     let weather = planting_weather(w);
     let year = req.year.or(default_year).ok_or_else(|| {
         "no complete irrigation year in the weather record to take the season from".to_owned()

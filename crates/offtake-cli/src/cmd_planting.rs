@@ -1,7 +1,7 @@
 //! `offtake planting --weather FILE.csv --lat DEG --elevation M
 //! [--wind-height M] --crop ID --plant YYYY-MM-DD [--every-year] [--soil ID]
 //! [--strategy refill|interval|depth|deficit|rainfed] [--dual-kc]
-//! [--wetting surface|sprinkler|furrow|drip] [--out FILE.csv]`
+//! [--wetting surface|sprinkler|furrow|drip] [--kc-ini-table] [--out FILE.csv]`
 //!
 //! Reads the weather file through the common importer, computes ET₀ (FAO-56
 //! Penman–Monteith with the missing-data procedures), u2 from the wind height
@@ -32,8 +32,8 @@ use offtake_core::et0::wind::wind_2m_ms;
 use offtake_core::et0::{Et0Context, Et0Options};
 use offtake_core::gapfill::{GapFillOptions, repair_for_daily_balance};
 use offtake_core::planting::{
-    CoefficientMode, PlantingSpec, PlantingWarning, PlantingWeather, SeasonSummary, Wetting,
-    run_planting, season_detail,
+    CoefficientMode, KcIniRule, PlantingSpec, PlantingWarning, PlantingWeather, SeasonSummary,
+    Wetting, run_planting, season_detail,
 };
 use offtake_io::library::Libraries;
 use offtake_io::weather::SourceLocation;
@@ -81,11 +81,16 @@ pub struct Args {
     /// layer) instead of the single Kc; adds the columns kcb,ke to --out.
     #[arg(long)]
     pub dual_kc: bool,
-    /// Fraction of the surface wetted by irrigation for --dual-kc (FAO-56
-    /// Table 20): surface, sprinkler, furrow, furrow-wide-bed,
-    /// alternate-furrow, drip.
-    #[arg(long, requires = "dual_kc")]
+    /// Fraction of the surface wetted by irrigation (FAO-56 Table 20):
+    /// surface, sprinkler, furrow, furrow-wide-bed, alternate-furrow, drip.
+    /// Used for Kc ini from the wetting interval (FAO-56 eq. 60–61) and, with
+    /// --dual-kc, for the soil evaporation layer. Default sprinkler.
+    #[arg(long)]
     pub wetting: Option<String>,
+    /// Keep the Table 12 Kc ini instead of deriving it from the wetting
+    /// events of each initial stage (FAO-56 eq. 59–61).
+    #[arg(long)]
+    pub kc_ini_table: bool,
     /// Output CSV file for the daily table (written atomically).
     #[arg(long)]
     pub out: Option<PathBuf>,
@@ -265,11 +270,11 @@ pub fn run(args: &Args) -> Result<()> {
         .strategy
         .parse()
         .map_err(|e| anyhow::anyhow!("--strategy: {e}"))?;
+    let wetting: Wetting = match &args.wetting {
+        Some(w) => w.parse().map_err(|e| anyhow::anyhow!("--wetting: {e}"))?,
+        None => Wetting::Sprinkler,
+    };
     let coefficients = if args.dual_kc {
-        let wetting: Wetting = match &args.wetting {
-            Some(w) => w.parse().map_err(|e| anyhow::anyhow!("--wetting: {e}"))?,
-            None => Wetting::Sprinkler,
-        };
         CoefficientMode::Dual { wetting }
     } else {
         CoefficientMode::Single
@@ -286,6 +291,12 @@ pub fn run(args: &Args) -> Result<()> {
     let spec = PlantingSpec {
         strategy,
         coefficients,
+        irrigation_wetting: wetting,
+        kc_ini: if args.kc_ini_table {
+            KcIniRule::Table12
+        } else {
+            KcIniRule::FromWetting
+        },
         only_year: (!args.every_year).then_some(plant.year()),
         ..PlantingSpec::new(crop, soil, plant.month(), plant.day())
     };

@@ -183,37 +183,43 @@ pub fn raw_and_peak_etc(
     (raw.is_finite() && raw > 0.0).then_some((raw, peak_etc_mm_day))
 }
 
-/// The crop coefficient mode of a planting on its block: single Kc, or dual
-/// Kcb + Ke with the wetted fraction fw given in the planting or read from
-/// the block's irrigation method name (FAO-56 Table 20). An unrecognised
-/// method name falls back to full wetting (fw = 1, as sprinkler and basin)
-/// and returns a warning.
-pub fn coefficient_mode(planting: &Planting, block: &Block) -> (CoefficientMode, Option<String>) {
-    match planting.coefficients {
-        CoefficientChoice::Single => (CoefficientMode::Single, None),
-        CoefficientChoice::Dual {
-            wetted_fraction: Some(fw),
-        } => (
-            CoefficientMode::Dual {
-                wetting: Wetting::Fraction(fw),
-            },
-            None,
-        ),
-        CoefficientChoice::Dual {
-            wetted_fraction: None,
-        } => match Wetting::from_method_name(&block.method.name) {
-            Some(wetting) => (CoefficientMode::Dual { wetting }, None),
-            None => (
-                CoefficientMode::Dual {
-                    wetting: Wetting::Sprinkler,
-                },
-                Some(format!(
-                    "planting {}: irrigation method \"{}\" of block {} does not say how much of the surface it wets; fw = 1 (full wetting, FAO-56 Table 20) was used for the dual crop coefficient",
-                    planting.id, block.method.name, block.id
-                )),
-            ),
-        },
+/// How the block's irrigation wets the surface (fw, FAO-56 Table 20): the
+/// planting's own fraction when its dual coefficient sets one, else read from
+/// the block's irrigation method name. An unrecognised method name falls back
+/// to full wetting (fw = 1, as sprinkler and basin) and returns a warning.
+pub fn irrigation_wetting(planting: &Planting, block: &Block) -> (Wetting, Option<String>) {
+    if let CoefficientChoice::Dual {
+        wetted_fraction: Some(fw),
+    } = planting.coefficients
+    {
+        return (Wetting::Fraction(fw), None);
     }
+    match Wetting::from_method_name(&block.method.name) {
+        Some(wetting) => (wetting, None),
+        None => (
+            Wetting::Sprinkler,
+            Some(format!(
+                "planting {}: irrigation method \"{}\" of block {} does not say how much of the surface it wets; fw = 1 (full wetting, FAO-56 Table 20) was used for Kc ini and the soil evaporation",
+                planting.id, block.method.name, block.id
+            )),
+        ),
+    }
+}
+
+/// The crop coefficient mode of a planting on its block (single Kc, or dual
+/// Kcb + Ke), the wetting of its irrigation ([`irrigation_wetting`], used by
+/// both: the single Kc's Kc ini and the dual Ke) and a warning when the
+/// method's wetting is not known.
+pub fn coefficient_mode(
+    planting: &Planting,
+    block: &Block,
+) -> (CoefficientMode, Wetting, Option<String>) {
+    let (wetting, warning) = irrigation_wetting(planting, block);
+    let mode = match planting.coefficients {
+        CoefficientChoice::Single => CoefficientMode::Single,
+        CoefficientChoice::Dual { .. } => CoefficientMode::Dual { wetting },
+    };
+    (mode, wetting, warning)
 }
 
 /// The planting module's input for a project planting on `soil`: window,
@@ -226,6 +232,7 @@ pub fn planting_spec<'a>(
     planting: &Planting,
     effective_rain: EffectiveRain,
     coefficients: CoefficientMode,
+    wetting: Wetting,
 ) -> PlantingSpec<'a> {
     let mut spec = PlantingSpec::new(
         crop,
@@ -238,6 +245,7 @@ pub fn planting_spec<'a>(
     spec.strategy = balance_strategy(planting.strategy, crop);
     spec.effective_rain = effective_rain_method(effective_rain, crop, soil);
     spec.coefficients = coefficients;
+    spec.irrigation_wetting = wetting;
     if is_paddy(crop) {
         spec.paddy = Some(paddy_inputs(planting).paddy_options());
     }
@@ -270,10 +278,11 @@ pub fn simulate_planting(
     planting: &Planting,
     effective_rain: EffectiveRain,
     coefficients: CoefficientMode,
+    wetting: Wetting,
     w: &PreparedWeather,
     delivered_net_mm: Option<&[f64]>,
 ) -> Result<PlantingOutcome, String> {
-    let spec = planting_spec(crop, soil, planting, effective_rain, coefficients);
+    let spec = planting_spec(crop, soil, planting, effective_rain, coefficients, wetting);
     let weather = planting_weather(w);
     let result = match delivered_net_mm {
         Some(d) => run_planting_with_delivery(&spec, &weather, d),

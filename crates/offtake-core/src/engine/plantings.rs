@@ -15,7 +15,7 @@ use super::planting_step::{
 use super::weather_prep::PreparedWeather;
 use crate::calendar::IrrigationYear;
 use crate::crop::Crop;
-use crate::planting::CoefficientMode;
+use crate::planting::{CoefficientMode, Wetting};
 use crate::project::Project;
 use crate::scheme::{DemandAccumulator, Network, NirSeries, Node, SchemeDemand, SchemeError};
 use crate::soil::Soil;
@@ -109,6 +109,7 @@ struct Distinct<'a> {
     crop: &'a Crop,
     soil: &'a Soil,
     mode: CoefficientMode,
+    wetting: Wetting,
 }
 
 /// Runs every planting and sums their NIR by block and crop.
@@ -156,12 +157,12 @@ pub fn compute_plantings(
                     block: b.id.clone(),
                     soil: b.soil.clone(),
                 })?;
-        let (mode, mode_warning) = coefficient_mode(p, b);
+        let (mode, wetting, mode_warning) = coefficient_mode(p, b);
         if let Some(w) = mode_warning {
             mode_warnings.push(w);
         }
         let key = format!(
-            "{}|{}|{:?}|{}|{:?}|{:?}|{:?}|{:?}",
+            "{}|{}|{:?}|{}|{:?}|{:?}|{:?}|{:?}|{:?}",
             p.crop,
             b.soil,
             p.first_planting,
@@ -169,7 +170,8 @@ pub fn compute_plantings(
             p.season_length_days,
             p.strategy,
             p.paddy,
-            mode
+            mode,
+            wetting
         );
         let next = distinct.len();
         let d = *keys.entry(key).or_insert(next);
@@ -179,6 +181,7 @@ pub fn compute_plantings(
                 crop,
                 soil,
                 mode,
+                wetting,
             });
         }
         by_block[block].push(Job {
@@ -203,6 +206,7 @@ pub fn compute_plantings(
                 p,
                 project.options.effective_rain,
                 d.mode,
+                d.wetting,
                 w,
                 None,
             )

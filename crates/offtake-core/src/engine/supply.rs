@@ -398,13 +398,14 @@ pub fn supply_and_rerun(
                     crop: p.crop.clone(),
                 });
             };
-            let (mode, _) = coefficient_mode(p, block);
+            let (mode, wetting, _) = coefficient_mode(p, block);
             let out = simulate_planting(
                 crop,
                 soil,
                 p,
                 project.options.effective_rain,
                 mode,
+                wetting,
                 w,
                 Some(mm),
             )

@@ -89,6 +89,7 @@
 pub mod dual;
 pub mod layout;
 mod run;
+pub mod wetting_kc_ini;
 
 use chrono::NaiveDate;
 use serde::{Deserialize, Serialize};
@@ -186,6 +187,25 @@ pub struct PlantingSpec<'a> {
     /// Single Kc (default) or dual Kcb + Ke with the soil evaporation layer
     /// (see [`dual`]).
     pub coefficients: CoefficientMode,
+    /// How the irrigation method wets the surface (fw, FAO-56 Table 20):
+    /// used for the single coefficient's Kc ini (eq. 60–61); the dual
+    /// coefficient takes its own [`CoefficientMode::Dual`] wetting.
+    pub irrigation_wetting: Wetting,
+    /// Where the single coefficient's Kc ini comes from.
+    pub kc_ini: KcIniRule,
+}
+
+/// Where the Kc ini of a single-coefficient planting comes from.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize, Deserialize)]
+pub enum KcIniRule {
+    /// From the wetting interval and depth of each cohort's own initial
+    /// stage (FAO-56 eq. 59–61, Figures 29–30; see [`wetting_kc_ini`]).
+    /// Annual upland crops with the water-balance effective rain; the others
+    /// keep Table 12. Default.
+    #[default]
+    FromWetting,
+    /// The Table 12 value as printed.
+    Table12,
 }
 
 impl<'a> PlantingSpec<'a> {
@@ -209,6 +229,8 @@ impl<'a> PlantingSpec<'a> {
             only_year: None,
             runoff: None,
             coefficients: CoefficientMode::Single,
+            irrigation_wetting: Wetting::Sprinkler,
+            kc_ini: KcIniRule::FromWetting,
         }
     }
 }
@@ -267,6 +289,10 @@ pub struct SeasonSummary {
     pub relative_yield_loss: f64,
     /// Leaching requirement LR applied (0 when none).
     pub leaching_requirement: f64,
+    /// Kc ini, area-weighted over the cohorts (single coefficient: Table 12,
+    /// or from the wetting events of each cohort's initial stage).
+    #[serde(default)]
+    pub kc_ini: f64,
     /// Every irrigation of every cohort in the season.
     pub irrigations: Vec<PlantingIrrigation>,
 }
@@ -428,6 +454,9 @@ pub struct CohortDetail {
     pub initial_evaporation_depletion_mm: f64,
     /// The fraction fw wetted by irrigation (dual only; 1 otherwise).
     pub fw_irrigation: f64,
+    /// Kc ini used (single coefficient: Table 12, or from the wetting
+    /// events of the initial stage).
+    pub kc_ini: f64,
     /// The daily balance.
     pub days: Vec<BalanceDay>,
     /// The evaporation layer per day (dual coefficient only, else empty).

@@ -8,9 +8,12 @@ use super::dual::{
     kc_max_base,
 };
 use super::layout::{SeasonPlan, anniversary, cohort_offsets, is_chain, seasons};
+use super::wetting_kc_ini::{
+    KC_INI_TOLERANCE, MAX_PASSES, kc_ini_from_initial_stage, wetting_soil,
+};
 use super::{
-    CohortDetail, PaddyOptions, PlantingError, PlantingIrrigation, PlantingResult, PlantingSpec,
-    PlantingWarning, PlantingWeather, SeasonDetail, SeasonSummary,
+    CohortDetail, KcIniRule, PaddyOptions, PlantingError, PlantingIrrigation, PlantingResult,
+    PlantingSpec, PlantingWarning, PlantingWeather, SeasonDetail, SeasonSummary,
 };
 use crate::balance::evaporation::kc_max;
 use crate::balance::{
@@ -18,7 +21,10 @@ use crate::balance::{
     ExposedWetted, IrrigationEvent, RunoffRule, Strategy, simulate,
 };
 use crate::crop::climate::DayClimate;
-use crate::crop::{ClimateInput, CropGroup, CropSeries, SeasonSpec, crop_season_series};
+use crate::crop::{
+    ClimateInput, CropGroup, CropSeries, CycleKind, SeasonSpec, crop_season_series,
+    root::RootDepthChoice,
+};
 use crate::paddy::{PaddyDay, PaddyPlanting, paddy_planting_requirement};
 use crate::rain::{EffectiveRainMethod, effective_rain_period_mm, period_totals};
 use crate::salinity::leaching_requirement;
@@ -65,6 +71,8 @@ struct CohortOut {
     initial_depletion_mm: f64,
     /// Layer depletion before `days[0]` (mm).
     initial_evaporation_depletion_mm: f64,
+    /// Kc ini of the run (single coefficient).
+    kc_ini: f64,
 }
 
 /// One season (or chain) and its cohorts.
@@ -232,6 +240,7 @@ fn crop_series(
     p: &Prepared<'_, '_>,
     start: NaiveDate,
     length: Option<u32>,
+    kc_ini_override: Option<f64>,
 ) -> Result<CropSeries, PlantingError> {
     let s = index_of(p.weather, start);
     let days = i64::from(length.unwrap_or_else(|| p.spec.crop.stages.total_days()));
@@ -253,9 +262,18 @@ fn crop_series(
             }
         })
         .collect();
+    // FAO-56 Table 22 note (footnote 1): the smaller depth of the range is
+    // for irrigation scheduling, the larger for rainfed crops and stress.
+    let root_depth = if matches!(p.spec.strategy, Strategy::Rainfed) {
+        RootDepthChoice::Stress
+    } else {
+        RootDepthChoice::Scheduling
+    };
     let season = SeasonSpec {
         length_days: length,
         climate: ClimateInput::Daily(&climate),
+        kc_ini_override,
+        root_depth,
         ..SeasonSpec::new(start)
     };
     Ok(crop_season_series(p.spec.crop, &season)?)
@@ -268,7 +286,10 @@ fn in_record(s: i64, len: usize, n: usize) -> (usize, usize) {
     (a.min(b), b)
 }
 
-/// Root-zone balance of one cohort over its days inside the record.
+/// Root-zone balance of one cohort over its days inside the record, with
+/// the single coefficient's Kc ini from the wetting events of its initial
+/// stage where that applies (see [`super::wetting_kc_ini`]: at most
+/// [`MAX_PASSES`] balance runs).
 fn balance_cohort(
     p: &Prepared<'_, '_>,
     index: usize,
@@ -277,7 +298,51 @@ fn balance_cohort(
     length: Option<u32>,
     delivery: Option<&[f64]>,
 ) -> Result<CohortOut, PlantingError> {
-    let series = crop_series(p, start, length)?;
+    let adjust = p.dual.is_none()
+        && p.spec.kc_ini == KcIniRule::FromWetting
+        && matches!(p.spec.effective_rain, EffectiveRainMethod::WaterBalance)
+        && matches!(p.spec.crop.cycle, CycleKind::Annual)
+        && index_of(p.weather, start) >= 0;
+    let starts_wet = p.spec.initial_depletion_pct_of_taw <= 0.0;
+    let fw = p.spec.irrigation_wetting.fw();
+    let soil = wetting_soil(p.spec.soil);
+    let mut kc_ini = None;
+    let mut pass = 1;
+    loop {
+        let (mut out, ini_days) =
+            balance_cohort_once(p, index, start, share, length, delivery, kc_ini)?;
+        out.kc_ini = kc_ini.unwrap_or(p.spec.crop.kc.ini);
+        if !adjust || pass == MAX_PASSES {
+            return Ok(out);
+        }
+        let stage = &out.days[..ini_days.min(out.days.len())];
+        let Some(w) = kc_ini_from_initial_stage(stage, starts_wet, fw, soil) else {
+            return Ok(out);
+        };
+        if (w.kc_ini - out.kc_ini).abs() < KC_INI_TOLERANCE {
+            return Ok(out);
+        }
+        kc_ini = Some(w.kc_ini);
+        pass += 1;
+    }
+}
+
+/// One balance run of a cohort with a given Kc ini (`None`: Table 12);
+/// also returns the length of its first initial stage (days).
+fn balance_cohort_once(
+    p: &Prepared<'_, '_>,
+    index: usize,
+    start: NaiveDate,
+    share: f64,
+    length: Option<u32>,
+    delivery: Option<&[f64]>,
+    kc_ini_override: Option<f64>,
+) -> Result<(CohortOut, usize), PlantingError> {
+    let series = crop_series(p, start, length, kc_ini_override)?;
+    let ini_days = series
+        .cycles
+        .first()
+        .map_or(0, |c| c.lengths.ini_days as usize);
     let s = index_of(p.weather, start);
     let len = series.days.len();
     let (a, b) = in_record(s, len, p.n);
@@ -292,9 +357,10 @@ fn balance_cohort(
         evaporation: Vec::new(),
         initial_depletion_mm: 0.0,
         initial_evaporation_depletion_mm: 0.0,
+        kc_ini: p.spec.crop.kc.ini,
     };
     if a >= b {
-        return Ok(out);
+        return Ok((out, ini_days));
     }
     let local = (a as i64 - s) as usize..(b as i64 - s) as usize;
     let crop_days = &series.days[local];
@@ -404,7 +470,7 @@ fn balance_cohort(
         out.initial_evaporation_depletion_mm = dual_inputs
             .as_ref()
             .map_or(0.0, |d| d.3.initial_depletion_mm);
-        return Ok(out);
+        return Ok((out, ini_days));
     }
 
     // Period-total effective rain: NIR = max(0, ETc − Pe) per period, spread evenly.
@@ -447,7 +513,7 @@ fn balance_cohort(
             }
         })
         .collect();
-    Ok(out)
+    Ok((out, ini_days))
 }
 
 /// A paddy season: land preparation, nursery and main field of every
@@ -467,7 +533,7 @@ fn paddy_season(
         window_days: p.spec.spread_days.saturating_sub(1) as usize,
         groups,
     };
-    let series = crop_series(p, first, p.spec.season_length_days)?;
+    let series = crop_series(p, first, p.spec.season_length_days, None)?;
     let kc = series.kc();
     let lead = planting.lead_days();
     let total = planting.calendar_days(kc.len());
@@ -548,6 +614,7 @@ fn paddy_season(
         evaporation: Vec::new(),
         initial_depletion_mm: 0.0,
         initial_evaporation_depletion_mm: 0.0,
+        kc_ini: p.spec.crop.kc.ini,
     });
     Ok(out)
 }
@@ -628,6 +695,7 @@ fn summarise(
         evaporation_mm: 0.0,
         relative_yield_loss: 0.0,
         leaching_requirement: p.lr,
+        kc_ini: 0.0,
         irrigations: Vec::new(),
     };
     for c in cohorts {
@@ -652,6 +720,7 @@ fn summarise(
             .sum::<f64>();
         s.etc_mm += w * etc;
         s.etc_adj_mm += w * etc_adj;
+        s.kc_ini += w * c.kc_ini;
         s.relative_yield_loss += w * relative_yield_loss(p.ky, etc_adj, etc)?;
         for &(g, net_mm) in &c.events {
             if g >= lo && g < hi {
@@ -923,6 +992,7 @@ pub fn cohort_details(
             initial_depletion_mm: c.initial_depletion_mm,
             initial_evaporation_depletion_mm: c.initial_evaporation_depletion_mm,
             fw_irrigation: fw,
+            kc_ini: c.kc_ini,
             days: c.days.clone(),
             evaporation: c.evaporation.clone(),
         })
