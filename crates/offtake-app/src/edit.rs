@@ -450,6 +450,8 @@ pub fn new_block(doc: &Project, canal: &str) -> Block {
             application_efficiency: NEW_BLOCK_APPLICATION_EFFICIENCY,
         },
         field_canal_efficiency: NEW_BLOCK_FIELD_CANAL_EFFICIENCY,
+        delivery: offtake_core::project::DeliveryMode::OnDemand,
+        outlet_stream_size_ls: None,
     }
 }
 

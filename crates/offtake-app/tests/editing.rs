@@ -34,6 +34,8 @@ fn invented_scheme() -> Project {
             application_efficiency: 0.6,
         },
         field_canal_efficiency: 0.85,
+        delivery: offtake_core::project::DeliveryMode::OnDemand,
+        outlet_stream_size_ls: None,
     };
     Project {
         scheme: SchemeInfo {

@@ -105,6 +105,8 @@ fn project(blocks: usize) -> Project {
                 application_efficiency: 0.65,
             },
             field_canal_efficiency: 0.8,
+            delivery: offtake_core::project::DeliveryMode::OnDemand,
+            outlet_stream_size_ls: None,
         });
         let plant = |k: &str, crop: &str, md: (u32, u32), pct: f64, season: &str| Planting {
             id: format!("{id}-{k}"),

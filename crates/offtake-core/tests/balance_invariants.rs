@@ -135,6 +135,7 @@ fn case() -> impl proptest::strategy::Strategy<Value = Case> {
                                 max_infiltration_mm_day: maxi,
                             },
                             strategy,
+                            supply_factor: None,
                         },
                         zr,
                         cr,

@@ -684,6 +684,8 @@ pub mod v0 {
                         application_efficiency: b.application_efficiency_pct / 100.0,
                     },
                     field_canal_efficiency: b.field_canal_efficiency_pct / 100.0,
+                    delivery: offtake_core::project::DeliveryMode::OnDemand,
+                    outlet_stream_size_ls: None,
                 })
                 .collect(),
             plantings: old

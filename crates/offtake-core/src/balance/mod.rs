@@ -52,7 +52,9 @@ pub mod strategy;
 use serde::{Deserialize, Serialize};
 
 pub use evaporation::{EvaporationDay, EvaporationLayer, ExposedWetted};
-pub use strategy::{IntervalDepth, IrrigationEvent, ParseStrategyError, RefillTarget, Strategy};
+pub use strategy::{
+    IntervalDepth, IrrigationEvent, ParseStrategyError, RefillTarget, Strategy, TurnTarget,
+};
 
 /// p of FAO-56 Table 22 applies at ETc ≈ 5 mm/day (Table 22 note).
 pub const P_REFERENCE_ETC_MM_DAY: f64 = 5.0;
@@ -270,6 +272,13 @@ pub struct BalanceParams {
     pub runoff: RunoffRule,
     /// Scheduling strategy.
     pub strategy: Strategy,
+    /// Share (0..=1) of each day's request that can be delivered (an outlet
+    /// too small for the day's requests of all it serves), indexed like the
+    /// series; `None`, or a day beyond the slice: all of it. The water not
+    /// delivered is not owed later: the next request follows from the
+    /// depletion.
+    #[serde(skip)]
+    pub supply_factor: Option<std::sync::Arc<[f64]>>,
 }
 
 impl BalanceParams {
@@ -284,6 +293,7 @@ impl BalanceParams {
             initial_depletion_mm: 0.0,
             runoff: RunoffRule::NONE,
             strategy: Strategy::default(),
+            supply_factor: None,
         }
     }
 }
@@ -582,6 +592,16 @@ fn validate(series: &DailySeries<'_>, params: &BalanceParams) -> Result<(), Bala
             "a finite rate ≥ 0 mm/day",
         )?;
     }
+    if let Some(f) = params.supply_factor.as_deref()
+        && let Some(day) = f.iter().position(|v| !(v.is_finite() && (0.0..=1.0).contains(v)))
+    {
+        return Err(BalanceError::BadDailyValue {
+            series: "supply_factor",
+            day,
+            value: f[day],
+            expected: "a share of the request in 0..=1",
+        });
+    }
     if let Some((name, value)) = params.strategy.invalid_field() {
         return Err(BalanceError::BadParameter {
             name,
@@ -758,6 +778,7 @@ fn run_days<C: DayCoefficient>(
     let zr_s = &series.root_depth_m[..n];
     let mut dr = params.initial_depletion_mm;
     let mut next_scheduled = 0usize;
+    let supply = params.supply_factor.as_deref();
     for i in 0..n {
         let et0 = et0_s[i];
         let rain = rain_s[i];
@@ -769,10 +790,14 @@ fn run_days<C: DayCoefficient>(
         };
         let raw = readily_available_water_mm(p, taw);
 
-        let irrigation = params
+        let requested = params
             .strategy
             .net_irrigation_mm(i, dr, taw, raw, &mut next_scheduled)
             .max(0.0);
+        let irrigation = match supply {
+            Some(f) if requested > 0.0 => requested * f.get(i).copied().unwrap_or(1.0),
+            _ => requested,
+        };
         if irrigation > 0.0 {
             run.events.push(IrrigationEvent {
                 day: i,

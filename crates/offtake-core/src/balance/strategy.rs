@@ -35,6 +35,17 @@ pub enum IntervalDepth {
     FixedMm(f64),
 }
 
+/// What a turn of a rotation brings back.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+pub enum TurnTarget {
+    /// Field capacity: the net depth equals the depletion.
+    FieldCapacity,
+    /// A fraction (0 < f ≤ 1) of the depletion.
+    FractionOfDepletion(f64),
+    /// A fixed net depth (mm, > 0); any excess over the depletion percolates.
+    FixedMm(f64),
+}
+
 /// One irrigation: the day index in the simulated series (0-based) and the
 /// net depth in mm.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
@@ -92,6 +103,22 @@ pub enum Strategy {
     /// A given list of irrigations (day index, net mm), e.g. a farmer's
     /// actual schedule or a worked example.
     Scheduled(Vec<IrrigationEvent>),
+    /// Turns of a rotation: water comes only every `cycle_days` days, the
+    /// first time on day index `first_day`. On its turn the root zone is
+    /// brought to `target` whatever its depletion, unless the depletion is
+    /// below `min_depletion_mm` (too little to apply); it is not held back
+    /// until RAW. (A rotation within the block: each share of the block's area
+    /// has its own turn day.)
+    Turns {
+        /// Days between turns (≥ 1).
+        cycle_days: usize,
+        /// Day index (0-based) of the first turn.
+        first_day: usize,
+        /// Smallest depletion worth a turn (mm, ≥ 0).
+        min_depletion_mm: f64,
+        /// What a turn brings back.
+        target: TurnTarget,
+    },
     /// No irrigation.
     Rainfed,
 }
@@ -162,6 +189,7 @@ impl fmt::Display for Strategy {
             Strategy::FixedDepth { .. } => "depth",
             Strategy::Deficit { .. } => "deficit",
             Strategy::Scheduled(_) => "scheduled",
+            Strategy::Turns { .. } => "turns",
             Strategy::Rainfed => "rainfed",
         };
         f.write_str(name)
@@ -227,6 +255,28 @@ impl Strategy {
                 .iter()
                 .find(|e| !(e.net_mm.is_finite() && e.net_mm >= 0.0))
                 .map(|e| ("scheduled net_mm", e.net_mm)),
+            Strategy::Turns {
+                cycle_days,
+                min_depletion_mm,
+                target,
+                ..
+            } => {
+                if cycle_days == 0 {
+                    return Some(("turn cycle days", 0.0));
+                }
+                if !(min_depletion_mm.is_finite() && min_depletion_mm >= 0.0) {
+                    return Some(("turn minimum depletion (mm)", min_depletion_mm));
+                }
+                match target {
+                    TurnTarget::FractionOfDepletion(f) if !frac_ok(f) => {
+                        Some(("turn fraction of depletion", f))
+                    }
+                    TurnTarget::FixedMm(d) if !(d.is_finite() && d > 0.0) => {
+                        Some(("turn net depth (mm)", d))
+                    }
+                    _ => None,
+                }
+            }
             Strategy::Rainfed => None,
         }
     }
@@ -308,6 +358,22 @@ impl Strategy {
                 }
                 total
             }
+            Strategy::Turns {
+                cycle_days,
+                first_day,
+                min_depletion_mm,
+                target,
+            } => {
+                let turn = day >= first_day && (day - first_day).is_multiple_of(cycle_days);
+                if !turn || depletion_prev_mm <= 0.0 || depletion_prev_mm < min_depletion_mm {
+                    return 0.0;
+                }
+                match target {
+                    TurnTarget::FieldCapacity => depletion_prev_mm,
+                    TurnTarget::FractionOfDepletion(f) => f * depletion_prev_mm,
+                    TurnTarget::FixedMm(d) => d,
+                }
+            }
             Strategy::Rainfed => 0.0,
         }
     }
@@ -347,6 +413,27 @@ mod tests {
         let mut k = 0;
         assert!(s.net_irrigation_mm(0, 63.9, 160.0, 64.0, &mut k).abs() < 1e-12);
         assert!((s.net_irrigation_mm(0, 64.0, 160.0, 64.0, &mut k) - 64.0).abs() < 1e-12);
+    }
+
+    /// A turn refills whatever the depletion (not held back until RAW), skips
+    /// below the minimum depth, and comes only on its own days.
+    #[test]
+    fn turns_refill_on_their_days_only() {
+        let s = Strategy::Turns {
+            cycle_days: 7,
+            first_day: 3,
+            min_depletion_mm: 5.0,
+            target: TurnTarget::FieldCapacity,
+        };
+        let mut k = 0;
+        // Day 3 is a turn: 20 mm depleted (below RAW 64) is refilled.
+        assert!((s.net_irrigation_mm(3, 20.0, 160.0, 64.0, &mut k) - 20.0).abs() < 1e-12);
+        // Day 10 is the next turn; day 4 is not.
+        assert!(s.net_irrigation_mm(4, 90.0, 160.0, 64.0, &mut k).abs() < 1e-12);
+        assert!((s.net_irrigation_mm(10, 90.0, 160.0, 64.0, &mut k) - 90.0).abs() < 1e-12);
+        // Below the minimum depth the turn is skipped.
+        assert!(s.net_irrigation_mm(17, 4.9, 160.0, 64.0, &mut k).abs() < 1e-12);
+        assert!(s.invalid_field().is_none());
     }
 
     #[test]

@@ -86,6 +86,7 @@
 //! Results are planning estimates; designs built on them must be checked by a
 //! qualified engineer.
 
+pub mod delivery;
 pub mod dual;
 pub mod layout;
 mod run;
@@ -102,6 +103,7 @@ use crate::salinity::SalinityError;
 use crate::soil::Soil;
 use crate::yield_response::YieldError;
 
+pub use delivery::DeliveryRule;
 pub use dual::{CoefficientMode, DualFallback, ParseWettingError, Wetting};
 pub use layout::{Cohort, MAX_DAYS_PER_COHORT, cohort_offsets};
 pub use run::{
@@ -193,6 +195,11 @@ pub struct PlantingSpec<'a> {
     pub irrigation_wetting: Wetting,
     /// Where the single coefficient's Kc ini comes from.
     pub kc_ini: KcIniRule,
+    /// How the block's outlet delivers (see [`delivery`]).
+    pub delivery: DeliveryRule,
+    /// Share (0..=1) of each day's requests the outlet can deliver, one
+    /// value per weather day; `None`: all of it (see [`delivery`]).
+    pub supply_factor: Option<&'a [f64]>,
 }
 
 /// Where the Kc ini of a single-coefficient planting comes from.
@@ -231,6 +238,8 @@ impl<'a> PlantingSpec<'a> {
             coefficients: CoefficientMode::Single,
             irrigation_wetting: Wetting::Sprinkler,
             kc_ini: KcIniRule::FromWetting,
+            delivery: DeliveryRule::OnDemand,
+            supply_factor: None,
         }
     }
 }
@@ -344,6 +353,14 @@ pub enum PlantingWarning {
         /// Why.
         reason: DualFallback,
     },
+    /// The block's delivery rule does not apply to this planting; another
+    /// was used.
+    DeliveryRuleNotUsed {
+        /// Crop id.
+        crop: String,
+        /// What was used instead, and why.
+        reason: String,
+    },
     /// The delivered depth was less than the requirement of a paddy or
     /// period-method planting on some days; the shortfall is not carried.
     DeliveryShortfall {
@@ -357,6 +374,9 @@ pub enum PlantingWarning {
 impl std::fmt::Display for PlantingWarning {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
         match self {
+            Self::DeliveryRuleNotUsed { crop, reason } => {
+                write!(f, "{crop}: rotation within the block does not apply; {reason}")
+            }
             Self::SeasonCut { year, start, end } => write!(
                 f,
                 "the {year} season ({start} to {end}) runs past the ends of the weather record; it was simulated over the days inside and left out of statistics"
@@ -457,6 +477,10 @@ pub struct CohortDetail {
     /// Kc ini used (single coefficient: Table 12, or from the wetting
     /// events of the initial stage).
     pub kc_ini: f64,
+    /// Under a rotation within the block, each share's own daily balance
+    /// (share k served on the weather days g with g mod N = k); `days` is
+    /// their mean. Empty otherwise.
+    pub shares: Vec<Vec<BalanceDay>>,
     /// The daily balance.
     pub days: Vec<BalanceDay>,
     /// The evaporation layer per day (dual coefficient only, else empty).

@@ -8,6 +8,10 @@ use super::dual::{
     kc_max_base,
 };
 use super::layout::{SeasonPlan, anniversary, cohort_offsets, is_chain, seasons};
+use super::delivery::{
+    DeliveryRule, MAX_CYCLE_DAYS, mean_of_share_layers, mean_of_shares, share_first_day,
+    spread_over_cycles, turn_strategy,
+};
 use super::wetting_kc_ini::{
     KC_INI_TOLERANCE, MAX_PASSES, kc_ini_from_initial_stage, wetting_soil,
 };
@@ -52,6 +56,8 @@ struct Prepared<'s, 'w> {
     lr: f64,
     ky: f64,
     dual: Option<DualSetup>,
+    /// The delivery rule in force (the block's, or its stand-in).
+    delivery: DeliveryRule,
     warnings: Vec<PlantingWarning>,
 }
 
@@ -73,6 +79,8 @@ struct CohortOut {
     initial_evaporation_depletion_mm: f64,
     /// Kc ini of the run (single coefficient).
     kc_ini: f64,
+    /// Each share's days under a rotation within the block (else empty).
+    shares: Vec<Vec<BalanceDay>>,
 }
 
 /// One season (or chain) and its cohorts.
@@ -210,6 +218,23 @@ fn prepare<'s, 'w>(
             }
         }
     };
+    let delivery = delivery_in_force(spec, paddy, &mut warnings)?;
+    if let Some(f) = spec.supply_factor {
+        if f.len() != n {
+            return Err(PlantingError::WeatherLength {
+                series: "supply_factor",
+                expected: n,
+                found: f.len(),
+            });
+        }
+        if let Some(i) = f.iter().position(|v| !(v.is_finite() && (0.0..=1.0).contains(v))) {
+            return Err(PlantingError::BadWeather {
+                series: "supply_factor",
+                date: weather.start + Days::new(i as u64),
+                value: f[i],
+            });
+        }
+    }
     let runoff = spec.runoff.unwrap_or(RunoffRule {
         curve_number: Some(spec.soil.curve_number),
         max_infiltration_mm_day: Some(spec.soil.max_infiltration_mm_day),
@@ -222,8 +247,56 @@ fn prepare<'s, 'w>(
         lr,
         ky,
         dual,
+        delivery,
         warnings,
     })
+}
+
+/// The delivery rule a planting is computed with: the block's, checked; a
+/// rotation within the block becomes continuous flow for paddy rice and on
+/// demand for the period-total effective-rain methods (see [`super::delivery`]).
+fn delivery_in_force(
+    spec: &PlantingSpec<'_>,
+    paddy: bool,
+    warnings: &mut Vec<PlantingWarning>,
+) -> Result<DeliveryRule, PlantingError> {
+    let cycle = spec.delivery.cycle_days();
+    setting(
+        "delivery cycle_days",
+        f64::from(cycle),
+        (1..=MAX_CYCLE_DAYS).contains(&cycle),
+        "1 to 30 days",
+    )?;
+    let DeliveryRule::RotationWithinBlock {
+        cycle_days,
+        min_depth_mm,
+    } = spec.delivery
+    else {
+        return Ok(spec.delivery);
+    };
+    setting(
+        "delivery min_depth_mm",
+        min_depth_mm,
+        min_depth_mm >= 0.0,
+        "a depth of 0 mm or more",
+    )?;
+    if paddy {
+        warnings.push(PlantingWarning::DeliveryRuleNotUsed {
+            crop: spec.crop.id.clone(),
+            reason: "paddy rice is ponded and was delivered as continuous flow over the same cycle"
+                .to_owned(),
+        });
+        return Ok(DeliveryRule::ContinuousFlow { cycle_days });
+    }
+    if !matches!(spec.effective_rain, EffectiveRainMethod::WaterBalance) {
+        warnings.push(PlantingWarning::DeliveryRuleNotUsed {
+            crop: spec.crop.id.clone(),
+            reason: "the period-total effective-rain method has no daily soil balance, so it was computed on demand"
+                .to_owned(),
+        });
+        return Ok(DeliveryRule::OnDemand);
+    }
+    Ok(spec.delivery)
 }
 
 fn index_of(weather: &PlantingWeather<'_>, date: NaiveDate) -> i64 {
@@ -298,6 +371,72 @@ fn balance_cohort(
     length: Option<u32>,
     delivery: Option<&[f64]>,
 ) -> Result<CohortOut, PlantingError> {
+    let DeliveryRule::RotationWithinBlock {
+        cycle_days,
+        min_depth_mm,
+    } = p.delivery
+    else {
+        return balance_unit(p, index, start, share, length, delivery, None, None);
+    };
+    if delivery.is_some() {
+        return balance_unit(p, index, start, share, length, delivery, None, None);
+    }
+    // Each share of the block's area: its own turns and balance; Kc ini from
+    // share 0's wetting, used for all.
+    let n = cycle_days as usize;
+    let first = index_of(p.weather, start).max(0) as usize;
+    let turns = |k: usize| Some((n, share_first_day(k, n, first), min_depth_mm));
+    let first_share = balance_unit(p, index, start, share, length, None, turns(0), None)?;
+    let kc_ini = first_share.kc_ini;
+    let mut shares = vec![first_share];
+    for k in 1..n {
+        shares.push(balance_unit(
+            p,
+            index,
+            start,
+            share,
+            length,
+            None,
+            turns(k),
+            Some(kc_ini),
+        )?);
+    }
+    let days: Vec<Vec<BalanceDay>> = shares.iter().map(|s| s.days.clone()).collect();
+    let layers: Vec<Vec<EvaporationDay>> = shares.iter().map(|s| s.evaporation.clone()).collect();
+    let w = 1.0 / n as f64;
+    let mut events: Vec<(usize, f64)> = shares
+        .iter()
+        .flat_map(|s| s.events.iter().map(move |&(g, mm)| (g, mm * w)))
+        .collect();
+    events.sort_by_key(|e| e.0);
+    let mut out = shares.swap_remove(0);
+    out.days = mean_of_shares(&days);
+    out.evaporation = mean_of_share_layers(&layers);
+    out.events = events;
+    out.shares = days;
+    Ok(out)
+}
+
+/// One balance unit (a cohort, or one share of it under a rotation within
+/// the block: `turns` = (cycle days, first turn day, minimum depth)), with
+/// the Kc ini iteration unless `fixed_kc_ini` is given.
+#[expect(clippy::too_many_arguments, reason = "the unit's inputs, passed straight through")]
+fn balance_unit(
+    p: &Prepared<'_, '_>,
+    index: usize,
+    start: NaiveDate,
+    share: f64,
+    length: Option<u32>,
+    delivery: Option<&[f64]>,
+    turns: Option<(usize, usize, f64)>,
+    fixed_kc_ini: Option<f64>,
+) -> Result<CohortOut, PlantingError> {
+    if fixed_kc_ini.is_some() {
+        let (mut out, _) =
+            balance_cohort_once(p, index, start, share, length, delivery, turns, fixed_kc_ini)?;
+        out.kc_ini = fixed_kc_ini.unwrap_or(p.spec.crop.kc.ini);
+        return Ok(out);
+    }
     let adjust = p.dual.is_none()
         && p.spec.kc_ini == KcIniRule::FromWetting
         && matches!(p.spec.effective_rain, EffectiveRainMethod::WaterBalance)
@@ -310,7 +449,7 @@ fn balance_cohort(
     let mut pass = 1;
     loop {
         let (mut out, ini_days) =
-            balance_cohort_once(p, index, start, share, length, delivery, kc_ini)?;
+            balance_cohort_once(p, index, start, share, length, delivery, turns, kc_ini)?;
         out.kc_ini = kc_ini.unwrap_or(p.spec.crop.kc.ini);
         if !adjust || pass == MAX_PASSES {
             return Ok(out);
@@ -327,8 +466,9 @@ fn balance_cohort(
     }
 }
 
-/// One balance run of a cohort with a given Kc ini (`None`: Table 12);
-/// also returns the length of its first initial stage (days).
+/// One balance run of a cohort (or share) with a given Kc ini (`None`:
+/// Table 12); also returns the length of its first initial stage (days).
+#[expect(clippy::too_many_arguments, reason = "the unit's inputs, passed straight through")]
 fn balance_cohort_once(
     p: &Prepared<'_, '_>,
     index: usize,
@@ -336,6 +476,7 @@ fn balance_cohort_once(
     share: f64,
     length: Option<u32>,
     delivery: Option<&[f64]>,
+    turns: Option<(usize, usize, f64)>,
     kc_ini_override: Option<f64>,
 ) -> Result<(CohortOut, usize), PlantingError> {
     let series = crop_series(p, start, length, kc_ini_override)?;
@@ -358,6 +499,7 @@ fn balance_cohort_once(
         initial_depletion_mm: 0.0,
         initial_evaporation_depletion_mm: 0.0,
         kc_ini: p.spec.crop.kc.ini,
+        shares: Vec::new(),
     };
     if a >= b {
         return Ok((out, ini_days));
@@ -372,7 +514,12 @@ fn balance_cohort_once(
 
     if let EffectiveRainMethod::WaterBalance = p.spec.effective_rain {
         let strategy = match delivery {
-            None => p.spec.strategy.clone(),
+            None => match turns {
+                Some((cycle, first_day, min_mm)) => {
+                    turn_strategy(&p.spec.strategy, cycle, first_day, min_mm)
+                }
+                None => p.spec.strategy.clone(),
+            },
             Some(d) => Strategy::Scheduled(
                 d[a..b]
                     .iter()
@@ -393,6 +540,10 @@ fn balance_cohort_once(
             initial_depletion_mm: initial_fraction * taw_per_m * root[0],
             runoff: p.runoff,
             strategy,
+            supply_factor: p
+                .spec
+                .supply_factor
+                .map(|f| std::sync::Arc::from(&f[a..b])),
         };
         // Dual coefficient inputs (FAO-56 Chapter 7), when the option applies.
         let dual = p.dual.and_then(|d| {
@@ -565,7 +716,7 @@ fn paddy_season(
         .iter()
         .enumerate()
         .map(|(i, d)| {
-            let mut irrigation = d.nir_mm;
+            let mut irrigation = d.nir_mm * p.spec.supply_factor.map_or(1.0, |f| f[a + i]);
             if let Some(del) = delivery {
                 let got = del[a + i] * (1.0 - p.lr);
                 if got < irrigation {
@@ -615,6 +766,7 @@ fn paddy_season(
         initial_depletion_mm: 0.0,
         initial_evaporation_depletion_mm: 0.0,
         kc_ini: p.spec.crop.kc.ini,
+        shares: Vec::new(),
     });
     Ok(out)
 }
@@ -809,6 +961,10 @@ fn run_common(
         warnings: Vec::new(),
     };
     let to_nir = 1.0 / (1.0 - p.lr);
+    let spread_cycle = match p.delivery {
+        DeliveryRule::ContinuousFlow { cycle_days } => cycle_days as usize,
+        _ => 1,
+    };
     for out in &outs {
         for c in &out.cohorts {
             let w = c.share;
@@ -848,6 +1004,8 @@ fn run_common(
             result.seasons.push(s);
         }
     }
+    // Continuous flow: each cycle's requirement at a steady rate.
+    spread_over_cycles(&mut result.nir_mm, spread_cycle);
     result.warnings = p.warnings;
     Ok(result)
 }
@@ -993,6 +1151,7 @@ pub fn cohort_details(
             initial_evaporation_depletion_mm: c.initial_evaporation_depletion_mm,
             fw_irrigation: fw,
             kc_ini: c.kc_ini,
+            shares: c.shares.clone(),
             days: c.days.clone(),
             evaporation: c.evaporation.clone(),
         })

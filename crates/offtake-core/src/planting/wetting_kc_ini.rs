@@ -175,19 +175,20 @@ mod tests {
         }
     }
 
-    /// FAO-56 Example 24 (p. 116): centre pivot every 2 days, about 12 mm per
-    /// event, ET₀ = 4 mm/day → Kc ini 0.85 read from Figure 29 (the
-    /// published value; our figure model is within ±0.05, as in
-    /// `tests/kc_ini_examples.rs`).
+    /// FAO-56 Example 24 (p. 116): centre pivot every 2 days, ET₀ = 4 mm/day,
+    /// light events → Kc ini 0.85 read from Figure 29 (the published value;
+    /// our figure model is within ±0.05, as in `tests/kc_ini_examples.rs`).
+    /// The example's events are "about 12 mm" and it reads Figure 29 alone;
+    /// 10 mm events make eq. 59 give Figure 29 alone too.
     #[test]
     fn example_24_from_the_stage_days() {
         let days: Vec<BalanceDay> = (0..20)
-            .map(|i| day(4.0, 0.0, if i % 2 == 0 { 12.0 } else { 0.0 }))
+            .map(|i| day(4.0, 0.0, if i % 2 == 0 { 10.0 } else { 0.0 }))
             .collect();
         let w = kc_ini_from_initial_stage(&days, false, 1.0, WettingSoil::MediumFine).unwrap();
         assert_eq!(w.events, 10);
         assert!((w.interval_days - 2.0).abs() < 1e-12);
-        assert!((w.infiltrated_mm - 12.0).abs() < 1e-12);
+        assert!((w.infiltrated_mm - 10.0).abs() < 1e-12);
         assert!((w.kc_ini - 0.85).abs() <= 0.05, "{}", w.kc_ini);
     }
 

@@ -34,13 +34,16 @@ pub use validate::{CropSeasonLengths, ItemKind, ValidationContext, ValidationPro
 /// The schema version this build writes. Files with a lower version are
 /// migrated on load; files with a higher version are refused.
 ///
+/// * 3 — a block's delivery mode and outlet stream size
+///   ([`Block::delivery`], [`Block::outlet_stream_size_ls`]); schema-2 blocks
+///   are delivered on demand, as they were computed.
 /// * 2 — `weather.import` ([`ImportSettings`]: full column mapping with
 ///   units, date format, delimiter, decimal separator, missing markers)
 ///   replaces schema 1's minimal `weather.mapping`.
 /// * 1 — efficiencies as fractions, planting areas and month-day windows,
 ///   reservoir, scenarios.
 /// * 0 — the first layout.
-pub const CURRENT_SCHEMA: u32 = 2;
+pub const CURRENT_SCHEMA: u32 = 3;
 
 /// A whole project: what `offtake run` computes and what the app saves.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -190,6 +193,82 @@ pub struct Block {
     /// Field-canal efficiency Eb (fraction, in (0, 1]): water at the field
     /// inlets ÷ water at the block outlet.
     pub field_canal_efficiency: f64,
+    /// How the block's outlet delivers (schema 3; older files: on demand).
+    #[serde(default)]
+    pub delivery: DeliveryMode,
+    /// Stream size of the block's outlet (l/s), the most it can take; `None`:
+    /// assumed large enough (the block's largest daily delivery), marked as
+    /// assumed until the user enters one.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub outlet_stream_size_ls: Option<f64>,
+}
+
+/// Smallest depletion worth a turn of a rotation within the block (mm): a
+/// share less depleted waits for its next turn. Our planning default
+/// (common practice: a surface turn applies at least a few centimetres).
+pub const DEFAULT_MIN_TURN_DEPTH_MM: f64 = 10.0;
+/// Rotation cycle of a new surface-irrigated block (days); common practice
+/// for upland crops under surface irrigation is a turn every 7 to 10 days.
+pub const DEFAULT_ROTATION_CYCLE_DAYS: u32 = 7;
+
+fn default_min_turn_depth_mm() -> f64 {
+    DEFAULT_MIN_TURN_DEPTH_MM
+}
+
+/// How a block's outlet delivers water (see [`crate::planting::delivery`]).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize, Default)]
+pub enum DeliveryMode {
+    /// Each planting takes its water on the day its strategy asks, over its
+    /// whole area (how projects before schema 3 were computed).
+    #[default]
+    OnDemand,
+    /// The block's area served in a cycle of `cycle_days` days (1–30), each
+    /// day its own share, each share brought to the strategy's target on its
+    /// turn (skipped when less depleted than `min_depth_mm`).
+    RotationWithinBlock {
+        /// Days of the cycle (1–30).
+        cycle_days: u32,
+        /// Smallest depletion worth a turn (mm).
+        #[serde(default = "default_min_turn_depth_mm")]
+        min_depth_mm: f64,
+    },
+    /// The requirement of each cycle of `cycle_days` days (1–30) delivered
+    /// at a steady rate (paddy, lined schemes with continuous supply).
+    ContinuousFlow {
+        /// Days of the cycle (1–30).
+        cycle_days: u32,
+    },
+}
+
+impl DeliveryMode {
+    /// The planting module's rule.
+    pub fn rule(self) -> crate::planting::DeliveryRule {
+        use crate::planting::DeliveryRule;
+        match self {
+            Self::OnDemand => DeliveryRule::OnDemand,
+            Self::RotationWithinBlock {
+                cycle_days,
+                min_depth_mm,
+            } => DeliveryRule::RotationWithinBlock {
+                cycle_days,
+                min_depth_mm,
+            },
+            Self::ContinuousFlow { cycle_days } => DeliveryRule::ContinuousFlow { cycle_days },
+        }
+    }
+
+    /// A short description for tables and the inspector.
+    pub fn describe(self) -> String {
+        match self {
+            Self::OnDemand => "on demand".to_owned(),
+            Self::RotationWithinBlock { cycle_days, .. } => {
+                format!("rotation within the block, {cycle_days}-day cycle")
+            }
+            Self::ContinuousFlow { cycle_days } => {
+                format!("continuous flow, {cycle_days}-day cycle")
+            }
+        }
+    }
 }
 
 /// How much of a block a planting covers.

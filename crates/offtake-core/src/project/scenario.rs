@@ -8,7 +8,9 @@
 use serde::{Deserialize, Serialize};
 use thiserror::Error;
 
-use super::{IrrigationMethod, MonthDay, Planting, PlantingArea, Project, Strategy};
+use super::{
+    DeliveryMode, IrrigationMethod, MonthDay, Planting, PlantingArea, Project, Strategy,
+};
 use crate::weather::WeatherDay;
 
 /// A named alternative to the base case.
@@ -100,6 +102,17 @@ pub enum Override {
         /// New field-canal efficiency Eb (unchanged when absent).
         #[serde(default)]
         field_canal_efficiency: Option<f64>,
+    },
+    /// Change how a block's outlet delivers, and/or its stream size.
+    SetBlockDelivery {
+        /// Block id.
+        block: String,
+        /// New delivery mode (unchanged when absent).
+        #[serde(default)]
+        delivery: Option<DeliveryMode>,
+        /// New outlet stream size in l/s (unchanged when absent).
+        #[serde(default)]
+        outlet_stream_size_ls: Option<f64>,
     },
     /// Change a canal reach's conveyance efficiency Ec.
     SetCanalEfficiency {
@@ -379,6 +392,23 @@ fn apply_override(
             }
             if let Some(eb) = field_canal_efficiency {
                 b.field_canal_efficiency = *eb;
+            }
+        }
+        Override::SetBlockDelivery {
+            block,
+            delivery,
+            outlet_stream_size_ls,
+        } => {
+            let b = p
+                .blocks
+                .iter_mut()
+                .find(|b| &b.id == block)
+                .ok_or_else(|| missing("block", block))?;
+            if let Some(d) = delivery {
+                b.delivery = *d;
+            }
+            if let Some(q) = outlet_stream_size_ls {
+                b.outlet_stream_size_ls = Some(*q);
             }
         }
         Override::SetCanalEfficiency {

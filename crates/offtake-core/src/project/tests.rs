@@ -34,6 +34,8 @@ fn block(id: &str, canal: &str, area_ha: f64) -> Block {
             application_efficiency: 0.6,
         },
         field_canal_efficiency: 0.8,
+        delivery: crate::project::DeliveryMode::OnDemand,
+        outlet_stream_size_ls: None,
     }
 }
 
