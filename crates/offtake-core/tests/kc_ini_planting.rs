@@ -176,7 +176,10 @@ fn table12_rule_and_refill_iteration() {
     let r = run_planting(&spec, &w.view()).unwrap();
     let k = r.seasons[0].kc_ini;
     assert!((0.1..=1.15).contains(&k), "{k}");
-    assert!((k - 0.30).abs() > 1e-6, "refill should not keep Table 12 exactly: {k}");
+    assert!(
+        (k - 0.30).abs() > 1e-6,
+        "refill should not keep Table 12 exactly: {k}"
+    );
 }
 
 /// FAO-56 Table 22 (note / footnote 1): the larger rooting depth of the

@@ -236,6 +236,13 @@ pub fn parse_project(text: &str, path: &Path) -> Result<Project, ProjectFileErro
                 .map_err(parse_err)?,
         )
         .map_err(migration_err(1))?,
+        // Schema 2 lacks the blocks' delivery mode and stream size: its
+        // blocks are delivered on demand (as they were computed), with no
+        // stream size entered.
+        2 => Project {
+            schema: CURRENT_SCHEMA,
+            ..ron_options().from_str::<Project>(text).map_err(parse_err)?
+        },
         CURRENT_SCHEMA => ron_options().from_str::<Project>(text).map_err(parse_err)?,
         found => {
             return Err(ProjectFileError::NewerSchema {

@@ -32,6 +32,23 @@ pub const PERIOD_HEADERS: [&str; 6] = [
     "volume_m3",
     "depth_mm",
 ];
+/// Block outlets file: each block's delivery mode, stream size and what the
+/// outlet limited.
+pub const BLOCK_OUTLETS_CSV: &str = "block_outlets.csv";
+/// Block outlets header.
+pub const BLOCK_OUTLETS_HEADERS: [&str; 11] = [
+    "block",
+    "block_name",
+    "delivery",
+    "stream_size_ls",
+    "stream_size_assumed",
+    "hours_per_day",
+    "peak_delivery_ls",
+    "limited_days_per_year",
+    "limited_m3_per_year",
+    "delivered_m3_per_year",
+    "limited_pct",
+];
 /// Roster file.
 pub const ROSTER_CSV: &str = "roster.csv";
 /// Roster header.
@@ -127,6 +144,7 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
         );
     }
     design_table(&mut s, r);
+    outlets_summary(&mut s, r, project);
     let _ = writeln!(s, "Seasonal volume (mean per irrigation year):");
     for v in &r.season_volumes {
         let _ = writeln!(
@@ -390,6 +408,7 @@ pub fn tables(r: &Results, project: &Project) -> Vec<Table> {
         }
         out.push(t);
     }
+    out.push(outlets_table(r, project));
     if let Some(roster) = r.supply.as_ref().and_then(|s| s.roster.as_ref()) {
         let mut t = Table::with_headers("roster", &ROSTER_HEADERS);
         for e in &roster.entries {
@@ -442,6 +461,10 @@ pub fn write_tables(
         export::write_csv(t, &out.join(f))?;
         written.push(f.to_owned());
     }
+    if let Some(t) = all.iter().find(|t| t.name == "block outlets") {
+        export::write_csv(t, &out.join(BLOCK_OUTLETS_CSV))?;
+        written.push(BLOCK_OUTLETS_CSV.to_owned());
+    }
     let roster = all.iter().find(|t| t.name == "roster");
     if let Some(t) = roster {
         export::write_csv(t, &out.join(ROSTER_CSV))?;
@@ -453,8 +476,95 @@ pub fn write_tables(
     book.push(&all[0]);
     book.push(&all[3]);
     book.push(&all[4]);
+    book.extend(all.iter().find(|t| t.name == "block outlets"));
     book.extend(roster);
     export::write_workbook(&book, &out.join(RESULTS_WORKBOOK))?;
     written.push(RESULTS_WORKBOOK.to_owned());
     Ok(written)
+}
+
+/// The block outlets table ([`BLOCK_OUTLETS_HEADERS`]).
+fn outlets_table(r: &Results, project: &Project) -> Table {
+    let mut t = Table::with_headers("block outlets", &BLOCK_OUTLETS_HEADERS);
+    for o in &r.outlets {
+        let name = project
+            .blocks
+            .iter()
+            .find(|b| b.id == o.block)
+            .map_or_else(|| o.block.clone(), |b| b.name.clone());
+        t.push_row(vec![
+            Cell::Text(o.block.clone()),
+            Cell::Text(name),
+            Cell::Text(o.delivery.describe()),
+            Cell::rounded(o.stream_size_ls, dec::FLOW_LS),
+            Cell::Text(if o.stream_size_assumed { "yes" } else { "no" }.to_owned()),
+            Cell::rounded(o.hours_per_day, 1),
+            Cell::rounded(o.peak_delivery_ls, dec::FLOW_LS),
+            Cell::rounded(o.limited_days_per_year, 1),
+            Cell::rounded(o.limited_m3_per_year, dec::VOLUME_M3),
+            Cell::rounded(o.delivered_m3_per_year, dec::VOLUME_M3),
+            Cell::rounded(100.0 * o.limited_share(), 2),
+        ]);
+    }
+    t
+}
+
+/// How the blocks are delivered and what their outlets limited.
+fn outlets_summary(s: &mut String, r: &Results, project: &Project) {
+    if r.outlets.is_empty() {
+        return;
+    }
+    let mut modes: Vec<(String, usize)> = Vec::new();
+    for o in &r.outlets {
+        let d = o.delivery.describe();
+        match modes.iter_mut().find(|m| m.0 == d) {
+            Some(m) => m.1 += 1,
+            None => modes.push((d, 1)),
+        }
+    }
+    let modes: Vec<String> = modes
+        .iter()
+        .map(|(d, n)| format!("{n} block{} {d}", if *n == 1 { "" } else { "s" }))
+        .collect();
+    let _ = writeln!(
+        s,
+        "Delivery to blocks (node flows are what the outlets deliver under these rules): {}",
+        modes.join("; ")
+    );
+    let assumed = r.outlets.iter().filter(|o| o.stream_size_assumed).count();
+    let limited: Vec<_> = r
+        .outlets
+        .iter()
+        .filter(|o| o.limited_m3_per_year > 0.0)
+        .collect();
+    if limited.is_empty() {
+        let _ = writeln!(
+            s,
+            "  outlets: none limited delivery{}",
+            if assumed > 0 {
+                format!(
+                    " ({assumed} stream size{} assumed: the block's largest daily delivery)",
+                    if assumed == 1 { "" } else { "s" }
+                )
+            } else {
+                String::new()
+            }
+        );
+    }
+    for o in limited {
+        let name = project
+            .blocks
+            .iter()
+            .find(|b| b.id == o.block)
+            .map_or(o.block.as_str(), |b| b.name.as_str());
+        let _ = writeln!(
+            s,
+            "  outlet of {name}: stream size {} l/s over {} h limited delivery on {:.1} days a year, {} m3 a year ({:.2} % of its requests)",
+            fmt_sig3(o.stream_size_ls),
+            o.hours_per_day,
+            o.limited_days_per_year,
+            fmt_int(o.limited_m3_per_year),
+            100.0 * o.limited_share()
+        );
+    }
 }

@@ -593,7 +593,9 @@ fn validate(series: &DailySeries<'_>, params: &BalanceParams) -> Result<(), Bala
         )?;
     }
     if let Some(f) = params.supply_factor.as_deref()
-        && let Some(day) = f.iter().position(|v| !(v.is_finite() && (0.0..=1.0).contains(v)))
+        && let Some(day) = f
+            .iter()
+            .position(|v| !(v.is_finite() && (0.0..=1.0).contains(v)))
     {
         return Err(BalanceError::BadDailyValue {
             series: "supply_factor",

@@ -36,6 +36,7 @@
 //! checked by a qualified engineer against local codes and measured data.
 
 pub mod compare;
+pub mod outlets;
 pub mod planting_step;
 pub mod plantings;
 pub mod storage;
@@ -227,6 +228,8 @@ pub struct Results {
     pub design: Vec<NodeDesign>,
     /// One summary per planting.
     pub plantings: Vec<PlantingSummary>,
+    /// One outlet per block with plantings, in block order.
+    pub outlets: Vec<outlets::OutletSummary>,
     /// Mean yearly volumes per season label.
     pub season_volumes: Vec<SeasonVolume>,
     /// Reservoir evaporation, if the scheme has a reservoir.
@@ -451,6 +454,10 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
         keep_daily,
     )?;
     warnings.extend(computed.warnings.iter().cloned());
+    warnings.extend(outlets::rotation_stress_warnings(
+        project,
+        &computed.summaries,
+    ));
     let t_plantings = t1.elapsed();
 
     let t2 = Instant::now();
@@ -526,6 +533,7 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
         demand,
         design,
         plantings: computed.summaries,
+        outlets: computed.outlets,
         season_volumes,
         storage,
         supply,

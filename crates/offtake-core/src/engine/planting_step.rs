@@ -222,18 +222,18 @@ pub fn coefficient_mode(
     (mode, wetting, warning)
 }
 
-/// The planting module's input for a project planting on `soil`: window,
-/// season length, strategy, effective rain, coefficient mode and, for paddy
-/// rice, the paddy inputs. The one place a project planting becomes a
+/// The planting module's input for a project planting on `soil` in `block`:
+/// window, season length, strategy, effective rain, coefficient mode and
+/// wetting, the block's delivery rule and, for paddy rice, the paddy inputs. The one place a project planting becomes a
 /// [`PlantingSpec`] (the engine and the app's season view both use it).
 pub fn planting_spec<'a>(
     crop: &'a Crop,
     soil: &'a Soil,
     planting: &Planting,
+    block: &Block,
     effective_rain: EffectiveRain,
-    coefficients: CoefficientMode,
-    wetting: Wetting,
 ) -> PlantingSpec<'a> {
+    let (coefficients, wetting, _) = coefficient_mode(planting, block);
     let mut spec = PlantingSpec::new(
         crop,
         soil,
@@ -246,6 +246,7 @@ pub fn planting_spec<'a>(
     spec.effective_rain = effective_rain_method(effective_rain, crop, soil);
     spec.coefficients = coefficients;
     spec.irrigation_wetting = wetting;
+    spec.delivery = block.delivery.rule();
     if is_paddy(crop) {
         spec.paddy = Some(paddy_inputs(planting).paddy_options());
     }
@@ -265,6 +266,9 @@ pub fn planting_weather(w: &PreparedWeather) -> PlantingWeather<'_> {
 
 /// Simulates one planting over the whole weather record, per hectare.
 ///
+/// `supply_factor`, when given, is the share of each day's requests the
+/// block's outlet can deliver ([`super::outlets`]).
+///
 /// `delivered_net_mm`, when given, is the net depth (mm/day per hectare of
 /// the planting) that actually reached the fields; the balance is re-run
 /// with that water instead of the strategy, so ETc adj and the yield loss
@@ -276,13 +280,14 @@ pub fn simulate_planting(
     crop: &Crop,
     soil: &Soil,
     planting: &Planting,
+    block: &Block,
     effective_rain: EffectiveRain,
-    coefficients: CoefficientMode,
-    wetting: Wetting,
     w: &PreparedWeather,
     delivered_net_mm: Option<&[f64]>,
+    supply_factor: Option<&[f64]>,
 ) -> Result<PlantingOutcome, String> {
-    let spec = planting_spec(crop, soil, planting, effective_rain, coefficients, wetting);
+    let mut spec = planting_spec(crop, soil, planting, block, effective_rain);
+    spec.supply_factor = supply_factor;
     let weather = planting_weather(w);
     let result = match delivered_net_mm {
         Some(d) => run_planting_with_delivery(&spec, &weather, d),
@@ -315,7 +320,9 @@ pub fn simulate_planting(
         match warning {
             PlantingWarning::SeasonCut { .. } => {}
             // Said once per crop (the engine removes repeats).
-            PlantingWarning::KyUnknown { .. } => out.warnings.push(warning.to_string()),
+            PlantingWarning::KyUnknown { .. } | PlantingWarning::DeliveryRuleNotUsed { .. } => {
+                out.warnings.push(warning.to_string());
+            }
             other => out
                 .warnings
                 .push(format!("planting {}: {other}", planting.id)),

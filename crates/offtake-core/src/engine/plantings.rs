@@ -8,6 +8,7 @@
 use rayon::prelude::*;
 
 use super::EngineError;
+use super::outlets::{OutletSummary, OutletUnit, apply_outlet};
 use super::planting_step::{
     PlantingOutcome, SeasonOutcome, application_efficiency_override, coefficient_mode,
     raw_and_peak_etc, simulate_planting,
@@ -15,7 +16,6 @@ use super::planting_step::{
 use super::weather_prep::PreparedWeather;
 use crate::calendar::IrrigationYear;
 use crate::crop::Crop;
-use crate::planting::{CoefficientMode, Wetting};
 use crate::project::Project;
 use crate::scheme::{DemandAccumulator, Network, NirSeries, Node, SchemeDemand, SchemeError};
 use crate::soil::Soil;
@@ -69,6 +69,8 @@ pub struct ComputedPlantings {
     pub daily: Vec<Vec<f64>>,
     /// Warnings.
     pub warnings: Vec<String>,
+    /// One outlet per block with plantings, in block order.
+    pub outlets: Vec<OutletSummary>,
 }
 
 /// Blocks computed together before their series are added to the demand.
@@ -86,8 +88,14 @@ pub fn complete_range(w: &PreparedWeather, years: &[IrrigationYear]) -> std::ops
     }
 }
 
-/// Series and summaries of one block's plantings.
-type BlockOut = (Vec<NirSeries>, Vec<(usize, PlantingSummary, Vec<f64>)>);
+/// Series and summaries of one block's plantings, its outlet and the
+/// outlet's warning.
+type BlockOut = (
+    Vec<NirSeries>,
+    Vec<(usize, PlantingSummary, Vec<f64>)>,
+    OutletSummary,
+    Option<String>,
+);
 
 /// Resolved inputs of one planting.
 struct Job<'a> {
@@ -108,8 +116,7 @@ struct Distinct<'a> {
     planting: usize,
     crop: &'a Crop,
     soil: &'a Soil,
-    mode: CoefficientMode,
-    wetting: Wetting,
+    block: usize,
 }
 
 /// Runs every planting and sums their NIR by block and crop.
@@ -162,7 +169,7 @@ pub fn compute_plantings(
             mode_warnings.push(w);
         }
         let key = format!(
-            "{}|{}|{:?}|{}|{:?}|{:?}|{:?}|{:?}|{:?}",
+            "{}|{}|{:?}|{}|{:?}|{:?}|{:?}|{:?}|{:?}|{:?}",
             p.crop,
             b.soil,
             p.first_planting,
@@ -171,7 +178,8 @@ pub fn compute_plantings(
             p.strategy,
             p.paddy,
             mode,
-            wetting
+            wetting,
+            b.delivery
         );
         let next = distinct.len();
         let d = *keys.entry(key).or_insert(next);
@@ -180,8 +188,7 @@ pub fn compute_plantings(
                 planting: index,
                 crop,
                 soil,
-                mode,
-                wetting,
+                block,
             });
         }
         by_block[block].push(Job {
@@ -204,10 +211,10 @@ pub fn compute_plantings(
                 d.crop,
                 d.soil,
                 p,
+                &project.blocks[d.block],
                 project.options.effective_rain,
-                d.mode,
-                d.wetting,
                 w,
+                None,
                 None,
             )
             .map_err(|cause| EngineError::Planting {
@@ -228,10 +235,19 @@ pub fn compute_plantings(
     let block_out = |jobs: &Vec<Job<'_>>| -> Result<BlockOut, EngineError> {
         let mut series: Vec<NirSeries> = Vec::new();
         let mut summaries = Vec::with_capacity(jobs.len());
-        for job in jobs {
+        let (limited, outlet, outlet_warning) = block_outlet(
+            project,
+            w,
+            jobs,
+            &outcomes,
+            &distinct,
+            range.clone(),
+            n_years,
+        )?;
+        for (k, job) in jobs.iter().enumerate() {
             let p = &project.plantings[job.index];
             let block_id = &project.blocks[job.block].id;
-            let outcome = &outcomes[job.distinct];
+            let outcome = limited.as_ref().map_or(&outcomes[job.distinct], |l| &l[k]);
             let nir_mm_year: f64 = outcome.nir_mm[range.clone()].iter().sum::<f64>() / n_years;
             let nir_m3_per_year = depth_mm_over_area_ha_to_m3(nir_mm_year, job.area_ha);
             // Blocks are named by id in the network (see `network_of`).
@@ -290,7 +306,7 @@ pub fn compute_plantings(
                 },
             ));
         }
-        Ok((series, summaries))
+        Ok((series, summaries, outlet, outlet_warning))
     };
 
     let mut out = ComputedPlantings::default();
@@ -307,7 +323,9 @@ pub fn compute_plantings(
             .map(block_out)
             .collect();
         for r in per_block {
-            let (series, summaries) = r?;
+            let (series, summaries, outlet, outlet_warning) = r?;
+            out.outlets.push(outlet);
+            out.warnings.extend(outlet_warning);
             for s in &series {
                 demand.add(s);
             }
@@ -328,4 +346,68 @@ pub fn compute_plantings(
         ));
     }
     Ok(out)
+}
+
+/// The outlet of one block ([`super::outlets`]): its plantings limited by its
+/// stream size over its canal's hours, when it binds.
+#[expect(clippy::too_many_arguments, reason = "the block's computed inputs")]
+fn block_outlet(
+    project: &Project,
+    w: &PreparedWeather,
+    jobs: &[Job<'_>],
+    outcomes: &[PlantingOutcome],
+    distinct: &[Distinct<'_>],
+    range: std::ops::Range<usize>,
+    n_years: f64,
+) -> Result<(Option<Vec<PlantingOutcome>>, OutletSummary, Option<String>), EngineError> {
+    let block = &project.blocks[jobs[0].block];
+    let hours = project
+        .canals
+        .iter()
+        .find(|c| c.id == block.canal)
+        .map_or(24.0, |c| c.operating_hours_per_day);
+    let units: Vec<OutletUnit<'_>> = jobs
+        .iter()
+        .map(|job| {
+            let ea = job
+                .ea_override
+                .unwrap_or(block.method.application_efficiency);
+            let losses = ea * block.field_canal_efficiency;
+            OutletUnit {
+                m3_per_mm: depth_mm_over_area_ha_to_m3(1.0, job.area_ha)
+                    / if losses > 0.0 { losses } else { 1.0 },
+                outcome: &outcomes[job.distinct],
+            }
+        })
+        .collect();
+    let rerun = |k: usize, factor: &[f64]| -> Result<PlantingOutcome, EngineError> {
+        let job = &jobs[k];
+        let p = &project.plantings[job.index];
+        let d = &distinct[job.distinct];
+        simulate_planting(
+            d.crop,
+            job.soil,
+            p,
+            block,
+            project.options.effective_rain,
+            w,
+            None,
+            Some(factor),
+        )
+        .map_err(|cause| EngineError::Planting {
+            planting: p.id.clone(),
+            cause,
+        })
+    };
+    apply_outlet(
+        &block.id,
+        block.delivery,
+        block.outlet_stream_size_ls,
+        hours,
+        &units,
+        w.days(),
+        range,
+        n_years,
+        &rerun,
+    )
 }

@@ -31,7 +31,7 @@ use rayon::prelude::*;
 use chrono::Datelike;
 
 use super::EngineError;
-use super::planting_step::{coefficient_mode, simulate_planting};
+use super::planting_step::simulate_planting;
 use super::plantings::{PlantingSummary, complete_range};
 use super::weather_prep::PreparedWeather;
 use crate::calendar::IrrigationYear;
@@ -398,16 +398,15 @@ pub fn supply_and_rerun(
                     crop: p.crop.clone(),
                 });
             };
-            let (mode, wetting, _) = coefficient_mode(p, block);
             let out = simulate_planting(
                 crop,
                 soil,
                 p,
+                block,
                 project.options.effective_rain,
-                mode,
-                wetting,
                 w,
                 Some(mm),
+                None,
             )
             .map_err(|cause| EngineError::Planting {
                 planting: p.id.clone(),

@@ -32,7 +32,9 @@
 
 use serde::{Deserialize, Serialize};
 
-use crate::balance::{BalanceDay, EvaporationDay, IntervalDepth, RefillTarget, Strategy, TurnTarget};
+use crate::balance::{
+    BalanceDay, EvaporationDay, IntervalDepth, RefillTarget, Strategy, TurnTarget,
+};
 
 /// Longest rotation cycle within a block (days).
 pub const MAX_CYCLE_DAYS: u32 = 30;

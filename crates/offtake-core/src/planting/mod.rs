@@ -375,7 +375,7 @@ impl std::fmt::Display for PlantingWarning {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
         match self {
             Self::DeliveryRuleNotUsed { crop, reason } => {
-                write!(f, "{crop}: rotation within the block does not apply; {reason}")
+                write!(f, "{crop} on blocks served by rotation within the block: {reason}")
             }
             Self::SeasonCut { year, start, end } => write!(
                 f,

@@ -3,15 +3,15 @@
 
 use chrono::{Datelike, Days, NaiveDate};
 
+use super::delivery::{
+    DeliveryRule, MAX_CYCLE_DAYS, mean_of_share_layers, mean_of_shares, share_first_day,
+    spread_over_cycles, turn_strategy,
+};
 use super::dual::{
     CoefficientMode, DualFallback, KC_MIN, STANDARD_RHMIN_PCT, STANDARD_WIND_2M_MS, crop_height_m,
     kc_max_base,
 };
 use super::layout::{SeasonPlan, anniversary, cohort_offsets, is_chain, seasons};
-use super::delivery::{
-    DeliveryRule, MAX_CYCLE_DAYS, mean_of_share_layers, mean_of_shares, share_first_day,
-    spread_over_cycles, turn_strategy,
-};
 use super::wetting_kc_ini::{
     KC_INI_TOLERANCE, MAX_PASSES, kc_ini_from_initial_stage, wetting_soil,
 };
@@ -227,7 +227,10 @@ fn prepare<'s, 'w>(
                 found: f.len(),
             });
         }
-        if let Some(i) = f.iter().position(|v| !(v.is_finite() && (0.0..=1.0).contains(v))) {
+        if let Some(i) = f
+            .iter()
+            .position(|v| !(v.is_finite() && (0.0..=1.0).contains(v)))
+        {
             return Err(PlantingError::BadWeather {
                 series: "supply_factor",
                 date: weather.start + Days::new(i as u64),
@@ -420,7 +423,10 @@ fn balance_cohort(
 /// One balance unit (a cohort, or one share of it under a rotation within
 /// the block: `turns` = (cycle days, first turn day, minimum depth)), with
 /// the Kc ini iteration unless `fixed_kc_ini` is given.
-#[expect(clippy::too_many_arguments, reason = "the unit's inputs, passed straight through")]
+#[expect(
+    clippy::too_many_arguments,
+    reason = "the unit's inputs, passed straight through"
+)]
 fn balance_unit(
     p: &Prepared<'_, '_>,
     index: usize,
@@ -432,8 +438,16 @@ fn balance_unit(
     fixed_kc_ini: Option<f64>,
 ) -> Result<CohortOut, PlantingError> {
     if fixed_kc_ini.is_some() {
-        let (mut out, _) =
-            balance_cohort_once(p, index, start, share, length, delivery, turns, fixed_kc_ini)?;
+        let (mut out, _) = balance_cohort_once(
+            p,
+            index,
+            start,
+            share,
+            length,
+            delivery,
+            turns,
+            fixed_kc_ini,
+        )?;
         out.kc_ini = fixed_kc_ini.unwrap_or(p.spec.crop.kc.ini);
         return Ok(out);
     }
@@ -468,7 +482,10 @@ fn balance_unit(
 
 /// One balance run of a cohort (or share) with a given Kc ini (`None`:
 /// Table 12); also returns the length of its first initial stage (days).
-#[expect(clippy::too_many_arguments, reason = "the unit's inputs, passed straight through")]
+#[expect(
+    clippy::too_many_arguments,
+    reason = "the unit's inputs, passed straight through"
+)]
 fn balance_cohort_once(
     p: &Prepared<'_, '_>,
     index: usize,
@@ -540,10 +557,7 @@ fn balance_cohort_once(
             initial_depletion_mm: initial_fraction * taw_per_m * root[0],
             runoff: p.runoff,
             strategy,
-            supply_factor: p
-                .spec
-                .supply_factor
-                .map(|f| std::sync::Arc::from(&f[a..b])),
+            supply_factor: p.spec.supply_factor.map(|f| std::sync::Arc::from(&f[a..b])),
         };
         // Dual coefficient inputs (FAO-56 Chapter 7), when the option applies.
         let dual = p.dual.and_then(|d| {

@@ -8,9 +8,7 @@
 use serde::{Deserialize, Serialize};
 use thiserror::Error;
 
-use super::{
-    DeliveryMode, IrrigationMethod, MonthDay, Planting, PlantingArea, Project, Strategy,
-};
+use super::{DeliveryMode, IrrigationMethod, MonthDay, Planting, PlantingArea, Project, Strategy};
 use crate::weather::WeatherDay;
 
 /// A named alternative to the base case.
