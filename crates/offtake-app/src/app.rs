@@ -438,6 +438,12 @@ impl OfftakeApp {
                         let ctx = inspector::Context {
                             libraries: &libraries,
                             problems: self.computed.as_ref().map_or(&[][..], |c| &c.warnings[..]),
+                            outlets: self
+                                .computed
+                                .as_ref()
+                                .and_then(|c| c.engine.as_ref())
+                                .and_then(|e| e.as_ref().ok())
+                                .map_or(&[][..], |r| &r.results.outlets[..]),
                         };
                         inspector::ui(ui, project, &self.state.selection, &ctx, &mut commands);
                     });

@@ -463,7 +463,7 @@ pub fn season_view(
     req: &SeasonRequest,
     default_year: Option<i32>,
 ) -> Result<SeasonView, String> {
-    use offtake_core::engine::planting_step::{coefficient_mode, planting_spec, planting_weather};
+    use offtake_core::engine::planting_step::{planting_spec, planting_weather};
     use offtake_core::planting::season_detail;
     let p = project
         .plantings
@@ -481,8 +481,7 @@ pub fn season_view(
     let soil = libraries
         .soil(&b.soil)
         .ok_or_else(|| format!("soil {:?} is not in the soil library", b.soil))?;
-    let (mode, wetting, _) = coefficient_mode(p, b);
-    let spec = planting_spec(crop, soil, p, project.options.effective_rain, mode, wetting);
+    let spec = planting_spec(crop, soil, p, b, project.options.effective_rain);
     let weather = planting_weather(w);
     let year = req.year.or(default_year).ok_or_else(|| {
         "no complete irrigation year in the weather record to take the season from".to_owned()

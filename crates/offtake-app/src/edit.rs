@@ -99,6 +99,11 @@ pub enum DocEdit {
     /// all plantings of …"). The inverse gives each planting its old crop
     /// back; nothing changes when any planting is missing.
     SetPlantingCrops(Vec<(String, String)>),
+    /// Give several blocks another delivery mode in one step: `(block id,
+    /// mode)` pairs (the scheme inspector's offer to serve an on-demand
+    /// project by rotation within the block). The inverse restores each
+    /// block's old mode; nothing changes when any block is missing.
+    SetBlockDeliveries(Vec<(String, offtake_core::project::DeliveryMode)>),
     // --- scenario editor (crate::scenario_editor) ---
     /// Replace the scenario named `name` with a new record (its overrides,
     /// weather change, description; a new name renames it). The inverse is
@@ -304,6 +309,7 @@ impl Edit<Project> for DocEdit {
             }
             DocEdit::SetScenario { name, scenario } => set_scenario(doc, &name, *scenario)?,
             DocEdit::SetPlantingCrops(pairs) => set_planting_crops(doc, pairs)?,
+            DocEdit::SetBlockDeliveries(pairs) => set_block_deliveries(doc, pairs)?,
         })
     }
 
@@ -330,6 +336,9 @@ impl Edit<Project> for DocEdit {
             DocEdit::SetUserCrops(_) => "edit my crops".to_owned(),
             DocEdit::SetUserSoils(_) => "edit my soils".to_owned(),
             DocEdit::SetScenario { name, .. } => format!("edit scenario {name}"),
+            DocEdit::SetBlockDeliveries(pairs) => {
+                format!("change the delivery of {} blocks", pairs.len())
+            }
             DocEdit::SetPlantingCrops(pairs) => match pairs.first() {
                 Some((_, crop)) if pairs.iter().all(|(_, c)| c == crop) => {
                     format!("grow {crop} on {} plantings", pairs.len())
@@ -380,6 +389,23 @@ fn set_planting_crops(
     // Undo in the reverse order (a planting listed twice ends as it began).
     old.reverse();
     Ok(DocEdit::SetPlantingCrops(old))
+}
+
+fn set_block_deliveries(
+    doc: &mut Project,
+    pairs: Vec<(String, offtake_core::project::DeliveryMode)>,
+) -> Result<DocEdit, EditError> {
+    if let Some((id, _)) = pairs.iter().find(|(id, _)| doc.block(id).is_none()) {
+        return Err(EditError::Missing(format!("block {id:?}")));
+    }
+    let mut old = Vec::with_capacity(pairs.len());
+    for (id, mode) in pairs {
+        if let Some(b) = doc.blocks.iter_mut().find(|b| b.id == id) {
+            old.push((id, std::mem::replace(&mut b.delivery, mode)));
+        }
+    }
+    old.reverse();
+    Ok(DocEdit::SetBlockDeliveries(old))
 }
 
 /// A fresh id with `prefix` not used by any canal, block or planting.
@@ -435,7 +461,8 @@ pub fn new_canal(doc: &Project, parent: Option<&str>) -> Canal {
 
 /// A new block record on `canal`, with no area yet, surface irrigated at
 /// typical efficiencies ([`NEW_BLOCK_APPLICATION_EFFICIENCY`],
-/// [`NEW_BLOCK_FIELD_CANAL_EFFICIENCY`]) for the user to replace.
+/// [`NEW_BLOCK_FIELD_CANAL_EFFICIENCY`]) for the user to replace, served by
+/// a 7-day rotation within the block with an assumed outlet stream size.
 pub fn new_block(doc: &Project, canal: &str) -> Block {
     use offtake_core::project::IrrigationMethod;
     let id = fresh_id(doc, "block");
@@ -450,7 +477,12 @@ pub fn new_block(doc: &Project, canal: &str) -> Block {
             application_efficiency: NEW_BLOCK_APPLICATION_EFFICIENCY,
         },
         field_canal_efficiency: NEW_BLOCK_FIELD_CANAL_EFFICIENCY,
-        delivery: offtake_core::project::DeliveryMode::OnDemand,
+        // A new surface-irrigated block is served by rotation within the
+        // block (DESIGN.md "Delivery").
+        delivery: offtake_core::project::DeliveryMode::RotationWithinBlock {
+            cycle_days: offtake_core::project::DEFAULT_ROTATION_CYCLE_DAYS,
+            min_depth_mm: offtake_core::project::DEFAULT_MIN_TURN_DEPTH_MM,
+        },
         outlet_stream_size_ls: None,
     }
 }

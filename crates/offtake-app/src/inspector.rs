@@ -10,6 +10,7 @@ use offtake_core::project::{
     Planting, PlantingArea, Project, ReportingStep, Strategy,
 };
 
+use offtake_core::engine::outlets::OutletSummary;
 use offtake_io::library::Libraries;
 
 use crate::command::{Command, ItemRef, Selection};
@@ -65,6 +66,12 @@ pub mod bounds {
     pub const TRIGGER_TAW: Bounds = Bounds::new("Trigger", "% of TAW", 1.0, 100.0);
     /// Share of depletion refilled.
     pub const REFILL: Bounds = Bounds::new("Refill", "% of depletion", 1.0, 100.0);
+    /// Rotation cycle within a block, or continuous-flow cycle.
+    pub const DELIVERY_CYCLE: Bounds = Bounds::new("Cycle", "days", 1.0, 30.0);
+    /// Smallest depletion worth a turn.
+    pub const MIN_TURN: Bounds = Bounds::new("Smallest turn", "mm", 0.0, 200.0);
+    /// Outlet stream size.
+    pub const STREAM_SIZE: Bounds = Bounds::new("Outlet stream size", "l/s", 0.1, 100_000.0);
     /// Rotation period.
     pub const ROTATION: Bounds = Bounds::new("Rotation period", "days", 1.0, 60.0);
     /// Fixed share of rain that is effective.
@@ -78,6 +85,8 @@ pub struct Context<'a> {
     pub libraries: &'a Libraries,
     /// Problems found by the last validation run.
     pub problems: &'a [String],
+    /// The block outlets of the last run (empty when none).
+    pub outlets: &'a [OutletSummary],
 }
 
 /// Shows the problems that name this item's id.
@@ -175,6 +184,7 @@ fn gone(ui: &mut Ui) {
 
 fn scheme_ui(ui: &mut Ui, doc: &Project, commands: &mut Vec<Command>) {
     ui.label(RichText::new("Scheme").heading());
+    on_demand_notice(ui, doc, commands);
     if let Some(name) =
         name_field(ui, fid("scheme", "name"), "Scheme name", &doc.scheme.name).committed
     {
@@ -392,6 +402,7 @@ fn block_ui(ui: &mut Ui, doc: &Project, b: &Block, ctx: &Context<'_>, commands: 
         commands.push(set_block(n));
     }
     ui.label(RichText::new("Block GIR = NIR ÷ (Ea × Eb).").weak());
+    delivery_ui(ui, b, ctx, commands);
     if b.method.name == crate::edit::NEW_BLOCK_METHOD
         && b.method.application_efficiency == crate::edit::NEW_BLOCK_APPLICATION_EFFICIENCY
         && b.field_canal_efficiency == crate::edit::NEW_BLOCK_FIELD_CANAL_EFFICIENCY
@@ -870,4 +881,237 @@ fn month_name(m: u32) -> &'static str {
         .get(m.wrapping_sub(1) as usize)
         .copied()
         .unwrap_or("(invalid month)")
+}
+
+/// The block's delivery mode and outlet (see `offtake_core::planting::delivery`).
+fn delivery_ui(ui: &mut Ui, b: &Block, ctx: &Context<'_>, commands: &mut Vec<Command>) {
+    use offtake_core::project::{
+        DEFAULT_MIN_TURN_DEPTH_MM, DEFAULT_ROTATION_CYCLE_DAYS, DeliveryMode,
+    };
+    ui.separator();
+    ui.label(RichText::new("Delivery through the outlet").strong());
+    let kind = |d: DeliveryMode| match d {
+        DeliveryMode::RotationWithinBlock { .. } => 0,
+        DeliveryMode::ContinuousFlow { .. } => 1,
+        DeliveryMode::OnDemand => 2,
+    };
+    let labels = [
+        "Rotation within the block",
+        "Continuous flow",
+        "On demand (each planting on the day it asks)",
+    ];
+    let mut chosen = kind(b.delivery);
+    egui::ComboBox::from_label("Delivery")
+        .selected_text(labels[chosen])
+        .show_ui(ui, |ui| {
+            for (k, l) in labels.iter().enumerate() {
+                ui.selectable_value(&mut chosen, k, *l);
+            }
+        });
+    let cycle = b.delivery_cycle_days();
+    if chosen != kind(b.delivery) {
+        let cycle = if cycle > 1 {
+            cycle
+        } else {
+            DEFAULT_ROTATION_CYCLE_DAYS
+        };
+        let mut n = b.clone();
+        n.delivery = match chosen {
+            0 => DeliveryMode::RotationWithinBlock {
+                cycle_days: cycle,
+                min_depth_mm: DEFAULT_MIN_TURN_DEPTH_MM,
+            },
+            1 => DeliveryMode::ContinuousFlow { cycle_days: cycle },
+            _ => DeliveryMode::OnDemand,
+        };
+        commands.push(set_block(n));
+    }
+    match b.delivery {
+        DeliveryMode::RotationWithinBlock {
+            cycle_days,
+            min_depth_mm,
+        } => {
+            let out = number_field(
+                ui,
+                fid(&b.id, "cycle"),
+                "Rotation cycle",
+                f64::from(cycle_days),
+                &bounds::DELIVERY_CYCLE,
+                0,
+            );
+            let out_min = number_field(
+                ui,
+                fid(&b.id, "min-turn"),
+                "Smallest turn",
+                min_depth_mm,
+                &bounds::MIN_TURN,
+                1,
+            );
+            if out.committed.is_some() || out_min.committed.is_some() {
+                let mut n = b.clone();
+                n.delivery = DeliveryMode::RotationWithinBlock {
+                    cycle_days: out.committed.map_or(cycle_days, |v| v.round() as u32),
+                    min_depth_mm: out_min.committed.unwrap_or(min_depth_mm),
+                };
+                commands.push(set_block(n));
+            }
+            ui.label(
+                RichText::new(format!(
+                    "Each day 1/{cycle_days} of the area takes its turn and is brought back to \
+                     the strategy's target (skipped when less than {} mm is missing).",
+                    crate::fields::format_number(min_depth_mm, 0)
+                ))
+                .weak(),
+            );
+        }
+        DeliveryMode::ContinuousFlow { cycle_days } => {
+            let out = number_field(
+                ui,
+                fid(&b.id, "cycle"),
+                "Delivery cycle",
+                f64::from(cycle_days),
+                &bounds::DELIVERY_CYCLE,
+                0,
+            );
+            if let Some(v) = out.committed {
+                let mut n = b.clone();
+                n.delivery = DeliveryMode::ContinuousFlow {
+                    cycle_days: v.round() as u32,
+                };
+                commands.push(set_block(n));
+            }
+            ui.label(
+                RichText::new("Each cycle's requirement is delivered at a steady rate.").weak(),
+            );
+        }
+        DeliveryMode::OnDemand => {
+            ui.label(
+                RichText::new(
+                    "Each planting takes its water over its whole area on the day its strategy \
+                     asks: canals then carry pulses no outlet delivers. Rotation within the \
+                     block is what most surface schemes do.",
+                )
+                .color(ui.visuals().warn_fg_color),
+            );
+        }
+    }
+    let outlet = ctx.outlets.iter().find(|o| o.block == b.id);
+    let shown = b
+        .outlet_stream_size_ls
+        .or_else(|| outlet.map(|o| o.stream_size_ls))
+        .unwrap_or(0.0);
+    let out = number_field(
+        ui,
+        fid(&b.id, "stream"),
+        "Outlet stream size",
+        shown,
+        &bounds::STREAM_SIZE,
+        1,
+    );
+    if let Some(v) = out.committed {
+        let mut n = b.clone();
+        n.outlet_stream_size_ls = Some(v);
+        commands.push(set_block(n));
+    }
+    match (b.outlet_stream_size_ls, outlet) {
+        (None, Some(o)) => {
+            ui.label(
+                RichText::new(format!(
+                    "Assumed: the block's largest daily delivery over its canal's {} h \
+                     (it never limits). Enter the outlet's real size.",
+                    crate::fields::format_number(o.hours_per_day, 1)
+                ))
+                .color(ui.visuals().warn_fg_color),
+            );
+        }
+        (None, None) => {
+            ui.label(RichText::new("Assumed large enough until the scheme is computed.").weak());
+        }
+        (Some(_), Some(o)) if o.limited_m3_per_year > 0.0 => {
+            ui.label(
+                RichText::new(format!(
+                    "The outlet limits delivery on {} days a year ({} m³ a year, {} % of the requests).",
+                    crate::fields::format_number(o.limited_days_per_year, 1),
+                    crate::fields::format_number(o.limited_m3_per_year, 0),
+                    crate::fields::format_number(100.0 * o.limited_share(), 2)
+                ))
+                .color(ui.visuals().warn_fg_color),
+            );
+        }
+        (Some(_), _) => {}
+    }
+    if let Some(o) = outlet {
+        ui.label(format!(
+            "Largest daily delivery: {} l/s over {} h",
+            crate::fields::format_number(o.peak_delivery_ls, 1),
+            crate::fields::format_number(o.hours_per_day, 1)
+        ));
+    }
+}
+
+/// Surface irrigation methods: the blocks a rotation within the block suits.
+fn is_surface_method(name: &str) -> bool {
+    use offtake_core::planting::Wetting;
+    matches!(
+        Wetting::from_method_name(name),
+        Some(
+            Wetting::Surface | Wetting::Furrow | Wetting::FurrowWideBed | Wetting::AlternateFurrow
+        )
+    ) || name == crate::edit::NEW_BLOCK_METHOD
+}
+
+/// The notice of a project whose blocks are all on demand (a project from
+/// before schema 3, or set so): offer rotation within the block for the
+/// surface-irrigated ones, as one undoable edit.
+fn on_demand_notice(ui: &mut Ui, doc: &Project, commands: &mut Vec<Command>) {
+    use offtake_core::project::{
+        DEFAULT_MIN_TURN_DEPTH_MM, DEFAULT_ROTATION_CYCLE_DAYS, DeliveryMode,
+    };
+    if doc.blocks.is_empty()
+        || !doc
+            .blocks
+            .iter()
+            .all(|b| matches!(b.delivery, DeliveryMode::OnDemand))
+    {
+        return;
+    }
+    let surface: Vec<&Block> = doc
+        .blocks
+        .iter()
+        .filter(|b| is_surface_method(&b.method.name))
+        .collect();
+    ui.group(|ui| {
+        ui.label(
+            RichText::new(
+                "Every block is served on demand: each planting takes its water over its whole \
+                 area on the day its strategy asks, so canals carry pulses no outlet delivers. \
+                 Surface schemes usually rotate within each block.",
+            )
+            .color(ui.visuals().warn_fg_color),
+        );
+        if !surface.is_empty()
+            && ui
+                .button(format!(
+                    "Serve the {} surface-irrigated block{} by a {DEFAULT_ROTATION_CYCLE_DAYS}-day rotation within the block",
+                    surface.len(),
+                    if surface.len() == 1 { "" } else { "s" }
+                ))
+                .clicked()
+        {
+            commands.push(Command::Edit(DocEdit::SetBlockDeliveries(
+                surface
+                    .iter()
+                    .map(|b| {
+                        (
+                            b.id.clone(),
+                            DeliveryMode::RotationWithinBlock {
+                                cycle_days: DEFAULT_ROTATION_CYCLE_DAYS,
+                                min_depth_mm: DEFAULT_MIN_TURN_DEPTH_MM,
+                            },
+                        )
+                    })
+                    .collect(),
+            )));
+        }
+    });
 }

@@ -239,6 +239,11 @@ pub fn explanation(project: &Project, r: &Results, d: &NodeDesign) -> String {
             format_sig(duty, 3)
         );
     }
+    let canal = match d.node {
+        offtake_core::scheme::Node::Canal(_) => Some(d.name.as_str()),
+        offtake_core::scheme::Node::Headworks => None,
+    };
+    let _ = writeln!(t, "{}", super::delivery_sentence(project, canal));
     t.push_str(
         "Demand at a node = Σ block NIR ÷ (application efficiency Ea × field-canal efficiency Eb), \
          then ÷ the conveyance efficiency Ec of each canal from the block up to the node. \

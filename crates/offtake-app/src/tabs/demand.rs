@@ -321,6 +321,9 @@ impl DemandTab {
             )
             .weak(),
         );
+        if let Some(project) = view.project {
+            ui.label(RichText::new(super::delivery_sentence(project, None)).weak());
+        }
         let key = CacheKey {
             results: Arc::as_ptr(&run.results) as usize,
             target,

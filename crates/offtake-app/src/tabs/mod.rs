@@ -218,3 +218,65 @@ pub fn no_project(ui: &mut Ui, what_this_tab_shows: &str) {
         what_this_tab_shows,
     );
 }
+
+/// How the blocks below a canal (`None`: the whole scheme) are delivered, in
+/// one sentence for the Demand and Canal capacity views and their "How was
+/// this computed?" (DESIGN.md "Delivery").
+pub fn delivery_sentence(project: &offtake_core::project::Project, canal: Option<&str>) -> String {
+    use offtake_core::project::DeliveryMode;
+    let canals: Vec<&str> = match canal {
+        Some(c) => project.canals_below(c),
+        None => project.canals.iter().map(|c| c.id.as_str()).collect(),
+    };
+    let blocks: Vec<_> = project
+        .blocks
+        .iter()
+        .filter(|b| canals.contains(&b.canal.as_str()))
+        .collect();
+    if blocks.is_empty() {
+        return String::new();
+    }
+    let mut parts: Vec<(String, usize)> = Vec::new();
+    for b in &blocks {
+        let d = b.delivery.describe();
+        match parts.iter_mut().find(|p| p.0 == d) {
+            Some(p) => p.1 += 1,
+            None => parts.push((d, 1)),
+        }
+    }
+    let list: Vec<String> = parts
+        .iter()
+        .map(|(d, n)| format!("{n} by {d}", n = n))
+        .collect();
+    let on_demand = blocks
+        .iter()
+        .any(|b| matches!(b.delivery, DeliveryMode::OnDemand));
+    let assumed = blocks
+        .iter()
+        .filter(|b| b.outlet_stream_size_ls.is_none())
+        .count();
+    let mut s = format!(
+        "Flows are what the block outlets deliver (24-hour means): of {} block{}, {}.",
+        blocks.len(),
+        if blocks.len() == 1 { "" } else { "s" },
+        list.join(", ")
+    );
+    s.push_str(
+        " Under rotation within the block each day one share of the block's area takes its turn \
+         and is brought back to its strategy's target; continuous flow spreads each cycle's \
+         requirement evenly; no day's delivery exceeds the outlet's stream size over its hours.",
+    );
+    if on_demand {
+        s.push_str(
+            " Blocks on demand take a planting's whole water on the day its strategy asks, so their \
+             daily flows come in pulses.",
+        );
+    }
+    if assumed > 0 {
+        s.push_str(&format!(
+            " {assumed} outlet stream size{} assumed (never limiting).",
+            if assumed == 1 { " is" } else { "s are" }
+        ));
+    }
+    s
+}

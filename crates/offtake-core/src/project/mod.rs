@@ -240,6 +240,13 @@ pub enum DeliveryMode {
     },
 }
 
+impl Block {
+    /// The block's delivery cycle (days; 1 on demand).
+    pub fn delivery_cycle_days(&self) -> u32 {
+        self.delivery.rule().cycle_days()
+    }
+}
+
 impl DeliveryMode {
     /// The planting module's rule.
     pub fn rule(self) -> crate::planting::DeliveryRule {

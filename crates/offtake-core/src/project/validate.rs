@@ -450,6 +450,7 @@ impl Project {
                 b.field_canal_efficiency,
                 out,
             );
+            check_delivery(b, out);
         }
     }
 
@@ -1017,5 +1018,36 @@ mod tests {
             }
             prop_assert_eq!(cohort_occupancy(start, cohorts, season), direct);
         }
+    }
+}
+
+/// A block's delivery mode and outlet: cycle 1–30 days, smallest turn ≥ 0 mm,
+/// stream size > 0 l/s (DESIGN.md "Delivery").
+fn check_delivery(b: &super::Block, out: &mut Vec<ValidationProblem>) {
+    use super::DeliveryMode;
+    let subject = format!("block {:?}", b.id);
+    let cycle = match b.delivery {
+        DeliveryMode::OnDemand => None,
+        DeliveryMode::RotationWithinBlock {
+            cycle_days,
+            min_depth_mm,
+        } => {
+            check_non_negative(&subject, "delivery smallest turn (mm)", min_depth_mm, out);
+            Some(cycle_days)
+        }
+        DeliveryMode::ContinuousFlow { cycle_days } => Some(cycle_days),
+    };
+    if let Some(c) = cycle
+        && !(1..=crate::planting::delivery::MAX_CYCLE_DAYS).contains(&c)
+    {
+        out.push(ValidationProblem::BadValue {
+            subject: subject.clone(),
+            field: "delivery cycle (days)",
+            value: f64::from(c),
+            expected: "a whole number of days from 1 to 30",
+        });
+    }
+    if let Some(q) = b.outlet_stream_size_ls {
+        check_positive(&subject, "outlet stream size (l/s)", q, out);
     }
 }
