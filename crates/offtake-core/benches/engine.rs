@@ -5,6 +5,11 @@
 //! 1,000 blocks. For one timed run of any size (e.g. under
 //! `/usr/bin/time -v` for peak memory):
 //! `ENGINE_BENCH_ONCE=10000 target/release/deps/engine-<hash>`.
+//!
+//! Blocks are served by a 7-day rotation within the block with outlets that
+//! do not bind (no stream size); `ENGINE_BENCH_DELIVERY=binding` gives every
+//! outlet 0.8 l/s/ha so that it limits on the peak days, and `on-demand`
+//! the rule of schema 2.
 
 use std::hint::black_box;
 use std::time::Instant;
@@ -63,7 +68,23 @@ fn weather() -> Vec<WeatherDay> {
         .collect()
 }
 
-fn project(blocks: usize) -> Project {
+/// How the synthetic blocks are served.
+#[derive(Clone, Copy)]
+enum Delivery {
+    Rotation,
+    Binding,
+    OnDemand,
+}
+
+fn delivery_from_env() -> Delivery {
+    match std::env::var("ENGINE_BENCH_DELIVERY").as_deref() {
+        Ok("binding") => Delivery::Binding,
+        Ok("on-demand") => Delivery::OnDemand,
+        _ => Delivery::Rotation,
+    }
+}
+
+fn project(blocks: usize, delivery: Delivery) -> Project {
     let mut p = Project::default();
     p.scheme.name = "synthetic (invented)".into();
     p.weather.latitude_deg = 15.0;
@@ -105,8 +126,19 @@ fn project(blocks: usize) -> Project {
                 application_efficiency: 0.65,
             },
             field_canal_efficiency: 0.8,
-            delivery: offtake_core::project::DeliveryMode::OnDemand,
-            outlet_stream_size_ls: None,
+            delivery: match delivery {
+                Delivery::OnDemand => offtake_core::project::DeliveryMode::OnDemand,
+                Delivery::Rotation | Delivery::Binding => {
+                    offtake_core::project::DeliveryMode::RotationWithinBlock {
+                        cycle_days: 7,
+                        min_depth_mm: 10.0,
+                    }
+                }
+            },
+            outlet_stream_size_ls: match delivery {
+                Delivery::Binding => Some(0.8 * (100.0 + (b % 7) as f64 * 20.0)),
+                _ => None,
+            },
         });
         let plant = |k: &str, crop: &str, md: (u32, u32), pct: f64, season: &str| Planting {
             id: format!("{id}-{k}"),
@@ -144,8 +176,14 @@ fn libraries() -> (Vec<Crop>, Vec<Soil>) {
     )
 }
 
-fn run_once(blocks: usize, crops: &[Crop], soils: &[Soil], w: &[WeatherDay]) -> f64 {
-    let p = project(blocks);
+fn run_once(
+    blocks: usize,
+    delivery: Delivery,
+    crops: &[Crop],
+    soils: &[Soil],
+    w: &[WeatherDay],
+) -> f64 {
+    let p = project(blocks, delivery);
     let r = run(&EngineInput {
         project: &p,
         crops,
@@ -164,9 +202,12 @@ fn bench(c: &mut Criterion) {
     let mut g = c.benchmark_group("engine");
     g.sample_size(10);
     for blocks in [100, 1000] {
-        g.bench_function(format!("{blocks} blocks x 3 plantings x 30 years"), |b| {
-            b.iter(|| black_box(run_once(blocks, &crops, &soils, &w)));
-        });
+        g.bench_function(
+            format!("{blocks} blocks x 3 plantings x 30 years, rotation"),
+            |b| {
+                b.iter(|| black_box(run_once(blocks, Delivery::Rotation, &crops, &soils, &w)));
+            },
+        );
     }
     g.finish();
 }
@@ -185,7 +226,7 @@ fn main() {
         let (crops, soils) = libraries();
         let w = weather();
         let t = Instant::now();
-        let q = run_once(blocks, &crops, &soils, &w);
+        let q = run_once(blocks, delivery_from_env(), &crops, &soils, &w);
         println!(
             "{blocks} blocks x 3 plantings x {} days: {:.3} s (headworks design flow {q:.0} l/s)",
             w.len(),

@@ -51,9 +51,11 @@ pub fn open_demo(builder: HarnessBuilder<OfftakeApp>, size: egui::Vec2) -> H {
 pub fn settle(h: &mut H) {
     for _ in 0..2 {
         // Frames poll the running worker; on a busy machine they may outlast
-        // the harness's step limit, which is not a failure here.
+        // the harness's step limit, which is not a failure here. The wait is
+        // for the computation to finish, however long a loaded machine takes
+        // (no test may depend on timing); a hung worker fails CI's time limit.
         let _ = h.run_ok();
-        h.state_mut().wait_for_recompute(Duration::from_mins(2));
+        h.state_mut().wait_for_recompute(Duration::from_hours(1));
     }
     h.run();
 }

@@ -391,6 +391,8 @@ fn balance_cohort(
     let turns = |k: usize| Some((n, share_first_day(k, n, first), min_depth_mm));
     let first_share = balance_unit(p, index, start, share, length, None, turns(0), None)?;
     let kc_ini = first_share.kc_ini;
+    // One crop series for the other shares (same cohort, same Kc ini).
+    let series = crop_series(p, start, length, Some(kc_ini))?;
     let mut shares = vec![first_share];
     for k in 1..n {
         shares.push(balance_unit(
@@ -401,7 +403,7 @@ fn balance_cohort(
             length,
             None,
             turns(k),
-            Some(kc_ini),
+            Some((kc_ini, &series)),
         )?);
     }
     let days: Vec<Vec<BalanceDay>> = shares.iter().map(|s| s.days.clone()).collect();
@@ -435,20 +437,11 @@ fn balance_unit(
     length: Option<u32>,
     delivery: Option<&[f64]>,
     turns: Option<(usize, usize, f64)>,
-    fixed_kc_ini: Option<f64>,
+    fixed: Option<(f64, &CropSeries)>,
 ) -> Result<CohortOut, PlantingError> {
-    if fixed_kc_ini.is_some() {
-        let (mut out, _) = balance_cohort_once(
-            p,
-            index,
-            start,
-            share,
-            length,
-            delivery,
-            turns,
-            fixed_kc_ini,
-        )?;
-        out.kc_ini = fixed_kc_ini.unwrap_or(p.spec.crop.kc.ini);
+    if let Some((kc_ini, series)) = fixed {
+        let (mut out, _) = balance_cohort_once(p, index, start, share, delivery, turns, series)?;
+        out.kc_ini = kc_ini;
         return Ok(out);
     }
     let adjust = p.dual.is_none()
@@ -462,8 +455,9 @@ fn balance_unit(
     let mut kc_ini = None;
     let mut pass = 1;
     loop {
+        let series = crop_series(p, start, length, kc_ini)?;
         let (mut out, ini_days) =
-            balance_cohort_once(p, index, start, share, length, delivery, turns, kc_ini)?;
+            balance_cohort_once(p, index, start, share, delivery, turns, &series)?;
         out.kc_ini = kc_ini.unwrap_or(p.spec.crop.kc.ini);
         if !adjust || pass == MAX_PASSES {
             return Ok(out);
@@ -491,12 +485,10 @@ fn balance_cohort_once(
     index: usize,
     start: NaiveDate,
     share: f64,
-    length: Option<u32>,
     delivery: Option<&[f64]>,
     turns: Option<(usize, usize, f64)>,
-    kc_ini_override: Option<f64>,
+    series: &CropSeries,
 ) -> Result<(CohortOut, usize), PlantingError> {
-    let series = crop_series(p, start, length, kc_ini_override)?;
     let ini_days = series
         .cycles
         .first()
