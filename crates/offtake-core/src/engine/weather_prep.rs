@@ -206,3 +206,69 @@ pub fn prepare_weather(
     }
     Ok(w)
 }
+
+/// Screens the record against the project's station limits
+/// ([`crate::station_limits`]) before gap filling: values beyond them are
+/// removed (so the chosen gap-filling method fills them) unless the project
+/// keeps them. Returns the screened record, every value beyond its limits,
+/// and the warning to report (none when every value is inside).
+///
+/// # Errors
+/// [`EngineError::WeatherFill`] for bad user limits, naming the column.
+pub fn screen_weather(
+    days: &[WeatherDay],
+    project: &crate::project::Project,
+) -> Result<
+    (
+        Vec<WeatherDay>,
+        Vec<crate::station_limits::OutOfLimits>,
+        Option<String>,
+    ),
+    EngineError,
+> {
+    let limits = &project.options.station_limits;
+    let half_window = project
+        .options
+        .gap_filling
+        .options()
+        .climatology_half_window_days;
+    let s = crate::station_limits::screen_station_limits(days, limits, half_window)
+        .map_err(|e| EngineError::WeatherFill(e.to_string()))?;
+    let warning = (!s.out_of_limits.is_empty()).then(|| {
+        let first: Vec<String> = s
+            .out_of_limits
+            .iter()
+            .take(3)
+            .map(|o| {
+                let (lo, hi) = (o.low, o.high);
+                format!(
+                    "{} {} = {} outside {:.1} to {:.1}, {}",
+                    o.date,
+                    o.variable,
+                    o.value,
+                    lo,
+                    hi,
+                    o.source.label()
+                )
+            })
+            .collect();
+        let n = s.out_of_limits.len();
+        let what = if n == 1 {
+            "1 value".to_owned()
+        } else {
+            format!("{n} values")
+        };
+        if s.kept {
+            format!(
+                "weather: {what} beyond the station limits kept as measured (options.station_limits.keep_out_of_limit_values) (first: {})",
+                first.join("; ")
+            )
+        } else {
+            format!(
+                "weather: {what} beyond the station limits treated as missing and filled by the gap-filling method (first: {}); to keep them set options.station_limits.keep_out_of_limit_values: true",
+                first.join("; ")
+            )
+        }
+    });
+    Ok((s.days, s.out_of_limits, warning))
+}
