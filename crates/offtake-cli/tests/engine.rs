@@ -267,16 +267,26 @@ fn an_impossible_tmax_is_replaced_by_the_gap_filling_unless_kept() {
     use offtake_core::quality::Variable;
     let (project, libs, weather) = demo();
     let date = chrono::NaiveDate::from_ymd_opt(2009, 4, 17).unwrap();
-    let (screened, out, warning) = screen_weather(&weather, &project).unwrap();
-    let hit = out
+    let screened = screen_weather(&weather, &project).unwrap();
+    let hit = screened
+        .out_of_limits
         .iter()
         .find(|o| o.date == date && o.variable == Variable::Tmax)
         .expect("Tmax 55.2 beyond the station limits");
     assert!((hit.value - 55.2).abs() < 1e-9 && hit.high < 50.0);
-    assert!(warning.unwrap().contains("treated as missing"));
-    let repaired =
-        repair_for_daily_balance(&screened, &project.options.gap_filling.options(), |_| Ok(()))
-            .unwrap();
+    assert!(
+        screened
+            .warning
+            .as_ref()
+            .unwrap()
+            .contains("treated as missing")
+    );
+    let repaired = repair_for_daily_balance(
+        &screened.days,
+        &project.options.gap_filling.options(),
+        |_| Ok(()),
+    )
+    .unwrap();
     let i = repaired
         .filled
         .days
@@ -285,10 +295,7 @@ fn an_impossible_tmax_is_replaced_by_the_gap_filling_unless_kept() {
         .unwrap();
     let filled = repaired.filled.days[i];
     let neighbours = [repaired.filled.days[i - 1], repaired.filled.days[i + 1]];
-    let mid = f64::midpoint(
-        neighbours[0].tmax_c.unwrap(),
-        neighbours[1].tmax_c.unwrap(),
-    );
+    let mid = f64::midpoint(neighbours[0].tmax_c.unwrap(), neighbours[1].tmax_c.unwrap());
     assert!((filled.tmax_c.unwrap() - mid).abs() < 1e-9);
     assert_eq!(
         repaired.filled.mark(i, Variable::Tmax),

@@ -45,8 +45,12 @@ use crate::weather::WeatherDay;
 pub const CLIMATOLOGY_SD_MULTIPLE: f64 = 5.0;
 
 /// The variables that get a climatology band when the user gives no limit.
-pub const CLIMATOLOGY_VARIABLES: [Variable; 4] =
-    [Variable::Tmax, Variable::Tmin, Variable::Tmean, Variable::Tdew];
+pub const CLIMATOLOGY_VARIABLES: [Variable; 4] = [
+    Variable::Tmax,
+    Variable::Tmin,
+    Variable::Tmean,
+    Variable::Tdew,
+];
 
 /// Fewest other measured values a day-of-year band needs before it limits a
 /// value (common practice: about two per year over 15 years of 15-day windows
@@ -268,12 +272,10 @@ fn band_without(w: Moments, x: f64) -> Option<(f64, f64)> {
     let mean = (w.sum - x) / nf;
     let var = ((w.sum_sq - x * x) - nf * mean * mean) / (nf - 1.0);
     let sd = var.max(0.0).sqrt();
-    (sd > 1e-9 * mean.abs().max(1.0)).then(|| {
-        (
-            mean - CLIMATOLOGY_SD_MULTIPLE * sd,
-            mean + CLIMATOLOGY_SD_MULTIPLE * sd,
-        )
-    })
+    (sd > 1e-9 * mean.abs().max(1.0)).then_some((
+        mean - CLIMATOLOGY_SD_MULTIPLE * sd,
+        mean + CLIMATOLOGY_SD_MULTIPLE * sd,
+    ))
 }
 
 /// Screens `days` against the station limits: the user's where given, else
@@ -326,7 +328,7 @@ pub fn screen_station_limits(
             }
         }
     }
-    out_of_limits.sort_by(|a, b| (a.date, a.variable).cmp(&(b.date, b.variable)));
+    out_of_limits.sort_by_key(|a| (a.date, a.variable));
     let kept = limits.keep_out_of_limit_values;
     let mut days = days.to_vec();
     if !kept && !out_of_limits.is_empty() {
@@ -445,6 +447,9 @@ mod tests {
         let mut days: Vec<WeatherDay> = record().into_iter().take(300).collect();
         days[100].tmax_c = Some(55.2);
         let s = screen_station_limits(&days, &StationLimits::default(), 7).expect("screens");
-        assert!(s.out_of_limits.is_empty(), "15 values per window are too few");
+        assert!(
+            s.out_of_limits.is_empty(),
+            "15 values per window are too few"
+        );
     }
 }

@@ -381,11 +381,11 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     let checker =
         crate::et0::Et0Context::new(&site_of(project), &crate::et0::Et0Options::default())
             .map_err(EngineError::Station)?;
-    let (screened, weather_out_of_limits, limits_warning) =
-        weather_prep::screen_weather(input.weather, project)?;
-    warnings.extend(limits_warning);
+    let screened = weather_prep::screen_weather(input.weather, project)?;
+    warnings.extend(screened.warning.clone());
+    let weather_out_of_limits = screened.out_of_limits.clone();
     let repaired = crate::gapfill::repair_for_daily_balance(
-        &screened,
+        &screened.days,
         &project.options.gap_filling.options(),
         |d| checker.et0_mm_day(d).map(|_| ()).map_err(|e| e.to_string()),
     )

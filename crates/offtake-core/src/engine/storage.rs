@@ -81,9 +81,11 @@ pub struct StorageLosses {
 impl StorageLosses {
     /// Smallest and largest mean yearly loss of the three methods (m³/year).
     pub fn spread_m3(&self) -> (f64, f64) {
-        self.methods.iter().fold((f64::INFINITY, 0.0_f64), |(lo, hi), m| {
-            (lo.min(m.mean_yearly_m3), hi.max(m.mean_yearly_m3))
-        })
+        self.methods
+            .iter()
+            .fold((f64::INFINITY, 0.0_f64), |(lo, hi), m| {
+                (lo.min(m.mean_yearly_m3), hi.max(m.mean_yearly_m3))
+            })
     }
 
     /// The spread (largest − smallest) as a percentage of the loss by the

@@ -207,25 +207,28 @@ pub fn prepare_weather(
     Ok(w)
 }
 
+/// A record screened against the station limits, ready for gap filling.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ScreenedWeather {
+    /// The days, values beyond the limits removed unless the project keeps them.
+    pub days: Vec<WeatherDay>,
+    /// Every value beyond its limits.
+    pub out_of_limits: Vec<crate::station_limits::OutOfLimits>,
+    /// The warning to report (none when every value is inside).
+    pub warning: Option<String>,
+}
+
 /// Screens the record against the project's station limits
 /// ([`crate::station_limits`]) before gap filling: values beyond them are
 /// removed (so the chosen gap-filling method fills them) unless the project
-/// keeps them. Returns the screened record, every value beyond its limits,
-/// and the warning to report (none when every value is inside).
+/// keeps them.
 ///
 /// # Errors
 /// [`EngineError::WeatherFill`] for bad user limits, naming the column.
 pub fn screen_weather(
     days: &[WeatherDay],
     project: &crate::project::Project,
-) -> Result<
-    (
-        Vec<WeatherDay>,
-        Vec<crate::station_limits::OutOfLimits>,
-        Option<String>,
-    ),
-    EngineError,
-> {
+) -> Result<ScreenedWeather, EngineError> {
     let limits = &project.options.station_limits;
     let half_window = project
         .options
@@ -270,5 +273,9 @@ pub fn screen_weather(
             )
         }
     });
-    Ok((s.days, s.out_of_limits, warning))
+    Ok(ScreenedWeather {
+        days: s.days,
+        out_of_limits: s.out_of_limits,
+        warning,
+    })
 }

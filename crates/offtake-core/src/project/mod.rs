@@ -691,7 +691,10 @@ pub struct Options {
     pub gap_filling: GapFilling,
     /// Station limits of the weather values (see [`crate::station_limits`]);
     /// omitted from the file when default, so no schema change.
-    #[serde(default, skip_serializing_if = "crate::station_limits::StationLimits::is_default")]
+    #[serde(
+        default,
+        skip_serializing_if = "crate::station_limits::StationLimits::is_default"
+    )]
     pub station_limits: crate::station_limits::StationLimits,
 }
 

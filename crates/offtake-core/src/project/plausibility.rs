@@ -211,7 +211,9 @@ mod tests {
             Some((30.0, 45.0))
         );
         assert_eq!(
-            region_band("135 days; March/April planting; 35-45 deg latitude (Barley/Oats/Wheat row)"),
+            region_band(
+                "135 days; March/April planting; 35-45 deg latitude (Barley/Oats/Wheat row)"
+            ),
             Some((35.0, 45.0))
         );
         assert_eq!(
