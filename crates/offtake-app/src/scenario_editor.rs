@@ -958,7 +958,7 @@ fn result_line(ui: &mut Ui, base: &Project, scenario: &Scenario, results: Result
         let figures = |col: &offtake_core::engine::ScenarioColumn| {
             let short = if col.shortfall_periods > 0 {
                 format!(
-                    "; canals with an existing capacity fall short in {} of {} years ({} Mm³/year not delivered, {} means)",
+                    "; canals with an existing capacity fall short in {} of {} complete irrigation years ({} Mm³ per complete irrigation year not delivered, {} means)",
                     col.shortfall_years,
                     col.complete_years,
                     format_sig(col.shortfall_m3_per_year / 1.0e6, 3),

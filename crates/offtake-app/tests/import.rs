@@ -32,14 +32,30 @@ fn harness() -> Harness<'static, OfftakeApp> {
 }
 
 fn settle(h: &mut Harness<'static, OfftakeApp>) {
-    h.run();
-    h.state_mut().wait_for_recompute(Duration::from_secs(20));
-    h.run();
+    support::settle(h);
 }
 
+/// Most background reads one `read` waits for in turn (a read can be
+/// followed by another that the form starts); more is a failure.
+const MAX_READS: usize = 3;
+
+/// Waits for the weather import's background read, then settles the frames.
+///
+/// While the read runs, every frame draws a spinner and asks for another
+/// frame, so `Harness::run` would exceed its step limit on a slow machine.
+/// No frame is run until the read is done: one `step` handles a pending
+/// click (Re-read starts its read in that frame), then the test blocks on
+/// the read's channel, which returns as soon as the result arrives (the
+/// timeout only guards against a hang; nothing depends on how long it
+/// takes), and only then runs the frames.
 fn read(h: &mut Harness<'static, OfftakeApp>) {
-    h.run();
-    h.state_mut().wait_for_import(Duration::from_secs(30));
+    h.step();
+    let mut reads = 0;
+    while h.state().import.as_ref().is_some_and(|j| j.running()) {
+        assert!(reads < MAX_READS, "more than {MAX_READS} reads in a row");
+        h.state_mut().wait_for_import(Duration::from_mins(10));
+        reads += 1;
+    }
     h.run();
     h.run();
 }

@@ -411,8 +411,8 @@ fn a_canal_capacity_set_in_the_form_makes_that_canal_fall_short() {
         "a capacity does not change the demand"
     );
     let short = upper.shortfall.as_ref().expect("shortfall computed");
-    let record_years = run.days as f64 / 365.25;
-    let extra = short.basis_volume_not_delivered_m3 / record_years;
+    // Per complete irrigation year, the basis of every per-year figure.
+    let extra = short.basis_volume_per_year_m3(&run.complete_years);
     assert!(extra > 0.0);
     assert!(
         ((changed.shortfall_m3_per_year - current.shortfall_m3_per_year) - extra).abs()

@@ -76,7 +76,7 @@ pub(crate) fn comparison_text(c: &Comparison) -> String {
                 .collect(),
         ));
     }
-    let simple: [(&str, RowFn); 12] = [
+    let simple: [(&str, RowFn); 14] = [
         (
             "headworks volume total (m3/year)",
             Box::new(|x| format!("{:.0}", x.headworks_volume_m3)),
@@ -109,6 +109,17 @@ pub(crate) fn comparison_text(c: &Comparison) -> String {
         (
             "reservoir evaporation (m3/year)",
             Box::new(|x| opt(x.storage_loss_m3, 0)),
+        ),
+        (
+            "reservoir evaporation method",
+            Box::new(|x| x.storage_method.unwrap_or("-").to_owned()),
+        ),
+        (
+            "reservoir evaporation, spread of 3 methods (m3/year)",
+            Box::new(|x| {
+                x.storage_spread_m3
+                    .map_or_else(|| "-".to_owned(), |(lo, hi)| format!("{lo:.0}-{hi:.0}"))
+            }),
         ),
         (
             "relative irrigation supply (-)",
@@ -160,6 +171,15 @@ pub(crate) fn comparison_text(c: &Comparison) -> String {
     let _ = writeln!(
         s,
         "Capacity shortfall on the design basis ({basis} mean flows): a period is short when its mean flow exceeds the existing capacity; volume = sum of (mean - capacity) x days. Daily peaks (refill pulses) are shown for information only."
+    );
+    let years = c.columns.first().map_or(0, |x| x.complete_years);
+    let _ = writeln!(
+        s,
+        "Per-year figures (m3/year, periods, years short) are over the {years} complete irrigation years of the record, the years the design flows use; the incomplete years at its ends are left out."
+    );
+    let _ = writeln!(
+        s,
+        "Reservoir evaporation: by the reservoir's method; the spread is the smallest and largest of Meyer (1915), Penman (1948) open water and Rohwer (1931) on the same weather (see `offtake run`)."
     );
     s.push_str("Planning estimates: canal and structure designs must be checked by a qualified engineer.\n");
     s

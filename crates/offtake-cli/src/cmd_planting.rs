@@ -109,6 +109,9 @@ struct Series {
     rain: Vec<f64>,
     u2: Vec<f64>,
     rhmin: Vec<f64>,
+    /// Mean temperature of the record's coldest month (°C), for the season
+    /// plausibility check.
+    coldest_month_c: Option<f64>,
 }
 
 fn read_weather(args: &Args) -> Result<Series> {
@@ -139,7 +142,29 @@ fn read_weather(args: &Args) -> Result<Series> {
     // The water balance needs every day: impossible days are blanked and, with
     // the absent dates, filled as the engine does (interpolation up to 3 days,
     // FAO-56 missing-data procedures beyond); each is reported.
-    let repaired = repair_for_daily_balance(&imported.days, &GapFillOptions::default(), |d| {
+    // Values beyond the station limits (the series' day-of-year climatology
+    // ± 5 standard deviations, as `offtake run` does by default) are treated
+    // as missing and filled like gaps.
+    let screened = offtake_core::station_limits::screen_station_limits(
+        &imported.days,
+        &offtake_core::station_limits::StationLimits::default(),
+        GapFillOptions::default().climatology_half_window_days,
+    )
+    .context("station limits")?;
+    for o in &screened.out_of_limits {
+        let line = line_of.get(&o.date).copied().unwrap_or(1);
+        eprintln!(
+            "{}: warning: {}: {} = {} is outside {:.1} to {:.1} ({}); treated as missing and filled",
+            at(line),
+            o.date,
+            o.variable,
+            o.value,
+            o.low,
+            o.high,
+            o.source.label()
+        );
+    }
+    let repaired = repair_for_daily_balance(&screened.days, &GapFillOptions::default(), |d| {
         context.et0_mm_day(d).map(|_| ()).map_err(|e| e.to_string())
     })
     .context("filling the gaps of the weather record")?;
@@ -165,6 +190,7 @@ fn read_weather(args: &Args) -> Result<Series> {
         rain: Vec::with_capacity(n),
         u2: Vec::with_capacity(n),
         rhmin: Vec::with_capacity(n),
+        coldest_month_c: offtake_core::project::plausibility::coldest_month_mean_c(days),
     };
     let mut blank_rain: Vec<NaiveDate> = Vec::new();
     for day in days {
@@ -281,6 +307,14 @@ pub fn run(args: &Args) -> Result<()> {
     };
     let plant = parse_date(&args.plant)?;
     let series = read_weather(args)?;
+    if let Some(why) =
+        offtake_core::project::plausibility::row_mismatch(crop, args.lat, series.coldest_month_c)
+    {
+        eprintln!(
+            "warning: season plausibility: crop {}: stage lengths are the FAO-56 Table 11 row \"{}\"; {why}. The season may be much longer or shorter at this station: check the stage lengths against local observations or a row for the station's region",
+            crop.id, crop.stages_region
+        );
+    }
     let weather = PlantingWeather {
         start: series.start,
         et0_mm: &series.et0,

@@ -244,6 +244,195 @@ fn shifting_rice_to_maize_lowers_the_headworks_volume() {
     // Warmer and drier weather raises the demand.
     let warm = col("warmer-drier");
     assert!(warm.headworks_volume_m3 > current.headworks_volume_m3);
+    // …and the reservoir's evaporation: the +1.5 °C warms the water surface
+    // too (Meyer 1915: E = K_M (e_w − e_a)(1 + u9/16), Subramanya 2009 p. 63,
+    // grows with the surface temperature through e_w).
+    assert!(
+        warm.storage_loss_m3.unwrap() > current.storage_loss_m3.unwrap(),
+        "warmer-drier {:?} vs current {:?} m³/year",
+        warm.storage_loss_m3,
+        current.storage_loss_m3
+    );
+}
+
+#[test]
+fn an_impossible_tmax_is_replaced_by_the_gap_filling_unless_kept() {
+    // The demo's planted defect: Tmax 55.2 °C on 2009-04-17 (below the world
+    // record, so no physical limit catches it), around 36.5 °C on the days
+    // either side. Its day-of-year climatology ± 5 sd rejects it; the default
+    // gap filling interpolates it (a 1-day gap), and ET0 (FAO-56 eq. 6) on
+    // the day falls back among its neighbours'.
+    use offtake_core::engine::weather_prep::screen_weather;
+    use offtake_core::gapfill::{FillMark, repair_for_daily_balance};
+    use offtake_core::quality::Variable;
+    let (project, libs, weather) = demo();
+    let date = chrono::NaiveDate::from_ymd_opt(2009, 4, 17).unwrap();
+    let screened = screen_weather(&weather, &project).unwrap();
+    let hit = screened
+        .out_of_limits
+        .iter()
+        .find(|o| o.date == date && o.variable == Variable::Tmax)
+        .expect("Tmax 55.2 beyond the station limits");
+    assert!((hit.value - 55.2).abs() < 1e-9 && hit.high < 50.0);
+    assert!(
+        screened
+            .warning
+            .as_ref()
+            .unwrap()
+            .contains("treated as missing")
+    );
+    let repaired = repair_for_daily_balance(
+        &screened.days,
+        &project.options.gap_filling.options(),
+        |_| Ok(()),
+    )
+    .unwrap();
+    let i = repaired
+        .filled
+        .days
+        .iter()
+        .position(|d| d.date == date)
+        .unwrap();
+    let filled = repaired.filled.days[i];
+    let neighbours = [repaired.filled.days[i - 1], repaired.filled.days[i + 1]];
+    let mid = f64::midpoint(neighbours[0].tmax_c.unwrap(), neighbours[1].tmax_c.unwrap());
+    assert!((filled.tmax_c.unwrap() - mid).abs() < 1e-9);
+    assert_eq!(
+        repaired.filled.mark(i, Variable::Tmax),
+        Some(FillMark::Interpolated)
+    );
+    let site = engine::site_of(&project);
+    let ctx = offtake_core::et0::Et0Context::new(&site, &offtake_core::et0::Et0Options::default())
+        .unwrap();
+    let et0 = |d: &WeatherDay| ctx.et0_mm_day(d).unwrap();
+    let around = f64::midpoint(et0(&neighbours[0]), et0(&neighbours[1]));
+    let raw_day = weather.iter().find(|d| d.date == date).unwrap();
+    assert!(et0(raw_day) > 1.2 * around, "the raw day's ET0 stands out");
+    assert!((et0(&filled) - around).abs() < 0.1 * around);
+    // The run lists it; with the keep option it is kept and said so.
+    let r = run(&project, None);
+    assert!(r.weather_out_of_limits.iter().any(|o| o.date == date));
+    let mut keep = project.clone();
+    keep.options.station_limits.keep_out_of_limit_values = true;
+    let kept = engine::run_scenario(&keep, None, &libs.crops, &libs.soils, &weather).unwrap();
+    assert!(kept.weather_out_of_limits.iter().any(|o| o.date == date));
+    assert!(
+        kept.warnings.iter().any(|w| w.contains("kept as measured")),
+        "{:?}",
+        kept.warnings
+    );
+}
+
+#[test]
+fn a_mediterranean_winter_wheat_at_18_degrees_north_warns_naming_the_planting() {
+    // FAO-56 Table 11: winter wheat, November planting, Mediterranean,
+    // 30/140/40/30 = 240 days (the library's row). The demo station is at
+    // 18° N with a coldest month near 21 °C: tropical (Köppen, from memory).
+    let (mut project, libs, weather) = demo();
+    let id = project.plantings[0].id.clone();
+    project.plantings[0].crop = "wheat-winter".to_owned();
+    let r = engine::run_scenario(&project, None, &libs.crops, &libs.soils, &weather).unwrap();
+    let w = r
+        .warnings
+        .iter()
+        .find(|w| w.starts_with("season plausibility") && w.contains("(wheat-winter)"))
+        .unwrap_or_else(|| panic!("no plausibility warning: {:#?}", r.warnings));
+    assert!(w.contains(&id), "{w}");
+    assert!(w.contains("Mediterranean") && w.contains("18.0° N"), "{w}");
+    // A tropical row (sugarcane, low latitudes) at the same station does not.
+    project.plantings[0].crop = "sugarcane".to_owned();
+    let r = engine::run_scenario(&project, None, &libs.crops, &libs.soils, &weather).unwrap();
+    assert!(
+        !r.warnings.iter().any(|w| w.contains("(sugarcane)")),
+        "{:#?}",
+        r.warnings
+    );
+}
+
+#[test]
+fn a_season_far_from_its_row_warns() {
+    // More than 25 % away from the row's total (FAO-56 Table 11 maize,
+    // 150 days): 200 days warns, 170 days does not.
+    let (mut project, libs, weather) = demo();
+    let i = project
+        .plantings
+        .iter()
+        .position(|p| p.crop == "maize-grain")
+        .unwrap();
+    let id = project.plantings[i].id.clone();
+    let departs = |r: &Results| {
+        r.warnings
+            .iter()
+            .any(|w| w.contains(&format!("planting {id} (maize-grain): season of")))
+    };
+    project.plantings[i].season_length_days = Some(200);
+    let r = engine::run_scenario(&project, None, &libs.crops, &libs.soils, &weather).unwrap();
+    assert!(departs(&r), "{:#?}", r.warnings);
+    project.plantings[i].season_length_days = Some(170);
+    let r = engine::run_scenario(&project, None, &libs.crops, &libs.soils, &weather).unwrap();
+    assert!(!departs(&r));
+}
+
+#[test]
+fn per_year_shortfall_is_per_complete_irrigation_year() {
+    // DESIGN.md: incomplete years at the ends of the record are left out of
+    // statistics; the comparison's per-year shortfall, its period count and
+    // its count of short years all use the same complete irrigation years.
+    let (project, libs, weather) = demo();
+    let r = run(&project, None);
+    let cmp = compare_scenarios(&project, &libs.crops, &libs.soils, &weather).unwrap();
+    let current = cmp.columns.iter().find(|c| c.name == "current").unwrap();
+    let complete = &r.complete_years;
+    assert_eq!(current.complete_years, complete.len());
+    let (mut volume, mut periods) = (0.0, 0);
+    for d in &r.design {
+        if let Some(s) = &d.shortfall
+            && d.node != Node::Headworks
+        {
+            for p in &s.basis_periods {
+                if complete.iter().any(|y| y.contains(p.start)) {
+                    volume += p.deficit_m3;
+                    periods += 1;
+                }
+            }
+        }
+    }
+    assert!(volume > 0.0, "the demo's middle distributary falls short");
+    let per_year = volume / complete.len() as f64;
+    assert!((current.shortfall_m3_per_year - per_year).abs() < 1e-6 * per_year);
+    assert_eq!(current.shortfall_periods, periods);
+    assert!(current.shortfall_years <= current.complete_years);
+}
+
+#[test]
+fn reservoir_losses_show_three_methods_and_the_fao56_open_water_line() {
+    let (project, _, _) = demo();
+    let r = run(&project, None);
+    let st = r.storage.as_ref().expect("the demo has a reservoir");
+    assert_eq!(st.methods.len(), 3);
+    // The used method is the reservoir's, and its loss is one of the three.
+    assert_eq!(st.method, project.reservoir.as_ref().unwrap().method);
+    let (lo, hi) = st.spread_m3();
+    assert!(lo <= st.mean_yearly_m3 && st.mean_yearly_m3 <= hi);
+    // FAO-56 Table 12: open water < 2 m deep, Kc 1.05, times the same ET0.
+    assert!((st.kc_line_mean_yearly_mm - 1.05 * st.et0_mean_yearly_mm).abs() < 1e-6);
+    // Every method lies within a factor of two of that line on the demo
+    // weather (a plausibility bound of ours, not a published one).
+    for m in &st.methods {
+        let ratio = m.mean_yearly_mm / st.kc_line_mean_yearly_mm;
+        assert!((0.5..2.0).contains(&ratio), "{m:?}: {ratio}");
+    }
+    // The summary names all three, the used one, and the line.
+    let text = offtake_io::results::summary_text(&r, &project);
+    for needle in [
+        "Meyer (1915)",
+        "Penman (1948) open water",
+        "Rohwer (1931)",
+        "used for the scheme's losses",
+        "FAO-56 Table 12 open water < 2 m deep, Kc 1.05 x ET0",
+    ] {
+        assert!(text.contains(needle), "{needle} missing from:\n{text}");
+    }
 }
 
 #[test]

@@ -313,3 +313,36 @@ fn bad_wetting_is_an_error() {
     assert!(!o.status.success());
     assert!(String::from_utf8_lossy(&o.stderr).contains("--dual-kc"));
 }
+
+#[test]
+fn a_mediterranean_winter_wheat_at_18_degrees_north_warns() {
+    // FAO-56 Table 11: winter wheat, November, Mediterranean, 240 days; the
+    // station at 18° N lies far outside the Mediterranean latitudes.
+    let dir = tempfile::tempdir().unwrap();
+    let w = write_weather(dir.path());
+    let args = |crop: &'static str, lat: &'static str| {
+        offtake(&[
+            "planting",
+            "--weather",
+            w.to_str().unwrap(),
+            "--lat",
+            lat,
+            "--elevation",
+            "350",
+            "--crop",
+            crop,
+            "--plant",
+            "2003-11-01",
+        ])
+    };
+    let o = args("wheat-winter", "18");
+    assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    let err = String::from_utf8_lossy(&o.stderr);
+    assert!(
+        err.contains("season plausibility: crop wheat-winter") && err.contains("18.0° N"),
+        "{err}"
+    );
+    // At 38° N (inside the Mediterranean band) it does not.
+    let o = args("wheat-winter", "38");
+    assert!(!String::from_utf8_lossy(&o.stderr).contains("season plausibility"));
+}

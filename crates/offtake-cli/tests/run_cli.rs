@@ -191,4 +191,10 @@ fn compare_prints_one_column_per_scenario() {
     assert!(text.contains("headworks design flow (l/s)"));
     assert!(text.contains("capacity shortfall, design basis (m3/year)"));
     assert!(text.contains("design basis (10-day mean flows)"), "{text}");
+    // One basis for every per-year figure, named (issue 10 point 6).
+    assert!(
+        text.contains("are over the 24 complete irrigation years of the record"),
+        "{text}"
+    );
+    assert!(text.contains("reservoir evaporation, spread of 3 methods (m3/year)"));
 }

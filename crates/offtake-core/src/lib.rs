@@ -29,6 +29,7 @@ pub mod rotation;
 pub mod salinity;
 pub mod scheme;
 pub mod soil;
+pub mod station_limits;
 pub mod stats;
 pub mod units;
 pub mod weather;

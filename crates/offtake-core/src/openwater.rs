@@ -44,6 +44,11 @@ pub const MEYER_WIND_HEIGHT_M: f64 = 9.0;
 pub const ROHWER_WIND_HEIGHT_M: f64 = 0.6;
 /// Albedo of open water (–), Shuttleworth (1993) in Maidment's Handbook of Hydrology.
 pub const OPEN_WATER_ALBEDO: f64 = 0.08;
+/// FAO-56 Table 12 (pp. 110–114), "Open water, < 2 m depth or in subhumid climates
+/// or tropics": Kc mid = Kc end = 1.05 (–). Kc × ET₀ (FAO-56 eq. 56) serves
+/// as a plausibility line beside the open-water formulas, not as a method of
+/// its own (a deep reservoir stores and releases heat, which Kc ignores).
+pub const FAO56_SHALLOW_OPEN_WATER_KC: f64 = 1.05;
 
 /// Errors of the open-water formulas.
 #[derive(Debug, Clone, PartialEq, Error)]

@@ -727,6 +727,7 @@ pub mod v0 {
                 rotation_period_days: old.options.rotation_period_days,
                 available_supply: None,
                 gap_filling: cur::GapFilling::default(),
+                station_limits: offtake_core::station_limits::StationLimits::default(),
             },
             scenarios: Vec::new(),
         }

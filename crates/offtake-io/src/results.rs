@@ -4,7 +4,8 @@
 //! `node_demand_daily.csv`, `block_requirements_daily.csv`,
 //! `demand_10day.csv`, `demand_monthly.csv`, `roster.csv` (when supply is
 //! short) and `results.xlsx` (summary, design values, 10-day and monthly
-//! tables, roster; daily tables stay in CSV), plus the text summary with
+//! tables, roster, reservoir evaporation by every open-water method; daily
+//! tables stay in CSV), plus the text summary with
 //! units that `offtake run` prints.
 
 use std::fmt::Write as _;
@@ -15,7 +16,9 @@ use crate::export::{
     DESIGN_VALUES_HEADERS, ExportError, NODE_DEMAND_DAILY_CSV, NODE_DEMAND_DAILY_HEADERS,
     RESULTS_WORKBOOK, Table, decimals as dec,
 };
-use offtake_core::engine::Results;
+use offtake_core::engine::storage::method_label;
+use offtake_core::engine::{Results, StorageLosses};
+use offtake_core::openwater::FAO56_SHALLOW_OPEN_WATER_KC;
 use offtake_core::project::Project;
 use offtake_core::scheme::{DesignBasis, Node, PeriodStep};
 
@@ -156,13 +159,7 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
         );
     }
     if let Some(st) = &r.storage {
-        let _ = writeln!(
-            s,
-            "Reservoir {} evaporation ({:?}): {} m3/year, beside (not included in) the headworks demand",
-            st.reservoir,
-            st.method,
-            fmt_int(st.mean_yearly_m3)
-        );
+        storage_lines(&mut s, st);
     }
     let with_cap: Vec<_> = r
         .design
@@ -196,18 +193,18 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
                 let years: Vec<String> = f.years_short.iter().map(|y| y.label()).collect();
                 let _ = writeln!(
                     s,
-                    "    {} mean flow above capacity in {} {}, in {} of {} complete years{}; {} m3 not delivered over the record",
+                    "    {} mean flow above capacity in {} {} of the {} complete irrigation years, in {} of those years{}; {} m3 not delivered per complete irrigation year",
                     f.basis.label(),
-                    f.basis_periods.len(),
+                    f.basis_periods_in(&r.complete_years).count(),
                     f.basis.periods_noun(),
+                    r.complete_years.len(),
                     f.years_short.len(),
-                    d.years.len(),
                     if years.is_empty() || years.len() > 8 {
                         String::new()
                     } else {
                         format!(" ({})", years.join(", "))
                     },
-                    fmt_int(f.basis_volume_not_delivered_m3)
+                    fmt_int(f.basis_volume_per_year_m3(&r.complete_years))
                 );
                 if f.basis != DesignBasis::Daily {
                     let _ = writeln!(
@@ -324,6 +321,99 @@ fn design_table(s: &mut String, r: &Results) {
     }
 }
 
+/// The reservoir's evaporation by the three open-water methods side by
+/// side, their spread and the FAO-56 open-water Kc line.
+fn storage_lines(s: &mut String, st: &StorageLosses) {
+    let _ = writeln!(
+        s,
+        "Reservoir {} evaporation ({}): {} m3/year, beside (not included in) the headworks demand",
+        st.reservoir,
+        method_label(st.method),
+        fmt_int(st.mean_yearly_m3)
+    );
+    let shift = if st.water_temperature_shift_c == 0.0 {
+        String::new()
+    } else {
+        format!(
+            "; water-surface temperature shifted {:+.1} °C with the air",
+            st.water_temperature_shift_c
+        )
+    };
+    let _ = writeln!(
+        s,
+        "  open-water methods side by side (mean per complete irrigation year{shift}):"
+    );
+    let _ = writeln!(
+        s,
+        "    {:<26} {:>8} {:>8} {:>14}",
+        "method", "mm/year", "x ET0", "m3/year"
+    );
+    for m in &st.methods {
+        let _ = writeln!(
+            s,
+            "    {:<26} {:>8} {:>8.2} {:>14}{}",
+            method_label(m.method),
+            fmt_int(m.mean_yearly_mm),
+            m.ratio_to_et0,
+            fmt_int(m.mean_yearly_m3),
+            if m.method == st.method {
+                "  used for the scheme's losses"
+            } else {
+                ""
+            }
+        );
+    }
+    let (lo, hi) = st.spread_m3();
+    let _ = writeln!(
+        s,
+        "  spread of the three methods: {} to {} m3/year ({:.0} % of the loss used); plausibility line FAO-56 Table 12 open water < 2 m deep, Kc {:.2} x ET0: {} mm/year, {} m3/year",
+        fmt_int(lo),
+        fmt_int(hi),
+        st.spread_pct_of_used(),
+        FAO56_SHALLOW_OPEN_WATER_KC,
+        fmt_int(st.kc_line_mean_yearly_mm),
+        fmt_int(st.kc_line_mean_yearly_m3)
+    );
+}
+
+/// Header of the workbook's reservoir evaporation sheet.
+pub const RESERVOIR_EVAPORATION_HEADERS: [&str; 6] = [
+    "method",
+    "evaporation_mm_year",
+    "ratio_to_et0",
+    "loss_m3_year",
+    "used",
+    "note",
+];
+
+fn reservoir_table(st: &StorageLosses) -> Table {
+    let mut t = Table::with_headers("reservoir evaporation", &RESERVOIR_EVAPORATION_HEADERS);
+    for m in &st.methods {
+        t.push_row(vec![
+            Cell::Text(method_label(m.method).to_owned()),
+            Cell::rounded(m.mean_yearly_mm, 0),
+            Cell::rounded(m.ratio_to_et0, 2),
+            Cell::rounded(m.mean_yearly_m3, dec::VOLUME_M3),
+            Cell::Text(if m.method == st.method { "yes" } else { "no" }.to_owned()),
+            Cell::Text(format!(
+                "{} reservoir, mean per complete irrigation year; water-surface temperature shift {:+.1} °C",
+                st.reservoir, st.water_temperature_shift_c
+            )),
+        ]);
+    }
+    t.push_row(vec![
+        Cell::Text(format!(
+            "FAO-56 Table 12 open water < 2 m deep, Kc {FAO56_SHALLOW_OPEN_WATER_KC:.2} x ET0"
+        )),
+        Cell::rounded(st.kc_line_mean_yearly_mm, 0),
+        Cell::rounded(FAO56_SHALLOW_OPEN_WATER_KC, 2),
+        Cell::rounded(st.kc_line_mean_yearly_m3, dec::VOLUME_M3),
+        Cell::Text("no".to_owned()),
+        Cell::Text("plausibility line, not a method".to_owned()),
+    ]);
+    t
+}
+
 fn node_order(r: &Results) -> Vec<Node> {
     let net = r.demand.network();
     let mut v: Vec<Node> = (0..net.canals().len()).map(Node::Canal).collect();
@@ -424,6 +514,9 @@ pub fn tables(r: &Results, project: &Project) -> Vec<Table> {
         }
         out.push(t);
     }
+    if let Some(st) = &r.storage {
+        out.push(reservoir_table(st));
+    }
     let mut summary = Table::with_headers("summary", &["item", "value"]);
     for line in summary_text(r, project).lines() {
         summary.push_row(vec![Cell::Text(line.to_owned()), Cell::Empty]);
@@ -478,6 +571,7 @@ pub fn write_tables(
     book.push(&all[4]);
     book.extend(all.iter().find(|t| t.name == "block outlets"));
     book.extend(roster);
+    book.extend(all.iter().find(|t| t.name == "reservoir evaporation"));
     export::write_workbook(&book, &out.join(RESULTS_WORKBOOK))?;
     written.push(RESULTS_WORKBOOK.to_owned());
     Ok(written)

@@ -630,3 +630,30 @@ fn saved_project_has_normal_permissions() {
     // 0o664 less the umask's bits at most.
     assert_eq!(mode & 0o644, 0o644, "mode {mode:o}");
 }
+
+#[test]
+fn station_limits_round_trip_and_are_omitted_when_default() {
+    use offtake_core::station_limits::{StationLimits, VariableLimits};
+    let mut p = load_project(&demo()).unwrap();
+    let text = project_to_string(&p).unwrap();
+    assert!(!text.contains("station_limits"), "default not written");
+    p.options.station_limits = StationLimits {
+        keep_out_of_limit_values: true,
+        limits: vec![VariableLimits {
+            variable: "tmax_c".to_owned(),
+            min: Some(5.0),
+            max: Some(47.0),
+        }],
+    };
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("scheme.ron");
+    save_project(&path, &p).unwrap();
+    let text = std::fs::read_to_string(&path).unwrap();
+    assert!(text.contains("station_limits"), "{text}");
+    assert_eq!(load_project(&path).unwrap(), p);
+    // The same schema version as before (the field is optional).
+    assert_eq!(
+        load_project(&path).unwrap().schema,
+        load_project(&demo()).unwrap().schema
+    );
+}

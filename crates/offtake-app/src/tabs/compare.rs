@@ -72,7 +72,7 @@ pub fn table_rows(
     }
     rows.extend([
         (
-            "Not delivered by too-small canals (Mm³/year)".to_owned(),
+            "Not delivered by too-small canals (Mm³ per complete irrigation year)".to_owned(),
             col(&|s| mm3(s.shortfall_m3_per_year)),
         ),
         (
@@ -82,6 +82,14 @@ pub fn table_rows(
         (
             "Reservoir evaporation (Mm³/year)".to_owned(),
             col(&|s| opt(s.storage_loss_m3, mm3)),
+        ),
+        (
+            "Reservoir evaporation: method used, spread of Meyer, Penman, Rohwer (Mm³/year)"
+                .to_owned(),
+            col(&|s| match (s.storage_method, s.storage_spread_m3) {
+                (Some(m), Some((lo, hi))) => format!("{m}; {}–{}", mm3(lo), mm3(hi)),
+                _ => "—".to_owned(),
+            }),
         ),
         (
             "Relative irrigation supply (–)".to_owned(),

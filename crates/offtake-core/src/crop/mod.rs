@@ -60,6 +60,11 @@ pub enum Provenance {
     /// Checked against the shared reference file of published values
     /// (read from the cited table).
     Reference,
+    /// Checked against a machine-readable transcription of the cited table
+    /// (named in the note), not against the printed page. The check of every
+    /// library value, with the published value and where it was read, is kept
+    /// beside the project's shared reference file (`library-check.csv`).
+    Transcription,
     /// Recalled from the cited published table, not yet checked against the
     /// printed page: verify before relying on it.
     Memory,

@@ -25,9 +25,11 @@ pub struct ScenarioColumn {
     pub duty_ls_ha: Option<f64>,
     /// Volume not delivered by canals with an existing capacity, on the
     /// design basis (Σ (mean − capacity) × days over the short periods),
-    /// mean per year of record (m³).
+    /// mean per complete irrigation year (m³/year): the same years as
+    /// `shortfall_years` and `complete_years`.
     pub shortfall_m3_per_year: f64,
-    /// Periods of the design basis in shortfall, summed over those canals.
+    /// Periods of the design basis in shortfall within the complete
+    /// irrigation years, summed over those canals.
     pub shortfall_periods: usize,
     /// Complete irrigation years in which any of those canals falls short
     /// on the design basis.
@@ -39,8 +41,13 @@ pub struct ScenarioColumn {
     /// Daily peaks: days on which the daily demand exceeds the capacity,
     /// summed over those canals (for information; not the design basis).
     pub shortfall_days: usize,
-    /// Mean yearly reservoir evaporation (m³), if any.
+    /// Mean yearly reservoir evaporation (m³), if any, by the reservoir's method.
     pub storage_loss_m3: Option<f64>,
+    /// The reservoir's method (label), if any.
+    pub storage_method: Option<&'static str>,
+    /// Smallest and largest mean yearly reservoir evaporation of the three
+    /// open-water methods (m³/year), if any.
+    pub storage_spread_m3: Option<(f64, f64)>,
     /// Relative irrigation supply under the given supply.
     pub relative_irrigation_supply: Option<f64>,
     /// Relative water supply (Levine 1982) under the given supply.
@@ -67,7 +74,9 @@ impl ScenarioColumn {
     /// The figures of one run.
     pub fn from_results(name: &str, r: &Results) -> Self {
         let head = r.headworks();
-        let record_years = r.days as f64 / 365.25;
+        // Per-year figures are per complete irrigation year (the years the
+        // design values use); periods in the incomplete ends are left out.
+        let complete = &r.complete_years;
         let (mut sf_m3, mut sf_days, mut sf_periods) = (0.0, 0, 0);
         let mut years: Vec<crate::calendar::IrrigationYear> = Vec::new();
         let mut basis = head.map_or(crate::scheme::DesignBasis::TenDay, |h| h.basis);
@@ -75,8 +84,8 @@ impl ScenarioColumn {
             if d.node != crate::scheme::Node::Headworks
                 && let Some(s) = &d.shortfall
             {
-                sf_m3 += s.basis_volume_not_delivered_m3;
-                sf_periods += s.basis_periods.len();
+                sf_m3 += s.basis_volume_in_m3(complete);
+                sf_periods += s.basis_periods_in(complete).count();
                 sf_days += s.days.len();
                 basis = s.basis;
                 for y in &s.years_short {
@@ -94,10 +103,10 @@ impl ScenarioColumn {
             design_flow_ls: head.map_or(0.0, |h| h.design_flow_ls),
             design_year: head.map(|h| h.design_year.label()).unwrap_or_default(),
             duty_ls_ha: head.and_then(|h| h.duty_ls_ha),
-            shortfall_m3_per_year: if record_years > 0.0 {
-                sf_m3 / record_years
-            } else {
+            shortfall_m3_per_year: if complete.is_empty() {
                 0.0
+            } else {
+                sf_m3 / complete.len() as f64
             },
             shortfall_periods: sf_periods,
             shortfall_years: years.len(),
@@ -105,6 +114,11 @@ impl ScenarioColumn {
             shortfall_basis: basis.label(),
             shortfall_days: sf_days,
             storage_loss_m3: r.storage.as_ref().map(|s| s.mean_yearly_m3),
+            storage_method: r
+                .storage
+                .as_ref()
+                .map(|s| super::storage::method_label(s.method)),
+            storage_spread_m3: r.storage.as_ref().map(super::StorageLosses::spread_m3),
             relative_irrigation_supply: r
                 .supply
                 .as_ref()

@@ -22,9 +22,11 @@
 //!    probability and basis from the options); shortfall where an existing
 //!    capacity is given.
 //! 4. **Storage** ([`storage`]): open-water evaporation from the reservoir
-//!    (Meyer, Rohwer or Penman; water temperature = air temperature where not
-//!    given) × its monthly surface area, reported beside the headworks demand,
-//!    never added to it.
+//!    by Meyer, Penman and Rohwer side by side, the reservoir's method giving
+//!    the losses (water temperature = air temperature where not given; a
+//!    scenario's temperature change shifts both), against FAO-56 Table 12
+//!    open-water Kc × ET₀ as a plausibility line; × its monthly surface area,
+//!    reported beside the headworks demand, never added to it.
 //! 5. **Supply** ([`supply`]): when the options give an available supply at a
 //!    node and it falls short of the demand there, a rotation roster; the
 //!    water each block receives is re-applied to its plantings' balances to
@@ -63,7 +65,7 @@ use crate::weather::{StationSite, WeatherDay};
 pub use compare::{Comparison, ScenarioColumn, compare_scenarios, compare_scenarios_each};
 pub use planting_step::{PlantingOutcome, SeasonOutcome};
 pub use plantings::PlantingSummary;
-pub use storage::StorageLosses;
+pub use storage::{MethodLoss, StorageLosses};
 pub use supply::{BlockSupply, PlantingSupply, SupplyResult};
 pub use weather_prep::PreparedWeather;
 
@@ -234,6 +236,9 @@ pub struct Results {
     pub season_volumes: Vec<SeasonVolume>,
     /// Reservoir evaporation, if the scheme has a reservoir.
     pub storage: Option<StorageLosses>,
+    /// Weather values beyond the station limits: treated as missing and
+    /// filled, or kept when the project says so.
+    pub weather_out_of_limits: Vec<crate::station_limits::OutOfLimits>,
     /// Supply, roster and re-run, if an available supply is given.
     pub supply: Option<SupplyResult>,
     /// Warnings (validation problems, estimated data, excluded seasons...).
@@ -366,6 +371,11 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     for p in problems {
         warnings.push(format!("validation: {p}"));
     }
+    warnings.extend(crate::project::plausibility::season_warnings(
+        project,
+        input.crops,
+        input.weather,
+    ));
 
     // Gaps: the default gap filling (linear interpolation up to 3 days, the
     // FAO-56 missing-data procedures beyond; rain is not invented).
@@ -374,8 +384,11 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     let checker =
         crate::et0::Et0Context::new(&site_of(project), &crate::et0::Et0Options::default())
             .map_err(EngineError::Station)?;
+    let screened = weather_prep::screen_weather(input.weather, project)?;
+    warnings.extend(screened.warning.clone());
+    let weather_out_of_limits = screened.out_of_limits.clone();
     let repaired = crate::gapfill::repair_for_daily_balance(
-        input.weather,
+        &screened.days,
         &project.options.gap_filling.options(),
         |d| checker.et0_mm_day(d).map(|_| ()).map_err(|e| e.to_string()),
     )
@@ -467,7 +480,12 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     };
     let design = scheme::design_values(&demand, &options)?;
     let storage = match &project.reservoir {
-        Some(r) => Some(storage::reservoir_losses(r, &weather, &complete_years)?),
+        Some(r) => Some(storage::reservoir_losses(
+            r,
+            &weather,
+            &complete_years,
+            input.perturbation.temperature_shift_c,
+        )?),
         None => None,
     };
     let mut season_volumes: Vec<SeasonVolume> = Vec::new();
@@ -488,14 +506,14 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
             && !sf.basis_periods.is_empty()
         {
             warnings.push(format!(
-                "canal {}: the {} mean demand exceeds the existing capacity in {} {} of the record, in {} of {} complete irrigation years ({:.0} m³ not delivered over the record)",
+                "canal {}: the {} mean demand exceeds the existing capacity in {} {} of the {} complete irrigation years, in {} of those years ({:.0} m³ not delivered per complete irrigation year)",
                 d.name,
                 sf.basis.label(),
-                sf.basis_periods.len(),
+                sf.basis_periods_in(&complete_years).count(),
                 sf.basis.periods_noun(),
+                complete_years.len(),
                 sf.years_short.len(),
-                d.years.len(),
-                sf.basis_volume_not_delivered_m3
+                sf.basis_volume_per_year_m3(&complete_years)
             ));
         }
     }
@@ -536,6 +554,7 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
         outlets: computed.outlets,
         season_volumes,
         storage,
+        weather_out_of_limits,
         supply,
         warnings,
         timing: Timing {

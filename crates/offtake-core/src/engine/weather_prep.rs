@@ -206,3 +206,76 @@ pub fn prepare_weather(
     }
     Ok(w)
 }
+
+/// A record screened against the station limits, ready for gap filling.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ScreenedWeather {
+    /// The days, values beyond the limits removed unless the project keeps them.
+    pub days: Vec<WeatherDay>,
+    /// Every value beyond its limits.
+    pub out_of_limits: Vec<crate::station_limits::OutOfLimits>,
+    /// The warning to report (none when every value is inside).
+    pub warning: Option<String>,
+}
+
+/// Screens the record against the project's station limits
+/// ([`crate::station_limits`]) before gap filling: values beyond them are
+/// removed (so the chosen gap-filling method fills them) unless the project
+/// keeps them.
+///
+/// # Errors
+/// [`EngineError::WeatherFill`] for bad user limits, naming the column.
+pub fn screen_weather(
+    days: &[WeatherDay],
+    project: &crate::project::Project,
+) -> Result<ScreenedWeather, EngineError> {
+    let limits = &project.options.station_limits;
+    let half_window = project
+        .options
+        .gap_filling
+        .options()
+        .climatology_half_window_days;
+    let s = crate::station_limits::screen_station_limits(days, limits, half_window)
+        .map_err(|e| EngineError::WeatherFill(e.to_string()))?;
+    let warning = (!s.out_of_limits.is_empty()).then(|| {
+        let first: Vec<String> = s
+            .out_of_limits
+            .iter()
+            .take(3)
+            .map(|o| {
+                let (lo, hi) = (o.low, o.high);
+                format!(
+                    "{} {} = {} outside {:.1} to {:.1}, {}",
+                    o.date,
+                    o.variable,
+                    o.value,
+                    lo,
+                    hi,
+                    o.source.label()
+                )
+            })
+            .collect();
+        let n = s.out_of_limits.len();
+        let what = if n == 1 {
+            "1 value".to_owned()
+        } else {
+            format!("{n} values")
+        };
+        if s.kept {
+            format!(
+                "weather: {what} beyond the station limits kept as measured (options.station_limits.keep_out_of_limit_values) (first: {})",
+                first.join("; ")
+            )
+        } else {
+            format!(
+                "weather: {what} beyond the station limits treated as missing and filled by the gap-filling method (first: {}); to keep them set options.station_limits.keep_out_of_limit_values: true",
+                first.join("; ")
+            )
+        }
+    });
+    Ok(ScreenedWeather {
+        days: s.days,
+        out_of_limits: s.out_of_limits,
+        warning,
+    })
+}

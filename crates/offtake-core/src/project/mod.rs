@@ -19,6 +19,7 @@
 //! ([`tree`]), whole-project validation ([`validate`]) and scenario
 //! application ([`scenario`]).
 
+pub mod plausibility;
 pub mod scenario;
 pub mod tree;
 pub mod validate;
@@ -774,6 +775,13 @@ pub struct Options {
     /// Older files without the field take the default.
     #[serde(default, skip_serializing_if = "GapFilling::is_default")]
     pub gap_filling: GapFilling,
+    /// Station limits of the weather values (see [`crate::station_limits`]);
+    /// omitted from the file when default, so no schema change.
+    #[serde(
+        default,
+        skip_serializing_if = "crate::station_limits::StationLimits::is_default"
+    )]
+    pub station_limits: crate::station_limits::StationLimits,
 }
 
 /// How the weather record's gaps are filled (see [`crate::gapfill`]).
@@ -841,6 +849,7 @@ impl Default for Options {
             rotation_period_days: 7,
             available_supply: None,
             gap_filling: GapFilling::default(),
+            station_limits: crate::station_limits::StationLimits::default(),
         }
     }
 }

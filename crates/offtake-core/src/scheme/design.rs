@@ -259,6 +259,36 @@ pub struct Shortfall {
     pub years_short: Vec<IrrigationYear>,
 }
 
+impl Shortfall {
+    /// The short periods of the basis that lie in `years` (the complete
+    /// irrigation years: the one basis of every per-year figure).
+    pub fn basis_periods_in<'a>(
+        &'a self,
+        years: &'a [IrrigationYear],
+    ) -> impl Iterator<Item = &'a BasisShortfallPeriod> + 'a {
+        self.basis_periods
+            .iter()
+            .filter(move |p| years.iter().any(|y| y.contains(p.start)))
+    }
+
+    /// Volume not delivered on the basis in `years` (m³), Σ of
+    /// [`Self::basis_periods_in`]'s deficits.
+    pub fn basis_volume_in_m3(&self, years: &[IrrigationYear]) -> f64 {
+        self.basis_periods_in(years).map(|p| p.deficit_m3).sum()
+    }
+
+    /// Mean volume not delivered per complete irrigation year (m³/year):
+    /// [`Self::basis_volume_in_m3`] over `complete_years` ÷ their number
+    /// (0 without complete years).
+    pub fn basis_volume_per_year_m3(&self, complete_years: &[IrrigationYear]) -> f64 {
+        if complete_years.is_empty() {
+            0.0
+        } else {
+            self.basis_volume_in_m3(complete_years) / complete_years.len() as f64
+        }
+    }
+}
+
 /// Daily peaks: days and 10-day periods on which a daily demand (m³/day
 /// from `start`) exceeds what a canal of capacity `capacity_m3s` running
 /// `hours_per_day` hours a day can deliver (capacity × hours × 3600
