@@ -34,9 +34,25 @@ pub enum Bound {
 
 impl Bound {
     /// The end value.
-    pub fn value(self) -> f64 {
+    pub const fn value(self) -> f64 {
         match self {
             Self::Inclusive(v) | Self::Exclusive(v) => v,
+        }
+    }
+}
+
+/// A number for messages: plain for everyday magnitudes, in exponent form
+/// for tiny and huge ones (`1e-300`, not three hundred zeros).
+pub struct Num(pub f64);
+
+impl fmt::Display for Num {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let v = self.0;
+        let a = v.abs();
+        if v.is_finite() && a != 0.0 && !(1e-4..1e6).contains(&a) {
+            write!(f, "{v:e}")
+        } else {
+            write!(f, "{v}")
         }
     }
 }
@@ -94,15 +110,15 @@ impl fmt::Display for Range {
     /// (both excluded)`.
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match (self.min, self.max) {
-            (Bound::Inclusive(a), Bound::Inclusive(b)) => write!(f, "{a} to {b}"),
+            (Bound::Inclusive(a), Bound::Inclusive(b)) => write!(f, "{} to {}", Num(a), Num(b)),
             (Bound::Exclusive(a), Bound::Inclusive(b)) => {
-                write!(f, "more than {a} and at most {b}")
+                write!(f, "more than {} and at most {}", Num(a), Num(b))
             }
             (Bound::Inclusive(a), Bound::Exclusive(b)) => {
-                write!(f, "at least {a} and less than {b}")
+                write!(f, "at least {} and less than {}", Num(a), Num(b))
             }
             (Bound::Exclusive(a), Bound::Exclusive(b)) => {
-                write!(f, "more than {a} and less than {b}")
+                write!(f, "more than {} and less than {}", Num(a), Num(b))
             }
         }
     }
@@ -233,9 +249,9 @@ pub const EXISTING_CAPACITY_M3S: Limit = Limit {
     field: "existing_capacity_m3s",
     label: "Existing capacity",
     unit: "m³/s",
-    physical: Range::closed(0.0, 5000.0),
+    physical: Range::open_closed(0.0, 5000.0),
     usual: Range::closed(0.005, 500.0),
-    source: "common practice: the largest irrigation canals carry a few hundred m³/s; a field channel a few l/s",
+    source: "common practice: the largest irrigation canals carry a few hundred m³/s; a field channel a few l/s; a capacity of 0 is no canal (leave the capacity out when it is not known)",
 };
 
 /// Area of a block.
@@ -283,9 +299,9 @@ pub const SEASON_LENGTH_DAYS: Limit = Limit {
     field: "season_length_days",
     label: "Season length",
     unit: "days",
-    physical: Range::closed(1.0, 365.0),
+    physical: Range::closed(4.0, 365.0),
     usual: Range::closed(30.0, 365.0),
-    source: "usual: FAO-56 (Allen et al. 1998) Table 11 season totals, about 35 days (radish) to a year (perennials); physical: a cropping plan repeats every year",
+    source: "usual: FAO-56 (Allen et al. 1998) Table 11 season totals, about 35 days (radish) to a year (perennials); physical: the four FAO-56 stages need a day each, and a cropping plan repeats every year",
 };
 
 /// Refill trigger as a share of RAW.
@@ -323,9 +339,9 @@ pub const TRIGGER_PCT_OF_TAW: Limit = Limit {
     field: "strategy.trigger_pct_of_taw",
     label: "Deficit trigger",
     unit: "% of TAW",
-    physical: Range::open_closed(0.0, 100.0),
+    physical: Range::open(0.0, 100.0),
     usual: Range::closed(30.0, 90.0),
-    source: "physical: a share of TAW (FAO-56 eq. 82); usual: common practice",
+    source: "physical: a share of TAW (FAO-56 eq. 82) below TAW itself, where Ks reaches 0 (eq. 84) and the crop wilts; usual: common practice",
 };
 
 /// Share of the depletion replaced at each deficit irrigation.
@@ -443,9 +459,9 @@ pub const ELEVATION_M: Limit = Limit {
     field: "elevation_m",
     label: "Elevation",
     unit: "m",
-    physical: Range::closed(-500.0, 9000.0),
+    physical: Range::closed(-450.0, 9000.0),
     usual: Range::closed(-100.0, 4500.0),
-    source: "common practice: the lowest land is about 430 m below sea level, the highest summit under 9,000 m",
+    source: "common practice: the lowest land is about 430 m below sea level, the highest summit under 9,000 m (the ET0 station check, et0::Et0Context, uses the same bounds)",
 };
 
 /// Height of the wind measurement.
@@ -453,9 +469,9 @@ pub const WIND_HEIGHT_M: Limit = Limit {
     field: "wind_height_m",
     label: "Wind height",
     unit: "m",
-    physical: Range::closed(0.1, 100.0),
+    physical: Range::closed(0.5, 100.0),
     usual: Range::closed(1.5, 10.0),
-    source: "usual: FAO-56 (Allen et al. 1998) standard height 2 m (p. 56), weather stations 2 m or 10 m; physical: FAO-56 eq. 47 needs 67.8 z > 5.42",
+    source: "usual: FAO-56 (Allen et al. 1998) standard height 2 m (p. 56), weather stations 2 m or 10 m; physical: FAO-56 eq. 47 needs 67.8 z > 5.42, and below half a metre the crop itself shelters the sensor (common practice)",
 };
 
 /// Reservoir surface area in one month.

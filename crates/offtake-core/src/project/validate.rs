@@ -28,7 +28,7 @@ use thiserror::Error;
 
 use super::tree::TreeError;
 use super::{AvailableSupply, EffectiveRain, HEADWORKS, Planting, Project, SupplyFlow};
-use crate::limits::{self, IdProblem};
+use crate::limits::{self, IdProblem, Num};
 use crate::weather_import::ImportSettingsProblem;
 
 mod ranges;
@@ -95,22 +95,6 @@ pub enum Severity {
     Error,
     /// Computed, but the value is worth a second look.
     Warning,
-}
-
-/// A number for messages: plain for everyday magnitudes, in exponent form
-/// for tiny and huge ones (`1e-300`, not three hundred zeros).
-pub struct Num(pub f64);
-
-impl fmt::Display for Num {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        let v = self.0;
-        let a = v.abs();
-        if v.is_finite() && a != 0.0 && !(1e-4..1e9).contains(&a) {
-            write!(f, "{v:e}")
-        } else {
-            write!(f, "{v}")
-        }
-    }
 }
 
 /// An id as messages show it: quoted, and cut after 40 characters with its
