@@ -537,10 +537,7 @@ fn at_seconds(origin: NaiveDateTime, seconds: f64) -> Result<NaiveDateTime, Rota
     if !(seconds.is_finite() && seconds.abs() < 9.0e15) {
         return Err(out_of_range());
     }
-    #[expect(
-        clippy::cast_possible_truncation,
-        reason = "bounded by 9e15 just above, well inside i64"
-    )]
+    // Bounded by 9e15 just above, well inside i64.
     let whole = seconds.round() as i64;
     TimeDelta::try_seconds(whole)
         .and_then(|d| origin.checked_add_signed(d))

@@ -31,6 +31,8 @@ use super::{AvailableSupply, EffectiveRain, HEADWORKS, Planting, Project, Supply
 use crate::limits::{self, IdProblem, Num};
 use crate::weather_import::ImportSettingsProblem;
 
+#[cfg(test)]
+mod limit_tests;
 mod ranges;
 
 use ranges::{check_count, check_limit, check_paddy, check_strategy};
