@@ -649,6 +649,7 @@ pub fn check_id(id: &str) -> Option<IdProblem> {
 }
 
 #[cfg(test)]
+#[allow(clippy::float_cmp, reason = "range ends are compared as written")]
 mod tests {
     use super::*;
 

@@ -362,7 +362,13 @@ impl ValidationProblem {
     /// Whether the problem stops the computation.
     pub fn severity(&self) -> Severity {
         match self {
-            Self::Unusual { .. } | Self::StationNotEntered => Severity::Warning,
+            // Overlapping seasons on a block are computed with a warning:
+            // the occupancy model (equal daily cohorts, whole seasons) is an
+            // approximation, and while a plan is edited seasons often
+            // overlap for a few days.
+            Self::Unusual { .. } | Self::StationNotEntered | Self::BlockOverplanted { .. } => {
+                Severity::Warning
+            }
             Self::InScenario { problem, .. } => problem.severity(),
             _ => Severity::Error,
         }

@@ -325,7 +325,7 @@ fn cases() -> Vec<(&'static Limit, Set, &'static str, bool)> {
                     .unwrap()
                     .water_temperature_c
                     .as_mut()
-                    .unwrap()[11] = v
+                    .unwrap()[11] = v;
             },
             "reservoir \"Tank\" month 12: Water temperature (water_temperature_c)",
             false,

@@ -135,23 +135,27 @@ pub(super) fn check_paddy(subject: &str, p: &PaddyInputs, out: &mut Vec<Validati
 /// The parameters of a planting's irrigation strategy.
 pub(super) fn check_strategy(subject: &str, s: &Strategy, out: &mut Vec<ValidationProblem>) {
     match *s {
-        Strategy::Refill { trigger_pct_of_raw } => check_limit(
-            subject,
-            "strategy.trigger_pct_of_raw",
-            &limits::TRIGGER_PCT_OF_RAW,
-            trigger_pct_of_raw,
-            out,
-        ),
-        Strategy::Interval { days } => {
-            check_count(subject, "strategy.days", &limits::INTERVAL_DAYS, days, out)
+        Strategy::Refill { trigger_pct_of_raw } => {
+            check_limit(
+                subject,
+                "strategy.trigger_pct_of_raw",
+                &limits::TRIGGER_PCT_OF_RAW,
+                trigger_pct_of_raw,
+                out,
+            );
         }
-        Strategy::Depth { net_mm } => check_limit(
-            subject,
-            "strategy.net_mm",
-            &limits::NET_DEPTH_MM,
-            net_mm,
-            out,
-        ),
+        Strategy::Interval { days } => {
+            check_count(subject, "strategy.days", &limits::INTERVAL_DAYS, days, out);
+        }
+        Strategy::Depth { net_mm } => {
+            check_limit(
+                subject,
+                "strategy.net_mm",
+                &limits::NET_DEPTH_MM,
+                net_mm,
+                out,
+            );
+        }
         Strategy::Deficit {
             trigger_pct_of_taw,
             refill_pct_of_depletion,
