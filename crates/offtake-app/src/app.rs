@@ -343,6 +343,7 @@ impl OfftakeApp {
 
     fn take_results(&mut self, done: crate::worker::Finished<Computed>) {
         self.state.warning_count = done.output.warnings.len();
+        self.state.error_count = done.output.out_of_date.len();
         self.computed = Some(done.output);
         self.state.recompute = RecomputeStatus::Done {
             elapsed_ms: done.elapsed_ms,

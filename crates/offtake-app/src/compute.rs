@@ -40,6 +40,11 @@ pub struct Computed {
     /// Every scenario side by side (offtake-core `engine::compare`), when the
     /// project has scenarios.
     pub comparison: Option<Comparison>,
+    /// The validation errors that stopped the last computation (offtake-core
+    /// `EngineError::Invalid`). When not empty nothing was computed from the
+    /// project as it stands: `engine` holds the last good results, now out
+    /// of date (or the error, if there were none).
+    pub out_of_date: Vec<String>,
 }
 
 /// One engine run, shared without copying between the worker and the tabs.
@@ -283,6 +288,7 @@ pub fn default_compute(libraries: std::sync::Arc<Libraries>) -> ComputeFn {
                 engine_cache.compare(&snap.project, days, &libraries);
             }
             out.engine = engine_cache.run.clone();
+            out.out_of_date.clone_from(&engine_cache.errors);
             out.comparison = engine_cache.comparison.clone();
             if let Some(Ok(run)) = &out.engine {
                 out.warnings.extend(run.results.warnings.iter().cloned());
@@ -312,6 +318,9 @@ type EngineKey = (Project, Option<String>, Option<WeatherKey>);
 struct EngineCache {
     key: Option<EngineKey>,
     run: Option<Result<EngineRun, String>>,
+    /// Validation errors of the project as it stands (empty when `run` is
+    /// its results).
+    errors: Vec<String>,
     comparison: Option<Comparison>,
     /// Weather prepared as the engine prepares it (gaps filled), for season
     /// details; kept while the weather file, station, ET₀ method and weather
@@ -347,13 +356,29 @@ impl EngineCache {
             &libraries.soils,
             days,
         );
-        self.run = Some(
-            results
-                .map(|r| EngineRun {
+        match results {
+            Ok(r) => {
+                self.errors.clear();
+                self.run = Some(Ok(EngineRun {
                     results: Arc::new(r),
-                })
-                .map_err(|e| e.to_string()),
-        );
+                }));
+            }
+            // The project has errors: nothing is computed from it; the last
+            // good results stay, marked out of date by `errors`.
+            Err(engine::EngineError::Invalid { errors }) => {
+                self.errors = errors.iter().map(ToString::to_string).collect();
+                if !matches!(self.run, Some(Ok(_))) {
+                    self.run = Some(Err(format!(
+                        "the project has {} error(s); correct them to compute",
+                        errors.len()
+                    )));
+                }
+            }
+            Err(e) => {
+                self.errors.clear();
+                self.run = Some(Err(e.to_string()));
+            }
+        }
         if !same_base {
             self.comparison = None;
         }
@@ -656,5 +681,6 @@ pub fn summarize(project: &Project, libraries: &Libraries) -> Computed {
         engine: None,
         season: None,
         comparison: None,
+        out_of_date: Vec::new(),
     }
 }

@@ -39,6 +39,25 @@ impl Bounds {
         }
     }
 
+    /// The physical range of a limit of the core's table
+    /// (`offtake_core::limits`), shown as `what` in `unit`, display value =
+    /// stored value × `factor`. Open ends are shown as their end value; the
+    /// core's validation refuses the end itself.
+    pub const fn from_limit(
+        what: &'static str,
+        unit: &'static str,
+        limit: &offtake_core::limits::Limit,
+        factor: f64,
+    ) -> Self {
+        Self {
+            what,
+            unit,
+            min: limit.physical.min.value() * factor,
+            max: limit.physical.max.value() * factor,
+            factor,
+        }
+    }
+
     /// The same range for a value stored as a fraction and shown in %.
     #[must_use]
     pub const fn percent_of_fraction(mut self) -> Self {

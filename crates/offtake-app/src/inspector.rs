@@ -20,40 +20,64 @@ use crate::fields::{Bounds, date_free_month_day, name_field, number_field};
 /// Temporary-memory key the status bar sets to unfold the data warnings.
 pub const OPEN_WARNINGS: &str = "offtake-open-data-warnings";
 
-/// Allowed ranges, in the units shown.
+/// Allowed ranges, in the units shown. Where the core's table of limits
+/// (`offtake_core::limits`) has the range, it is read from there (the
+/// renovation issue moves every form onto the table).
 pub mod bounds {
     use crate::fields::Bounds;
+    use offtake_core::limits;
 
     /// Conveyance efficiency Ec of a canal reach.
-    pub const CONVEYANCE: Bounds =
-        Bounds::new("Conveyance efficiency", "%", 1.0, 100.0).percent_of_fraction();
+    pub const CONVEYANCE: Bounds = Bounds::from_limit(
+        "Conveyance efficiency",
+        "%",
+        &limits::CONVEYANCE_EFFICIENCY,
+        100.0,
+    );
     /// Field application efficiency Ea.
-    pub const APPLICATION: Bounds =
-        Bounds::new("Application efficiency", "%", 1.0, 100.0).percent_of_fraction();
+    pub const APPLICATION: Bounds = Bounds::from_limit(
+        "Application efficiency",
+        "%",
+        &limits::APPLICATION_EFFICIENCY,
+        100.0,
+    );
     /// Field-canal efficiency Eb.
-    pub const FIELD_CANAL: Bounds =
-        Bounds::new("Field-canal efficiency", "%", 1.0, 100.0).percent_of_fraction();
+    pub const FIELD_CANAL: Bounds = Bounds::from_limit(
+        "Field-canal efficiency",
+        "%",
+        &limits::FIELD_CANAL_EFFICIENCY,
+        100.0,
+    );
     /// Hours of canal operation per day.
-    pub const HOURS: Bounds = Bounds::new("Operating hours", "h/day", 0.1, 24.0);
+    pub const HOURS: Bounds =
+        Bounds::from_limit("Operating hours", "h/day", &limits::OPERATING_HOURS, 1.0);
     /// Existing capacity of a canal.
-    pub const CAPACITY: Bounds = Bounds::new("Existing capacity", "m³/s", 0.0, 10_000.0);
+    pub const CAPACITY: Bounds = Bounds::from_limit(
+        "Existing capacity",
+        "m³/s",
+        &limits::EXISTING_CAPACITY_M3S,
+        1.0,
+    );
     /// Block area.
     pub const AREA: Bounds = Bounds::new("Area", "ha", 0.0, 1.0e6);
     /// Planting share of its block.
     pub const SHARE: Bounds = Bounds::new("Share of block", "%", 0.0, 100.0);
     /// Planting spread.
-    pub const SPREAD: Bounds = Bounds::new("Planting spread", "days", 0.0, 365.0);
+    pub const SPREAD: Bounds =
+        Bounds::from_limit("Planting spread", "days", &limits::SPREAD_DAYS, 1.0);
     /// Longest weather gap filled by linear interpolation.
     pub const INTERPOLATION: Bounds =
         Bounds::new("Interpolate weather gaps up to", "days", 0.0, 31.0);
     /// Season length of a planting (FAO-56 stage lengths are scaled to it).
-    pub const SEASON: Bounds = Bounds::new("Season length", "days", 4.0, 365.0);
+    pub const SEASON: Bounds =
+        Bounds::from_limit("Season length", "days", &limits::SEASON_LENGTH_DAYS, 1.0);
     /// Latitude.
     pub const LATITUDE: Bounds = Bounds::new("Latitude", "°", -90.0, 90.0);
     /// Elevation.
-    pub const ELEVATION: Bounds = Bounds::new("Elevation", "m", -500.0, 9000.0);
+    pub const ELEVATION: Bounds = Bounds::from_limit("Elevation", "m", &limits::ELEVATION_M, 1.0);
     /// Wind measurement height.
-    pub const WIND_HEIGHT: Bounds = Bounds::new("Wind measurement height", "m", 0.5, 100.0);
+    pub const WIND_HEIGHT: Bounds =
+        Bounds::from_limit("Wind measurement height", "m", &limits::WIND_HEIGHT_M, 1.0);
     /// Design probability.
     pub const DESIGN_PROBABILITY: Bounds = Bounds::new("Design probability", "%", 1.0, 99.0);
     /// Percent of RAW that triggers irrigation.

@@ -2278,7 +2278,7 @@ mod tests {
         };
         assert_eq!(
             override_problems(&hours),
-            vec!["Operating hours must be between 0.1 h/day and 24 h/day".to_owned()]
+            vec!["Operating hours must be between 0.5 h/day and 24 h/day".to_owned()]
         );
         assert!(override_problems(&eb("C1", 0.5)).is_empty());
         let w = WeatherPerturbation {
@@ -2290,13 +2290,15 @@ mod tests {
             vec!["Rain change must be between -100 % and 200 %".to_owned()]
         );
         let warnings = vec![
-            "under scenario \"a\": block \"C1\": field_canal_efficiency = 1.5 is outside (0, 1]"
+            "under scenario \"a\": block \"C1\": Field-canal efficiency Eb (field_canal_efficiency) = 1.5 is outside its physical range: it must be 0.01 to 1 fraction"
                 .to_owned(),
             "under scenario \"b\": something else".to_owned(),
         ];
         assert_eq!(
             validation_problems(&warnings, "a"),
-            vec!["block \"C1\": field_canal_efficiency = 1.5 is outside (0, 1]"]
+            vec![
+                "block \"C1\": Field-canal efficiency Eb (field_canal_efficiency) = 1.5 is outside its physical range: it must be 0.01 to 1 fraction"
+            ]
         );
     }
 

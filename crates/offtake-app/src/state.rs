@@ -105,6 +105,9 @@ pub struct RuntimeState {
     pub recompute: RecomputeStatus,
     /// Number of data warnings in the last results.
     pub warning_count: usize,
+    /// Validation errors that stopped the last computation (the results
+    /// shown are the last good ones, out of date).
+    pub error_count: usize,
     /// A pending "discard unsaved changes?" question.
     pub confirm_discard: Option<Discard>,
     /// Year of the season the Water balance and Crop curves tabs show
@@ -125,6 +128,7 @@ impl Default for RuntimeState {
             recent: Vec::new(),
             recompute: RecomputeStatus::NothingToCompute,
             warning_count: 0,
+            error_count: 0,
             confirm_discard: None,
             season_year: None,
             scenario: None,

@@ -42,6 +42,16 @@ pub fn ui(ui: &mut Ui, state: &RuntimeState, save: SaveState, commands: &mut Vec
                 spinner(ui);
                 ui.label("recomputing…");
             }
+            RecomputeStatus::Done { .. } if state.error_count > 0 => {
+                let text = match state.error_count {
+                    1 => "1 error in the project — results out of date".to_owned(),
+                    n => format!("{n} errors in the project — results out of date"),
+                };
+                ui.label(RichText::new(text).color(ui.visuals().error_fg_color))
+                    .on_hover_text(
+                        "Nothing was computed from the project as it stands; the results shown are from the last good run. The errors are listed with the data warnings.",
+                    );
+            }
             RecomputeStatus::Done { elapsed_ms } => {
                 ui.label(format!("recomputed in {elapsed_ms:.0} ms"));
             }

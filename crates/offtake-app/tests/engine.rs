@@ -173,6 +173,24 @@ fn invalid_field_shows_its_error_and_keeps_the_project_and_results() {
             .as_ref()
             .is_some_and(|c| c.engine.is_some())
     );
+    // Nothing is computed from the invalid block (issue 15): the last good
+    // results stay, marked out of date, and the status bar says so.
+    let c = h.state().computed.as_ref().expect("computed");
+    assert!(matches!(c.engine, Some(Ok(_))), "last good results kept");
+    assert!(
+        c.out_of_date
+            .iter()
+            .any(|e| e.starts_with("block \"C1\": Application efficiency Ea")),
+        "{:?}",
+        c.out_of_date
+    );
+    h.get_by_label("1 error in the project — results out of date");
+    // Undo: the project is valid again and the results are current.
+    h.state_mut().push(Command::Undo);
+    h.run();
+    settle(&mut h);
+    let c = h.state().computed.as_ref().expect("computed");
+    assert!(c.out_of_date.is_empty(), "{:?}", c.out_of_date);
 }
 
 #[test]

@@ -535,14 +535,14 @@ fn an_out_of_range_efficiency_is_kept_shown_validated_and_saved() {
     // lists that problem.
     let problems = validate(&project(&h));
     let expected = format!(
-        "under scenario {name:?}: block \"C1\": field_canal_efficiency = 1.5 is outside (0, 1]"
+        "under scenario {name:?}: block \"C1\": Field-canal efficiency Eb (field_canal_efficiency) = 1.5 is outside its physical range: it must be 0.01 to 1 fraction"
     );
     assert!(
         problems.iter().any(|p| p.to_string() == expected),
         "{problems:?}"
     );
     h.get_by_label_contains("Problems the project validation finds in this scenario");
-    h.get_by_label("block \"C1\": field_canal_efficiency = 1.5 is outside (0, 1]");
+    h.get_by_label("block \"C1\": Field-canal efficiency Eb (field_canal_efficiency) = 1.5 is outside its physical range: it must be 0.01 to 1 fraction");
 
     // Saved and loaded: the value survives, and loading gives the
     // validation problem, not an error.

@@ -3,7 +3,8 @@
 //! The command names, options and output columns are a stable contract (see
 //! DESIGN.md, "Headless command contract"). Each command lives in its own
 //! module; this file only parses arguments and dispatches. Errors print their
-//! whole cause chain and exit non-zero.
+//! whole cause chain and exit non-zero: 2 when the project has validation
+//! errors (each listed; nothing computed), 1 for any other failure.
 
 use std::process::ExitCode;
 
@@ -70,7 +71,19 @@ fn main() -> ExitCode {
             for cause in err.chain().skip(1) {
                 eprintln!("  caused by: {cause}");
             }
-            ExitCode::FAILURE
+            // 2: the project has validation errors and nothing was computed
+            // (every error is listed above); 1: any other failure.
+            let invalid = err.chain().any(|c| {
+                matches!(
+                    c.downcast_ref::<offtake_core::engine::EngineError>(),
+                    Some(offtake_core::engine::EngineError::Invalid { .. })
+                )
+            });
+            if invalid {
+                ExitCode::from(2)
+            } else {
+                ExitCode::FAILURE
+            }
         }
     }
 }

@@ -19,6 +19,7 @@ pub mod crop;
 pub mod engine;
 pub mod et0;
 pub mod gapfill;
+pub mod limits;
 pub mod openwater;
 pub mod paddy;
 pub mod planting;

@@ -364,7 +364,7 @@ impl PaddyPlanting {
                 if g == 1 {
                     0
                 } else {
-                    k * self.window_days / (g - 1)
+                    k.saturating_mul(self.window_days) / (g - 1)
                 }
             })
             .collect()
@@ -372,7 +372,11 @@ impl PaddyPlanting {
 
     /// Calendar days needed for a main season of `season_days`.
     pub fn calendar_days(&self, season_days: usize) -> usize {
-        self.lead_days() + self.group_offsets().last().copied().unwrap_or(0) + season_days
+        // Saturating: an absurd window cannot overflow; the series-length
+        // check of `paddy_planting_requirement` then refuses it.
+        self.lead_days()
+            .saturating_add(self.group_offsets().last().copied().unwrap_or(0))
+            .saturating_add(season_days)
     }
 }
 

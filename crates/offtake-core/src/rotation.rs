@@ -272,6 +272,15 @@ pub enum RotationError {
         /// Its capacity (l/s).
         capacity_ls: f64,
     },
+    /// A turn's time falls outside the calendar (or is not a number): the
+    /// demands or flows are beyond any real scheme.
+    #[error(
+        "a turn would start or end {seconds} s after the roster's start, outside the calendar; check the efficiencies, hours and flows of the units"
+    )]
+    TimeOutOfRange {
+        /// Seconds from the roster's start.
+        seconds: f64,
+    },
 }
 
 fn list(problems: &[RotationProblem]) -> String {
@@ -520,8 +529,19 @@ fn validate(
     problems
 }
 
-fn at_seconds(origin: NaiveDateTime, seconds: f64) -> NaiveDateTime {
-    origin + TimeDelta::seconds(seconds.round() as i64)
+/// `origin` + `seconds`, checked: a time that is not finite or falls outside
+/// the calendar is an error, never a panic.
+fn at_seconds(origin: NaiveDateTime, seconds: f64) -> Result<NaiveDateTime, RotationError> {
+    let out_of_range = || RotationError::TimeOutOfRange { seconds };
+    // i64 seconds far beyond any calendar: TimeDelta refuses them below.
+    if !(seconds.is_finite() && seconds.abs() < 9.0e15) {
+        return Err(out_of_range());
+    }
+    // Bounded by 9e15 just above, well inside i64.
+    let whole = seconds.round() as i64;
+    TimeDelta::try_seconds(whole)
+        .and_then(|d| origin.checked_add_signed(d))
+        .ok_or_else(out_of_range)
 }
 
 /// Adds `volume` spread evenly over the time span [t0, t1) (seconds from the
@@ -621,8 +641,8 @@ fn build(
                         turn: t + 1,
                         unit: i,
                         unit_name: units[i].name.clone(),
-                        start: at_seconds(origin, s0),
-                        end: at_seconds(origin, s1),
+                        start: at_seconds(origin, s0)?,
+                        end: at_seconds(origin, s1)?,
                         flow_ls,
                         volume_m3: volume,
                     });
@@ -659,8 +679,8 @@ fn build(
                         turn: 1,
                         unit: i,
                         unit_name: u.name.clone(),
-                        start: at_seconds(origin, t0),
-                        end: at_seconds(origin, t0 + cycle_s),
+                        start: at_seconds(origin, t0)?,
+                        end: at_seconds(origin, t0 + cycle_s)?,
                         flow_ls: m3_day_to_l_s(unit_volume[i] / len as f64),
                         volume_m3: unit_volume[i],
                     });
@@ -669,7 +689,11 @@ fn build(
         }
         cycles.push(RosterCycle {
             cycle: cycle_no,
-            start: start + chrono::Days::new(d0 as u64),
+            start: start.checked_add_days(chrono::Days::new(d0 as u64)).ok_or(
+                RotationError::TimeOutOfRange {
+                    seconds: d0 as f64 * SECONDS_PER_DAY,
+                },
+            )?,
             days: len,
             mode: if rotate {
                 CycleMode::Rotation

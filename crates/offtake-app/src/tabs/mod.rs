@@ -126,7 +126,18 @@ pub fn engine_results<'a>(
         return None;
     }
     match view.computed.and_then(|c| c.engine.as_ref()) {
-        Some(Ok(run)) => Some((run, &run.results)),
+        Some(Ok(run)) => {
+            let errors = view.computed.map_or(0, |c| c.out_of_date.len());
+            if errors > 0 {
+                ui.colored_label(
+                    ui.visuals().error_fg_color,
+                    format!(
+                        "Out of date: the project has {errors} error(s) (listed with the data warnings); these are the last good results and nothing was computed from the invalid input."
+                    ),
+                );
+            }
+            Some((run, &run.results))
+        }
         Some(Err(e)) => {
             empty_state(ui, "The scheme cannot be computed yet", e);
             None

@@ -132,13 +132,16 @@ impl ScenarioColumn {
 /// Runs every scenario of the project (the base case when there is none).
 ///
 /// # Errors
-/// The first scenario's [`EngineError`], which names the step.
+/// [`EngineError::Invalid`] listing every validation error of the whole
+/// project (base case and every scenario) before anything is computed;
+/// else the first scenario's [`EngineError`], which names the step.
 pub fn compare_scenarios(
     project: &Project,
     crops: &[Crop],
     soils: &[Soil],
     weather: &[WeatherDay],
 ) -> Result<Comparison, EngineError> {
+    super::refuse_errors(&super::validate_project(project, crops, weather))?;
     let mut c = compare_scenarios_each(project, crops, soils, weather);
     if c.failed.is_empty() {
         Ok(c)

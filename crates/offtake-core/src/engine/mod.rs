@@ -54,7 +54,7 @@ use crate::calendar::{IrrigationYear, YearStart, year_coverage};
 use crate::crop::Crop;
 use crate::project::{
     DesignBasis as ProjectBasis, HEADWORKS, Project, ScenarioError, ValidationContext,
-    WeatherPerturbation,
+    ValidationProblem, WeatherPerturbation,
 };
 use crate::scheme::{
     self, DesignBasis, DesignOptions, Network, NodeDesign, SchemeDemand, SchemeError,
@@ -161,6 +161,81 @@ pub enum EngineError {
     /// The rotation roster failed.
     #[error("rotation roster: {0}")]
     Rotation(String),
+    /// The project has validation errors: nothing was computed. Every
+    /// error is listed (warnings are not: they never stop a run).
+    #[error("{} and was not computed:\n{}", error_count(errors.len()), bullet_list(errors))]
+    Invalid {
+        /// Every validation error, in the order validation found them.
+        errors: Vec<ValidationProblem>,
+    },
+    /// A result is not a finite number (a guard: validation limits are
+    /// meant to prevent it).
+    #[error("{what} is not a finite number ({value}); check the inputs it depends on")]
+    NotFinite {
+        /// Which result.
+        what: String,
+        /// The value.
+        value: f64,
+    },
+}
+
+fn error_count(n: usize) -> String {
+    match n {
+        1 => "the project has 1 error".to_owned(),
+        n => format!("the project has {n} errors"),
+    }
+}
+
+fn bullet_list(problems: &[ValidationProblem]) -> String {
+    problems
+        .iter()
+        .map(|p| format!("  - {p}"))
+        .collect::<Vec<_>>()
+        .join("\n")
+}
+
+/// Every validation problem of a whole project (base case and every
+/// scenario), errors and warnings, with the season lengths of `crops` and
+/// the date range of `weather`.
+pub fn validate_project(
+    project: &Project,
+    crops: &[Crop],
+    weather: &[WeatherDay],
+) -> Vec<ValidationProblem> {
+    with_context(crops, weather, |ctx| project.validate(ctx))
+}
+
+/// Calls `f` with the validation context of `crops` and `weather`.
+fn with_context<T>(
+    crops: &[Crop],
+    weather: &[WeatherDay],
+    f: impl FnOnce(&ValidationContext<'_>) -> T,
+) -> T {
+    let crop_len = |id: &str| {
+        crops
+            .iter()
+            .find(|c| c.id == id)
+            .map(|c| c.stages.total_days())
+    };
+    let range = weather
+        .first()
+        .zip(weather.last())
+        .map(|(a, b)| (a.date, b.date));
+    f(&ValidationContext {
+        crops: &crop_len,
+        weather_range: range,
+    })
+}
+
+/// The errors among `problems`, as [`EngineError::Invalid`], if any.
+fn refuse_errors(problems: &[ValidationProblem]) -> Result<(), EngineError> {
+    let errors: Vec<ValidationProblem> =
+        problems.iter().filter(|p| p.is_error()).cloned().collect();
+    if errors.is_empty() {
+        Ok(())
+    } else {
+        Err(EngineError::Invalid { errors })
+    }
 }
 
 /// What the engine needs besides the project.
@@ -340,34 +415,11 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     let project = input.project;
     let mut warnings = Vec::new();
 
-    // Validation problems are reported; those that make the computation
-    // impossible surface again as errors of the steps below.
-    let crop_len = |id: &str| {
-        input
-            .crops
-            .iter()
-            .find(|c| c.id == id)
-            .map(|c| c.stages.total_days())
-    };
-    let range = input
-        .weather
-        .first()
-        .zip(input.weather.last())
-        .map(|(a, b)| (a.date, b.date));
-    let ctx = ValidationContext {
-        crops: &crop_len,
-        weather_range: range,
-    };
-    // Validate the project as computed (scenarios already applied).
-    let problems = if project.scenarios.is_empty() {
-        project.validate(&ctx)
-    } else {
-        Project {
-            scenarios: Vec::new(),
-            ..project.clone()
-        }
-        .validate(&ctx)
-    };
+    // The validation gate: a project with an error is not computed (every
+    // error is listed); warnings are reported with the results. The project
+    // is validated as computed (its scenario already applied).
+    let problems = with_context(input.crops, input.weather, |ctx| project.validate_base(ctx));
+    refuse_errors(&problems)?;
     for p in problems {
         warnings.push(format!("validation: {p}"));
     }
@@ -539,6 +591,15 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     }
     let t_supply = t3.elapsed();
 
+    // No NaN or infinity leaves the core.
+    for d in &design {
+        if !d.design_flow_ls.is_finite() {
+            return Err(EngineError::NotFinite {
+                what: format!("the design flow of {}", d.name),
+                value: d.design_flow_ls,
+            });
+        }
+    }
     let et0_mean_mm_day = weather.et0_mm.iter().sum::<f64>() / weather.days() as f64;
     Ok(Results {
         scheme_name: project.scheme.name.clone(),
@@ -581,6 +642,9 @@ pub fn run_scenario(
 ) -> Result<Results, EngineError> {
     let (applied, perturbation) = match scenario {
         Some(name) => {
+            // A scenario is found by its name: an empty or repeated name is
+            // an error before anything is applied.
+            refuse_errors(&project.scenario_name_problems())?;
             let p = project.apply_scenario(name)?;
             let w = project
                 .scenario(name)

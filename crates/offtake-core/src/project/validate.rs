@@ -1,8 +1,12 @@
 //! Whole-project validation: every problem listed, never a panic.
 //!
-//! [`Project::validate`] checks ids and cross references, the canal tree,
-//! ranges of efficiencies, areas and hours, planting windows, the occupancy
-//! of each block through the year, options, and every scenario. It needs two
+//! [`Project::validate`] checks ids (the rules of [`crate::limits::check_id`])
+//! and cross references, the canal tree, every numeric input against the
+//! table of limits ([`crate::limits`]: outside the physical range an error,
+//! outside the usual range a warning), planting windows, the occupancy
+//! of each block through the year, options, and every scenario. Each
+//! problem has a [`Severity`]: a project with an error is not computed
+//! (the engine refuses it); warnings never stop a run. It needs two
 //! things the document does not hold: the season length of each crop (from
 //! the crop library, passed as a closure so this module does not depend on
 //! it) and the date range of the weather record.
@@ -23,8 +27,15 @@ use chrono::{Datelike, NaiveDate};
 use thiserror::Error;
 
 use super::tree::TreeError;
-use super::{AvailableSupply, EffectiveRain, HEADWORKS, Planting, Project, Strategy, SupplyFlow};
+use super::{AvailableSupply, EffectiveRain, HEADWORKS, Planting, Project, SupplyFlow};
+use crate::limits::{self, IdProblem, Num};
 use crate::weather_import::ImportSettingsProblem;
+
+#[cfg(test)]
+mod limit_tests;
+mod ranges;
+
+use ranges::{check_count, check_limit, check_paddy, check_strategy};
 
 /// Days in the cropping-plan year used for the occupancy check.
 const PLAN_YEAR_DAYS: usize = 365;
@@ -79,6 +90,32 @@ pub struct ValidationContext<'a> {
     pub weather_range: Option<(NaiveDate, NaiveDate)>,
 }
 
+/// How serious a validation problem is.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
+pub enum Severity {
+    /// The project cannot be computed as it stands.
+    Error,
+    /// Computed, but the value is worth a second look.
+    Warning,
+}
+
+/// An id as messages show it: quoted, and cut after 40 characters with its
+/// length, so a runaway id does not flood the list.
+pub struct ShortId<'a>(pub &'a str);
+
+impl fmt::Display for ShortId<'_> {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        const SHOWN: usize = 40;
+        let n = self.0.chars().count();
+        if n <= SHOWN {
+            write!(f, "{:?}", self.0)
+        } else {
+            let head: String = self.0.chars().take(SHOWN).collect();
+            write!(f, "{head:?}… ({n} characters)")
+        }
+    }
+}
+
 /// One problem found in a project.
 #[derive(Debug, Clone, PartialEq, Error)]
 #[non_exhaustive]
@@ -92,7 +129,7 @@ pub enum ValidationProblem {
         index: usize,
     },
     /// Two items of one kind share an id.
-    #[error("{kind} id {id:?} is used {count} times")]
+    #[error("{kind} id {} is used {count} times; ids must be unique", ShortId(id))]
     DuplicateId {
         /// Kind of item.
         kind: ItemKind,
@@ -101,8 +138,23 @@ pub enum ValidationProblem {
         /// How many items use it.
         count: usize,
     },
+    /// An id that breaks the id rules ([`crate::limits::check_id`]).
+    #[error("{kind} #{index} id {}: {problem}", ShortId(id))]
+    BadId {
+        /// Kind of item.
+        kind: ItemKind,
+        /// Zero-based position in its list.
+        index: usize,
+        /// The id.
+        id: String,
+        /// What is wrong.
+        problem: IdProblem,
+    },
     /// A canal uses the name reserved for the node above all root canals.
-    #[error("canal id {id:?} is reserved for the node above the root canals; rename the canal")]
+    #[error(
+        "canal id {} is reserved for the node above the root canals; rename the canal",
+        ShortId(id)
+    )]
     ReservedId {
         /// The id.
         id: String,
@@ -140,28 +192,40 @@ pub enum ValidationProblem {
         /// The missing block id.
         block: String,
     },
-    /// An efficiency outside (0, 1].
-    #[error("{kind} {id:?}: {field} = {value} is outside (0, 1]")]
-    EfficiencyOutOfRange {
-        /// Kind of item.
-        kind: ItemKind,
-        /// Item id.
-        id: String,
-        /// Which efficiency.
+    /// A number outside its physical range in the table of limits (an
+    /// error: the project is not computed).
+    #[error("{subject}: {label} ({field}) = {} is outside its physical range: it must be {expected}", Num(*value))]
+    OutOfRange {
+        /// What holds the value (e.g. `block "B1"`).
+        subject: String,
+        /// Field as the file names it.
         field: &'static str,
+        /// Label of the field ([`crate::limits::Limit::label`]).
+        label: &'static str,
         /// The bad value.
         value: f64,
+        /// The physical range in words, with its unit.
+        expected: String,
     },
-    /// Hours of operation outside (0, 24].
-    #[error("canal {canal:?}: operating_hours_per_day = {value} is outside (0, 24]")]
-    HoursOutOfRange {
-        /// The canal.
-        canal: String,
-        /// The bad value.
+    /// A number inside its physical range but outside the range usual in
+    /// practice (a warning: computed).
+    #[error("{subject}: {label} ({field}) = {} is outside the usual range {usual}; check it", Num(*value))]
+    Unusual {
+        /// What holds the value.
+        subject: String,
+        /// Field as the file names it.
+        field: &'static str,
+        /// Label of the field.
+        label: &'static str,
+        /// The value.
         value: f64,
+        /// The usual range in words, with its unit.
+        usual: String,
+        /// Where the usual range comes from.
+        range_source: &'static str,
     },
-    /// A value that must be a finite number ≥ 0 (or > 0) is not.
-    #[error("{subject}: {field} = {value} must be {expected}")]
+    /// A value that breaks a rule other than a range of the table.
+    #[error("{subject}: {field} = {} must be {expected}", Num(*value))]
     BadValue {
         /// What holds the value (e.g. `block "B1"`).
         subject: String,
@@ -294,32 +358,35 @@ pub enum ValidationProblem {
     },
 }
 
+impl ValidationProblem {
+    /// Whether the problem stops the computation.
+    pub fn severity(&self) -> Severity {
+        match self {
+            // Overlapping seasons on a block are computed with a warning:
+            // the occupancy model (equal daily cohorts, whole seasons) is an
+            // approximation, and while a plan is edited seasons often
+            // overlap for a few days.
+            Self::Unusual { .. } | Self::StationNotEntered | Self::BlockOverplanted { .. } => {
+                Severity::Warning
+            }
+            Self::InScenario { problem, .. } => problem.severity(),
+            _ => Severity::Error,
+        }
+    }
+
+    /// True for an error (the project is not computed).
+    pub fn is_error(&self) -> bool {
+        self.severity() == Severity::Error
+    }
+}
+
 impl Project {
-    /// Every problem in the project, base case and scenarios; empty when the
-    /// project can be computed.
+    /// Every problem in the project, base case and scenarios, errors and
+    /// warnings ([`ValidationProblem::severity`]); empty when the project
+    /// can be computed without a remark.
     pub fn validate(&self, ctx: &ValidationContext<'_>) -> Vec<ValidationProblem> {
         let mut problems = self.validate_base(ctx);
-        let mut names: HashMap<&str, usize> = HashMap::new();
-        for s in &self.scenarios {
-            *names.entry(s.name.as_str()).or_default() += 1;
-        }
-        for (i, s) in self.scenarios.iter().enumerate() {
-            if s.name.trim().is_empty() {
-                problems.push(ValidationProblem::EmptyId {
-                    kind: ItemKind::Scenario,
-                    index: i,
-                });
-            }
-        }
-        let mut dup: Vec<_> = names.into_iter().filter(|&(_, n)| n > 1).collect();
-        dup.sort_unstable();
-        for (name, count) in dup {
-            problems.push(ValidationProblem::DuplicateId {
-                kind: ItemKind::Scenario,
-                id: name.to_owned(),
-                count,
-            });
-        }
+        problems.extend(self.scenario_name_problems());
         let base_messages: HashSet<String> = problems.iter().map(ToString::to_string).collect();
         for s in &self.scenarios {
             match self.apply_scenario(&s.name) {
@@ -347,8 +414,21 @@ impl Project {
         problems
     }
 
-    /// Problems of the document without its scenarios.
-    fn validate_base(&self, ctx: &ValidationContext<'_>) -> Vec<ValidationProblem> {
+    /// Empty, badly formed and duplicate scenario names (a scenario is
+    /// found by its name).
+    pub fn scenario_name_problems(&self) -> Vec<ValidationProblem> {
+        let mut problems = Vec::new();
+        check_id_list(
+            ItemKind::Scenario,
+            self.scenarios.iter().map(|s| s.name.as_str()),
+            &mut problems,
+        );
+        problems
+    }
+
+    /// Problems of the document without its scenarios (the project as
+    /// computed, once a scenario has been applied).
+    pub fn validate_base(&self, ctx: &ValidationContext<'_>) -> Vec<ValidationProblem> {
         let mut out = Vec::new();
         self.check_ids(&mut out);
         self.check_canals(&mut out);
@@ -383,23 +463,26 @@ impl Project {
         }
         let mut cycles_seen: HashSet<Vec<String>> = HashSet::new();
         for c in &self.canals {
-            check_efficiency(
-                ItemKind::Canal,
-                &c.id,
+            let subject = format!("canal {}", ShortId(&c.id));
+            check_limit(
+                &subject,
                 "conveyance_efficiency",
+                &limits::CONVEYANCE_EFFICIENCY,
                 c.conveyance_efficiency,
                 out,
             );
-            if !(c.operating_hours_per_day > 0.0 && c.operating_hours_per_day <= 24.0) {
-                out.push(ValidationProblem::HoursOutOfRange {
-                    canal: c.id.clone(),
-                    value: c.operating_hours_per_day,
-                });
-            }
+            check_limit(
+                &subject,
+                "operating_hours_per_day",
+                &limits::OPERATING_HOURS,
+                c.operating_hours_per_day,
+                out,
+            );
             if let Some(q) = c.existing_capacity_m3s {
-                check_non_negative(
-                    &format!("canal {:?}", c.id),
+                check_limit(
+                    &subject,
                     "existing_capacity_m3s",
+                    &limits::EXISTING_CAPACITY_M3S,
                     q,
                     out,
                 );
@@ -435,18 +518,19 @@ impl Project {
                     canal: b.canal.clone(),
                 });
             }
-            check_positive(&format!("block {:?}", b.id), "area_ha", b.area_ha, out);
-            check_efficiency(
-                ItemKind::Block,
-                &b.id,
+            let subject = format!("block {}", ShortId(&b.id));
+            check_limit(&subject, "area_ha", &limits::BLOCK_AREA_HA, b.area_ha, out);
+            check_limit(
+                &subject,
                 "method.application_efficiency",
+                &limits::APPLICATION_EFFICIENCY,
                 b.method.application_efficiency,
                 out,
             );
-            check_efficiency(
-                ItemKind::Block,
-                &b.id,
+            check_limit(
+                &subject,
                 "field_canal_efficiency",
+                &limits::FIELD_CANAL_EFFICIENCY,
                 b.field_canal_efficiency,
                 out,
             );
@@ -465,7 +549,7 @@ impl Project {
         let blocks: HashMap<&str, &super::Block> =
             self.blocks.iter().map(|b| (b.id.as_str(), b)).collect();
         for (i, p) in self.plantings.iter().enumerate() {
-            let subject = format!("planting {:?}", p.id);
+            let subject = format!("planting {}", ShortId(&p.id));
             let block = blocks.get(p.block.as_str()).copied();
             if block.is_none() {
                 out.push(ValidationProblem::PlantingOnMissingBlock {
@@ -475,7 +559,7 @@ impl Project {
             }
             match p.area {
                 super::PlantingArea::Hectares(ha) => {
-                    check_positive(&subject, "area (ha)", ha, out);
+                    check_limit(&subject, "area", &limits::PLANTING_AREA_HA, ha, out);
                     if let Some(b) = block
                         && ha > b.area_ha * (1.0 + AREA_TOLERANCE)
                     {
@@ -488,31 +572,31 @@ impl Project {
                     }
                 }
                 super::PlantingArea::PercentOfBlock(pct) => {
-                    if !(pct.is_finite() && pct > 0.0 && pct <= 100.0) {
-                        out.push(ValidationProblem::BadValue {
-                            subject: subject.clone(),
-                            field: "area (% of block)",
-                            value: pct,
-                            expected: "in (0, 100]",
-                        });
-                    }
+                    check_limit(&subject, "area", &limits::PLANTING_AREA_PCT, pct, out);
                 }
             }
+            check_count(
+                &subject,
+                "spread_days",
+                &limits::SPREAD_DAYS,
+                p.spread_days,
+                out,
+            );
             check_strategy(&subject, &p.strategy, out);
             if let Some(paddy) = &p.paddy {
-                check_paddy(&subject, &p.id, paddy, out);
+                check_paddy(&subject, paddy, out);
             }
             if let super::CoefficientChoice::Dual {
                 wetted_fraction: Some(fw),
             } = p.coefficients
-                && !(fw > 0.0 && fw <= 1.0)
             {
-                out.push(ValidationProblem::BadValue {
-                    subject: subject.clone(),
-                    field: "coefficients wetted_fraction",
-                    value: fw,
-                    expected: "a fraction of the surface wetted in (0, 1] (FAO-56 Table 20)",
-                });
+                check_limit(
+                    &subject,
+                    "coefficients wetted_fraction",
+                    &limits::WETTED_FRACTION,
+                    fw,
+                    out,
+                );
             }
             let day_ok = p.first_planting.is_valid();
             if !day_ok {
@@ -532,14 +616,29 @@ impl Project {
                 });
                 continue;
             };
-            if season == 0 {
-                out.push(ValidationProblem::BadValue {
-                    subject,
-                    field: "season_length_days",
-                    value: 0.0,
-                    expected: "at least 1 day",
-                });
+            if !limits::SEASON_LENGTH_DAYS
+                .physical
+                .contains(f64::from(season))
+            {
+                // A library season is checked with the library; an override
+                // here.
+                check_count(
+                    &subject,
+                    "season_length_days",
+                    &limits::SEASON_LENGTH_DAYS,
+                    season,
+                    out,
+                );
                 continue;
+            }
+            if p.season_length_days.is_some() {
+                check_count(
+                    &subject,
+                    "season_length_days",
+                    &limits::SEASON_LENGTH_DAYS,
+                    season,
+                    out,
+                );
             }
             let span = u64::from(p.cohort_count()) - 1 + u64::from(season);
             if span > PLAN_YEAR_DAYS as u64 {
@@ -637,23 +736,27 @@ impl Project {
                 expected: "must name the weather CSV file",
             });
         }
-        if !(w.latitude_deg.is_finite() && (-90.0..=90.0).contains(&w.latitude_deg)) {
-            out.push(ValidationProblem::BadValue {
-                subject: "weather".into(),
-                field: "latitude_deg",
-                value: w.latitude_deg,
-                expected: "within −90 to 90",
-            });
-        }
-        if !(w.elevation_m.is_finite() && (-500.0..=9000.0).contains(&w.elevation_m)) {
-            out.push(ValidationProblem::BadValue {
-                subject: "weather".into(),
-                field: "elevation_m",
-                value: w.elevation_m,
-                expected: "within −500 to 9000 m",
-            });
-        }
-        check_positive("weather", "wind_height_m", w.wind_height_m, out);
+        check_limit(
+            "weather",
+            "latitude_deg",
+            &limits::LATITUDE_DEG,
+            w.latitude_deg,
+            out,
+        );
+        check_limit(
+            "weather",
+            "elevation_m",
+            &limits::ELEVATION_M,
+            w.elevation_m,
+            out,
+        );
+        check_limit(
+            "weather",
+            "wind_height_m",
+            &limits::WIND_HEIGHT_M,
+            w.wind_height_m,
+            out,
+        );
         if w.latitude_deg == 0.0 && w.elevation_m == 0.0 && !w.path.trim().is_empty() {
             out.push(ValidationProblem::StationNotEntered);
         }
@@ -673,20 +776,26 @@ impl Project {
             });
         }
         if let Some(r) = &self.reservoir {
-            let subject = format!("reservoir {:?}", r.name);
-            for &a in &r.surface_area_ha {
-                check_non_negative(&subject, "surface_area_ha", a, out);
+            for (m, &a) in r.surface_area_ha.iter().enumerate() {
+                let subject = format!("reservoir {} month {}", ShortId(&r.name), m + 1);
+                check_limit(
+                    &subject,
+                    "surface_area_ha",
+                    &limits::RESERVOIR_AREA_HA,
+                    a,
+                    out,
+                );
             }
             if let Some(t) = &r.water_temperature_c {
-                for &v in t {
-                    if !(v.is_finite() && (-5.0..=50.0).contains(&v)) {
-                        out.push(ValidationProblem::BadValue {
-                            subject: subject.clone(),
-                            field: "water_temperature_c",
-                            value: v,
-                            expected: "within −5 to 50 °C",
-                        });
-                    }
+                for (m, &v) in t.iter().enumerate() {
+                    let subject = format!("reservoir {} month {}", ShortId(&r.name), m + 1);
+                    check_limit(
+                        &subject,
+                        "water_temperature_c",
+                        &limits::WATER_TEMPERATURE_C,
+                        v,
+                        out,
+                    );
                 }
             }
         }
@@ -698,28 +807,35 @@ impl Project {
                 expected: "must be a month, 1–12",
             });
         }
-        if !(o.design_probability_pct > 0.0 && o.design_probability_pct < 100.0) {
-            out.push(ValidationProblem::BadOption {
-                field: "design_probability_pct",
-                value: o.design_probability_pct.to_string(),
-                expected: "must be within (0, 100)",
-            });
-        }
-        if o.rotation_period_days == 0 {
-            out.push(ValidationProblem::BadOption {
-                field: "rotation_period_days",
-                value: "0".into(),
-                expected: "must be at least 1 day",
-            });
-        }
-        if let EffectiveRain::FixedPercent(pct) = o.effective_rain
-            && !(pct.is_finite() && (0.0..=100.0).contains(&pct))
-        {
-            out.push(ValidationProblem::BadOption {
-                field: "effective_rain",
-                value: pct.to_string(),
-                expected: "FixedPercent must be within 0–100",
-            });
+        check_limit(
+            "options",
+            "design_probability_pct",
+            &limits::DESIGN_PROBABILITY_PCT,
+            o.design_probability_pct,
+            out,
+        );
+        check_count(
+            "options",
+            "rotation_period_days",
+            &limits::ROTATION_PERIOD_DAYS,
+            o.rotation_period_days,
+            out,
+        );
+        check_count(
+            "options",
+            "gap_filling.max_interpolation_days",
+            &limits::MAX_INTERPOLATION_DAYS,
+            o.gap_filling.max_interpolation_days,
+            out,
+        );
+        if let EffectiveRain::FixedPercent(pct) = o.effective_rain {
+            check_limit(
+                "options",
+                "effective_rain FixedPercent",
+                &limits::FIXED_EFFECTIVE_RAIN_PCT,
+                pct,
+                out,
+            );
         }
         if let Some(AvailableSupply { node, flow }) = &o.available_supply {
             if node != HEADWORKS && self.canal(node).is_none() {
@@ -734,7 +850,13 @@ impl Project {
                 SupplyFlow::Monthly(m) => m,
             };
             for &q in flows {
-                check_non_negative("options.available_supply", "flow (m³/s)", q, out);
+                check_limit(
+                    "options.available_supply",
+                    "flow",
+                    &limits::AVAILABLE_FLOW_M3S,
+                    q,
+                    out,
+                );
             }
         }
     }
@@ -806,9 +928,18 @@ fn check_id_list<'a>(
 ) {
     let mut counts: Vec<(&str, usize)> = Vec::new();
     for (index, id) in ids.enumerate() {
-        if id.trim().is_empty() {
-            out.push(ValidationProblem::EmptyId { kind, index });
-            continue;
+        match limits::check_id(id) {
+            Some(IdProblem::Empty) => {
+                out.push(ValidationProblem::EmptyId { kind, index });
+                continue;
+            }
+            Some(problem) => out.push(ValidationProblem::BadId {
+                kind,
+                index,
+                id: id.to_owned(),
+                problem,
+            }),
+            None => {}
         }
         match counts.iter_mut().find(|(x, _)| *x == id) {
             Some((_, n)) => *n += 1,
@@ -823,180 +954,6 @@ fn check_id_list<'a>(
                 count,
             });
         }
-    }
-}
-
-/// Ranges of the paddy inputs (the paddy balance refuses the same values;
-/// listing them here names every one at once).
-fn check_paddy(subject: &str, id: &str, p: &super::PaddyInputs, out: &mut Vec<ValidationProblem>) {
-    check_efficiency(
-        ItemKind::Planting,
-        id,
-        "paddy field_efficiency",
-        p.field_efficiency,
-        out,
-    );
-    let mut bad = |field: &'static str, value: f64, ok: bool, expected: &'static str| {
-        if !(value.is_finite() && ok) {
-            out.push(ValidationProblem::BadValue {
-                subject: subject.to_owned(),
-                field,
-                value,
-                expected,
-            });
-        }
-    };
-    bad(
-        "paddy bund_height_mm",
-        p.bund_height_mm,
-        p.bund_height_mm > 0.0,
-        "a height > 0 mm",
-    );
-    bad(
-        "paddy target_ponding_mm",
-        p.target_ponding_mm,
-        p.target_ponding_mm >= 0.0 && p.target_ponding_mm <= p.bund_height_mm,
-        "0 ≤ pond depth ≤ bund height (mm)",
-    );
-    bad(
-        "paddy percolation_seepage_mm_day",
-        p.percolation_seepage_mm_day,
-        p.percolation_seepage_mm_day >= 0.0,
-        "a rate ≥ 0 mm/day",
-    );
-    bad(
-        "paddy land_preparation_mm",
-        p.land_preparation_mm,
-        p.land_preparation_mm >= 0.0,
-        "a depth ≥ 0 mm",
-    );
-    bad(
-        "paddy land_preparation_days",
-        f64::from(p.land_preparation_days),
-        p.land_preparation_days >= 1,
-        "at least 1 day",
-    );
-    bad(
-        "paddy nursery_share",
-        p.nursery_share,
-        (0.0..=1.0).contains(&p.nursery_share),
-        "a share 0 to 1",
-    );
-    bad(
-        "paddy nursery_days",
-        f64::from(p.nursery_days),
-        p.nursery_share == 0.0 || p.nursery_days >= 1,
-        "at least 1 day when a nursery is given",
-    );
-}
-
-fn check_efficiency(
-    kind: ItemKind,
-    id: &str,
-    field: &'static str,
-    value: f64,
-    out: &mut Vec<ValidationProblem>,
-) {
-    if !(value > 0.0 && value <= 1.0) {
-        out.push(ValidationProblem::EfficiencyOutOfRange {
-            kind,
-            id: id.to_owned(),
-            field,
-            value,
-        });
-    }
-}
-
-fn check_positive(
-    subject: &str,
-    field: &'static str,
-    value: f64,
-    out: &mut Vec<ValidationProblem>,
-) {
-    if !(value.is_finite() && value > 0.0) {
-        out.push(ValidationProblem::BadValue {
-            subject: subject.to_owned(),
-            field,
-            value,
-            expected: "a finite number > 0",
-        });
-    }
-}
-
-fn check_non_negative(
-    subject: &str,
-    field: &'static str,
-    value: f64,
-    out: &mut Vec<ValidationProblem>,
-) {
-    if !(value.is_finite() && value >= 0.0) {
-        out.push(ValidationProblem::BadValue {
-            subject: subject.to_owned(),
-            field,
-            value,
-            expected: "a finite number ≥ 0",
-        });
-    }
-}
-
-fn check_strategy(subject: &str, s: &Strategy, out: &mut Vec<ValidationProblem>) {
-    let mut bad = |field: &'static str, value: f64, expected: &'static str| {
-        out.push(ValidationProblem::BadValue {
-            subject: subject.to_owned(),
-            field,
-            value,
-            expected,
-        });
-    };
-    match *s {
-        Strategy::Refill { trigger_pct_of_raw } => {
-            if !(trigger_pct_of_raw.is_finite()
-                && trigger_pct_of_raw > 0.0
-                && trigger_pct_of_raw <= 100.0)
-            {
-                bad(
-                    "strategy.trigger_pct_of_raw",
-                    trigger_pct_of_raw,
-                    "in (0, 100]",
-                );
-            }
-        }
-        Strategy::Interval { days } => {
-            if days == 0 {
-                bad("strategy.days", 0.0, "at least 1");
-            }
-        }
-        Strategy::Depth { net_mm } => {
-            if !(net_mm.is_finite() && net_mm > 0.0 && net_mm <= 1000.0) {
-                bad("strategy.net_mm", net_mm, "in (0, 1000] mm");
-            }
-        }
-        Strategy::Deficit {
-            trigger_pct_of_taw,
-            refill_pct_of_depletion,
-        } => {
-            if !(trigger_pct_of_taw.is_finite()
-                && trigger_pct_of_taw > 0.0
-                && trigger_pct_of_taw <= 100.0)
-            {
-                bad(
-                    "strategy.trigger_pct_of_taw",
-                    trigger_pct_of_taw,
-                    "in (0, 100]",
-                );
-            }
-            if !(refill_pct_of_depletion.is_finite()
-                && refill_pct_of_depletion > 0.0
-                && refill_pct_of_depletion <= 100.0)
-            {
-                bad(
-                    "strategy.refill_pct_of_depletion",
-                    refill_pct_of_depletion,
-                    "in (0, 100]",
-                );
-            }
-        }
-        Strategy::Rainfed => {}
     }
 }
 
