@@ -337,7 +337,10 @@ fn switching_to_a_scenario_shows_its_design_flow_everywhere() {
         .push(Command::ShowScenario(Some("warmer-drier".to_owned())));
     settle(&mut h);
     let shown = headworks_design_flow_ls(&h);
-    assert!((shown - warmer).abs() < 1e-9 * warmer, "{shown} vs {warmer}");
+    assert!(
+        (shown - warmer).abs() < 1e-9 * warmer,
+        "{shown} vs {warmer}"
+    );
     assert!(
         (shown - base).abs() > 1.0,
         "the scenario changes the design flow"

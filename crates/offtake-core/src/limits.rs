@@ -554,6 +554,36 @@ pub const MAX_INTERPOLATION_DAYS: Limit = Limit {
     source: "common practice: linear interpolation is trusted for gaps of a few days",
 };
 
+/// Cycle of a rotation within the block, or of continuous flow (days).
+pub const DELIVERY_CYCLE_DAYS: Limit = Limit {
+    field: "delivery.cycle_days",
+    label: "Delivery cycle",
+    unit: "days",
+    physical: Range::closed(1.0, 30.0),
+    usual: Range::closed(4.0, 15.0),
+    source: "physical: at most a month (DESIGN.md \"Delivery\"); usual: turns every 4 to 15 days under surface irrigation (common practice)",
+};
+
+/// Smallest depletion worth a turn of a rotation within the block (mm).
+pub const MIN_TURN_DEPTH_MM: Limit = Limit {
+    field: "delivery.min_depth_mm",
+    label: "Smallest turn",
+    unit: "mm",
+    physical: Range::closed(0.0, 500.0),
+    usual: Range::closed(0.0, 50.0),
+    source: "common practice: a surface turn applies at least a few centimetres; more than TAW would never be reached",
+};
+
+/// Stream size of a block's outlet (l/s).
+pub const OUTLET_STREAM_SIZE_LS: Limit = Limit {
+    field: "outlet_stream_size_ls",
+    label: "Outlet stream size",
+    unit: "l/s",
+    physical: Range::open_closed(0.0, 100_000.0),
+    usual: Range::closed(5.0, 5_000.0),
+    source: "physical: a positive flow up to 100 m³/s; usual: farm and block outlets of 5 l/s to 5 m³/s (common practice)",
+};
+
 /// Every limit of the table (for the help page and tests).
 pub const ALL: &[&Limit] = &[
     &CONVEYANCE_EFFICIENCY,
@@ -592,6 +622,9 @@ pub const ALL: &[&Limit] = &[
     &FIXED_EFFECTIVE_RAIN_PCT,
     &AVAILABLE_FLOW_M3S,
     &MAX_INTERPOLATION_DAYS,
+    &DELIVERY_CYCLE_DAYS,
+    &MIN_TURN_DEPTH_MM,
+    &OUTLET_STREAM_SIZE_LS,
 ];
 
 /// Longest id (canal, block, planting) or scenario name, in characters.

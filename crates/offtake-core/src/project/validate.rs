@@ -978,33 +978,47 @@ mod tests {
     }
 }
 
-/// A block's delivery mode and outlet: cycle 1–30 days, smallest turn ≥ 0 mm,
-/// stream size > 0 l/s (DESIGN.md "Delivery").
+/// A block's delivery mode and outlet against the table of limits
+/// (DESIGN.md "Delivery").
 fn check_delivery(b: &super::Block, out: &mut Vec<ValidationProblem>) {
     use super::DeliveryMode;
-    let subject = format!("block {:?}", b.id);
-    let cycle = match b.delivery {
-        DeliveryMode::OnDemand => None,
+    let subject = format!("block {}", ShortId(&b.id));
+    match b.delivery {
+        DeliveryMode::OnDemand => {}
         DeliveryMode::RotationWithinBlock {
             cycle_days,
             min_depth_mm,
         } => {
-            check_non_negative(&subject, "delivery smallest turn (mm)", min_depth_mm, out);
-            Some(cycle_days)
+            check_count(
+                &subject,
+                "delivery.cycle_days",
+                &limits::DELIVERY_CYCLE_DAYS,
+                cycle_days,
+                out,
+            );
+            check_limit(
+                &subject,
+                "delivery.min_depth_mm",
+                &limits::MIN_TURN_DEPTH_MM,
+                min_depth_mm,
+                out,
+            );
         }
-        DeliveryMode::ContinuousFlow { cycle_days } => Some(cycle_days),
-    };
-    if let Some(c) = cycle
-        && !(1..=crate::planting::delivery::MAX_CYCLE_DAYS).contains(&c)
-    {
-        out.push(ValidationProblem::BadValue {
-            subject: subject.clone(),
-            field: "delivery cycle (days)",
-            value: f64::from(c),
-            expected: "a whole number of days from 1 to 30",
-        });
+        DeliveryMode::ContinuousFlow { cycle_days } => check_count(
+            &subject,
+            "delivery.cycle_days",
+            &limits::DELIVERY_CYCLE_DAYS,
+            cycle_days,
+            out,
+        ),
     }
     if let Some(q) = b.outlet_stream_size_ls {
-        check_positive(&subject, "outlet stream size (l/s)", q, out);
+        check_limit(
+            &subject,
+            "outlet_stream_size_ls",
+            &limits::OUTLET_STREAM_SIZE_LS,
+            q,
+            out,
+        );
     }
 }
