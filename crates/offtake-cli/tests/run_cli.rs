@@ -103,9 +103,11 @@ fn run_writes_the_contract_tables() {
         .lines()
         .find(|l| l.starts_with("  middle-dy "))
         .unwrap();
-    // area, design flow (3 s.f.), duty, required, existing, design year
+    // area, design flow (3 s.f.), duty, required, existing, design year,
+    // interval "low to high"
     let cells: Vec<&str> = middle_row.split_whitespace().collect();
-    assert_eq!(cells.len(), 7, "{middle_row}");
+    assert_eq!(cells.len(), 10, "{middle_row}");
+    assert_eq!(cells[8], "to", "{middle_row}");
     assert_eq!(cells[1], "990");
     assert_eq!(cells[5], "2,000");
     // The shortfall is on the design basis, daily peaks labelled as such.
@@ -117,7 +119,7 @@ fn run_writes_the_contract_tables() {
     assert!(stdout.contains("daily peaks (for information"), "{stdout}");
     assert!(
         first_line(&dir.path().join("design_values.csv"))
-            == "node,area_ha,design_flow_ls,required_capacity_ls,existing_capacity_ls,peak_daily_ls,peak_10day_ls,duty_ls_ha,seasonal_volume_m3,design_year"
+            == "node,area_ha,design_flow_ls,required_capacity_ls,existing_capacity_ls,peak_daily_ls,peak_10day_ls,duty_ls_ha,seasonal_volume_m3,design_year,design_flow_low_ls,design_flow_high_ls"
     );
     assert_eq!(
         first_line(&dir.path().join("node_demand_daily.csv")),
@@ -146,6 +148,18 @@ fn run_writes_the_contract_tables() {
     assert_eq!(head[4], "");
     let middle = rows.iter().find(|r| r[0] == "middle-dy").unwrap();
     assert!((middle[4].parse::<f64>().unwrap() - 2000.0).abs() < 1e-6);
+    // The confidence interval (24 years at 80 %: order statistics 16 and
+    // 23, both inside the record) holds the design flow.
+    for r in &rows {
+        let (design, low, high): (f64, f64, f64) =
+            (r[2].parse().unwrap(), r[10].parse().unwrap(), r[11].parse().unwrap());
+        assert!(low <= design && design <= high, "{r:?}");
+    }
+    assert!(stdout.contains("order statistics 16 and 23"), "{stdout}");
+    assert!(
+        stdout.contains("within the uncertainty of the record"),
+        "{stdout}"
+    );
 }
 
 #[test]

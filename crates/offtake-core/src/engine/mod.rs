@@ -40,6 +40,7 @@ pub mod planting_step;
 pub mod plantings;
 pub mod storage;
 pub mod supply;
+pub mod tables;
 pub mod weather_prep;
 
 use std::time::{Duration, Instant};
@@ -221,6 +222,9 @@ pub struct Results {
     pub et0_estimated_days: usize,
     /// Mean ET₀ over the record (mm/day).
     pub et0_mean_mm_day: f64,
+    /// ET₀ and rain per calendar month over the complete irrigation years,
+    /// mean and dependable (at the design probability).
+    pub climate: tables::MonthlyClimate,
     /// Daily demand at every node with breakdowns.
     pub demand: SchemeDemand,
     /// Design values: canals in network order, then the headworks.
@@ -311,6 +315,7 @@ fn design_options(project: &Project) -> DesignOptions {
         },
         headworks_hours_per_day: 24.0,
         headworks_capacity_m3s: None,
+        confidence_level: project.options.design_confidence_pct / 100.0,
     }
 }
 
@@ -515,6 +520,13 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
     let t_supply = t3.elapsed();
 
     let et0_mean_mm_day = weather.et0_mm.iter().sum::<f64>() / weather.days() as f64;
+    let climate = tables::monthly_climate(
+        weather.start,
+        &weather.et0_mm,
+        &weather.rain_mm,
+        &complete_years,
+        options.non_exceedance,
+    );
     Ok(Results {
         scheme_name: project.scheme.name.clone(),
         scenario: input.scenario.map(str::to_owned),
@@ -523,6 +535,7 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
         complete_years,
         et0_estimated_days: weather.estimated_days,
         et0_mean_mm_day,
+        climate,
         demand,
         design,
         plantings: computed.summaries,
