@@ -11,7 +11,7 @@ use std::path::{Path, PathBuf};
 use anyhow::{Context, Result};
 use clap::Args as ClapArgs;
 use offtake_core::engine;
-use offtake_io::report::{Provenance, ReportInput, report_html, write_report};
+use offtake_io::report::write_project_report;
 
 use crate::cmd_run::load;
 
@@ -43,37 +43,31 @@ pub fn run(args: &Args) -> Result<()> {
         &loaded.weather,
     )
     .with_context(|| format!("computing {}", args.project.display()))?;
-    let comparison = (!loaded.project.scenarios.is_empty()).then(|| {
-        engine::compare_scenarios_each(&loaded.project, crops, soils, &loaded.weather)
-    });
-    let provenance = Provenance::of_files(
-        format!("Offtake {}", env!("CARGO_PKG_VERSION")),
-        chrono::Utc::now().format("%Y-%m-%d %H:%M UTC").to_string(),
-        &args.project,
-        &loaded.project,
-    )?;
-    // The report shows the project as computed (a scenario applied).
+    let comparison = (!loaded.project.scenarios.is_empty())
+        .then(|| engine::compare_scenarios_each(&loaded.project, crops, soils, &loaded.weather));
+    // The report's input tables show the project as computed (a scenario
+    // applied); the digests are of the files as they are.
     let shown = match args.scenario.as_deref() {
         Some(name) => loaded.project.apply_scenario(name)?,
         None => loaded.project.clone(),
     };
-    let html = report_html(&ReportInput {
-        project: &shown,
-        results: &results,
-        comparison: comparison.as_ref(),
-        provenance: &provenance,
-    });
     let out = args.out.clone().unwrap_or_else(|| {
         args.project
             .parent()
             .unwrap_or_else(|| Path::new(""))
             .join("report.html")
     });
-    write_report(&html, &out)?;
+    let bytes = write_project_report(
+        &results,
+        &shown,
+        Some(&args.project),
+        comparison.as_ref(),
+        &out,
+    )?;
     crate::cmd_run::print_text(&format!(
         "Design report of {} written to {} ({} KB)\n",
         results.scheme_name,
         out.display(),
-        html.len().div_ceil(1024)
+        bytes.div_ceil(1024)
     ))
 }

@@ -129,7 +129,13 @@ impl Doc {
         for row in rows {
             self.body.push_str("<tr>");
             for c in row {
-                let class = if c.numeric { " class=\"n\"" } else { "" };
+                // Extra attributes that carry their own class replace the
+                // default one (an element has one class attribute).
+                let class = if c.numeric && !c.attrs.contains("class=") {
+                    " class=\"n\""
+                } else {
+                    ""
+                };
                 let extra = if c.attrs.is_empty() {
                     String::new()
                 } else {

@@ -66,6 +66,44 @@ impl Provenance {
     }
 }
 
+/// Program name and version as the report prints it (`Offtake 0.1.0`).
+pub fn program_version() -> String {
+    format!("Offtake {}", env!("CARGO_PKG_VERSION"))
+}
+
+/// Builds and writes the report of a run: provenance from the project file
+/// (and its weather file) when the project has been saved, made now (UTC).
+/// The one path `offtake report` and the app's File › Export report… take.
+///
+/// # Errors
+/// [`ExportError::Io`] when an input file cannot be read for its digest or
+/// the report cannot be written.
+pub fn write_project_report(
+    results: &Results,
+    project: &Project,
+    project_path: Option<&Path>,
+    comparison: Option<&Comparison>,
+    out: &Path,
+) -> Result<usize, ExportError> {
+    let generated = chrono::Utc::now().format("%Y-%m-%d %H:%M UTC").to_string();
+    let provenance = match project_path {
+        Some(path) => Provenance::of_files(program_version(), generated, path, project)?,
+        None => Provenance {
+            program: program_version(),
+            generated,
+            inputs: Vec::new(),
+        },
+    };
+    let html = report_html(&ReportInput {
+        project,
+        results,
+        comparison,
+        provenance: &provenance,
+    });
+    write_report(&html, out)?;
+    Ok(html.len())
+}
+
 /// SHA-256 of `bytes` as lower-case hex (FIPS 180-4).
 pub fn sha256_hex(bytes: &[u8]) -> String {
     use sha2::Digest as _;
