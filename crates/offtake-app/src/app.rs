@@ -596,7 +596,8 @@ impl OfftakeApp {
                 }
             }
             Command::ExportReport => {
-                if let Some(path) = self.ask(&crate::prompt::Ask::SaveReport("report.html".into())) {
+                if let Some(path) = self.ask(&crate::prompt::Ask::SaveReport("report.html".into()))
+                {
                     self.export_report_to(&path);
                 }
             }
@@ -997,7 +998,10 @@ impl OfftakeApp {
             let name = path
                 .file_name()
                 .map_or_else(|| "report".into(), |n| n.to_string_lossy().into_owned());
-            let dir = path.parent().map(std::path::Path::to_path_buf).unwrap_or_default();
+            let dir = path
+                .parent()
+                .map(std::path::Path::to_path_buf)
+                .unwrap_or_default();
             let _ = tx.send((dir, outcome.map(|()| vec![name])));
         });
         self.export_job = Some(rx);

@@ -27,20 +27,31 @@ fn offtake() -> Command {
 
 /// Runs `offtake run` and `offtake report` into `dir`; returns the report
 /// text and the design values (node → design flow, low, high) of the CSV.
-fn demo_report(dir: &Path) -> (String, Vec<(String, f64, Option<f64>, Option<f64>)>) {
+/// A node's design flow and the bounds of its interval (l/s).
+type DesignRow = (String, f64, Option<f64>, Option<f64>);
+
+fn demo_report(dir: &Path) -> (String, Vec<DesignRow>) {
     let run = offtake()
         .args(["run", DEMO, "--out"])
         .arg(dir)
         .output()
         .unwrap();
-    assert!(run.status.success(), "{}", String::from_utf8_lossy(&run.stderr));
+    assert!(
+        run.status.success(),
+        "{}",
+        String::from_utf8_lossy(&run.stderr)
+    );
     let report = dir.join("report.html");
     let out = offtake()
         .args(["report", DEMO, "--out"])
         .arg(&report)
         .output()
         .unwrap();
-    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     assert!(String::from_utf8_lossy(&out.stdout).contains("Design report of"));
     let csv = std::fs::read_to_string(dir.join("design_values.csv")).unwrap();
     let mut lines = csv.lines();
@@ -76,7 +87,7 @@ fn cell(html: &str, class: &str, node: &str) -> Option<String> {
 
 /// Every design flow and bound printed in the report equals the CSV's, to
 /// the report's 3 significant figures.
-fn assert_design_flows_match(html: &str, csv: &[(String, f64, Option<f64>, Option<f64>)]) {
+fn assert_design_flows_match(html: &str, csv: &[DesignRow]) {
     assert_eq!(csv.len(), 6, "five canals and the headworks");
     for (node, flow, low, high) in csv {
         assert_eq!(
@@ -113,7 +124,9 @@ fn report_is_self_contained_with_every_section() {
     // Nothing is fetched: no scripts, links, images or URLs other than the
     // SVG namespace name (which is never fetched).
     let stripped = html.replace("xmlns=\"http://www.w3.org/2000/svg\"", "");
-    for bad in ["<script", "<link", "<img", "src=", "url(", "http://", "https://", "@import"] {
+    for bad in [
+        "<script", "<link", "<img", "src=", "url(", "http://", "https://", "@import",
+    ] {
         assert!(!stripped.contains(bad), "the report holds {bad}");
     }
     assert!(html.contains("Figure 1.") && html.contains("Table 1."));
@@ -165,7 +178,7 @@ fn pdf_pages(pdf: &[u8]) -> usize {
 
 /// Measures each table against the report's content width in the browser
 /// and writes the widest overflow into the page (read back by --dump-dom).
-const WIDTH_CHECK: &str = r#"<script>
+const WIDTH_CHECK: &str = r"<script>
 (function () {
   var body = document.body.getBoundingClientRect();
   var worst = 0, count = 0;
@@ -180,7 +193,7 @@ const WIDTH_CHECK: &str = r#"<script>
   p.textContent = 'tables=' + count + ' body=' + body.width.toFixed(1) + ' overflow=' + worst.toFixed(2);
   document.body.appendChild(p);
 })();
-</script>"#;
+</script>";
 
 #[test]
 fn report_renders_in_chromium() {
@@ -211,7 +224,11 @@ fn report_renders_in_chromium() {
             .arg(format!("file://{}", page.display()))
             .output()
             .unwrap();
-        assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+        assert!(
+            out.status.success(),
+            "{}",
+            String::from_utf8_lossy(&out.stderr)
+        );
         let pages = pdf_pages(&std::fs::read(&pdf).unwrap());
         // Each section starts a page, so at least one page per section.
         assert!(
@@ -225,14 +242,22 @@ fn report_renders_in_chromium() {
     // The DOM as the browser laid it out: design flows as printed, and no
     // table wider than the content width (182 mm, inside A4 and Letter).
     let page = dir.path().join("report-check.html");
-    std::fs::write(&page, html.replace("</body>", &format!("{WIDTH_CHECK}</body>"))).unwrap();
+    std::fs::write(
+        &page,
+        html.replace("</body>", &format!("{WIDTH_CHECK}</body>")),
+    )
+    .unwrap();
     let profile = tempfile::tempdir().unwrap();
     let out = browser(&exe, profile.path())
         .args(["--window-size=1000,1400", "--dump-dom"])
         .arg(format!("file://{}", page.display()))
         .output()
         .unwrap();
-    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     let dom = String::from_utf8_lossy(&out.stdout);
     assert_design_flows_match(&dom, &csv);
     let check = dom
@@ -250,8 +275,14 @@ fn report_renders_in_chromium() {
     };
     assert!(field("tables=") >= 10.0, "{check}");
     // 182 mm at 96 px per inch.
-    assert!((field("body=") - 182.0 / 25.4 * 96.0).abs() < 1.0, "{check}");
-    assert!(field("overflow=") <= 0.5, "a table is wider than the page: {check}");
+    assert!(
+        (field("body=") - 182.0 / 25.4 * 96.0).abs() < 1.0,
+        "{check}"
+    );
+    assert!(
+        field("overflow=") <= 0.5,
+        "a table is wider than the page: {check}"
+    );
 
     // A PNG of the first pages as laid out on screen (A4 width).
     let png = keep.join("report-first-pages.png");
@@ -259,10 +290,17 @@ fn report_renders_in_chromium() {
     let out = browser(&exe, profile.path())
         .args(["--window-size=794,2246", "--hide-scrollbars"])
         .arg(format!("--screenshot={}", png.display()))
-        .arg(format!("file://{}", dir.path().join("report-a4.html").display()))
+        .arg(format!(
+            "file://{}",
+            dir.path().join("report-a4.html").display()
+        ))
         .output()
         .unwrap();
-    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     let bytes = std::fs::read(&png).unwrap();
     assert_eq!(&bytes[..8], b"\x89PNG\r\n\x1a\n");
     assert!(bytes.len() > 20_000, "the screenshot is nearly empty");

@@ -151,8 +151,11 @@ fn run_writes_the_contract_tables() {
     // The confidence interval (24 years at 80 %: order statistics 16 and
     // 23, both inside the record) holds the design flow.
     for r in &rows {
-        let (design, low, high): (f64, f64, f64) =
-            (r[2].parse().unwrap(), r[10].parse().unwrap(), r[11].parse().unwrap());
+        let (design, low, high): (f64, f64, f64) = (
+            r[2].parse().unwrap(),
+            r[10].parse().unwrap(),
+            r[11].parse().unwrap(),
+        );
         assert!(low <= design && design <= high, "{r:?}");
     }
     assert!(stdout.contains("order statistics 16 and 23"), "{stdout}");

@@ -4,6 +4,8 @@
 //! statistics library's binomial distribution (`statrs`), and on a sample
 //! whose order statistics are known.
 
+#![allow(clippy::unwrap_used)]
+
 use offtake_core::stats::{RankedSample, quantile_interval_ranks};
 use statrs::distribution::{Binomial, DiscreteCDF};
 

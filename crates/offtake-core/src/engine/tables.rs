@@ -280,10 +280,7 @@ pub fn block_gir_monthly(r: &Results) -> Vec<BlockMonthRow> {
 /// continuous flow (l/s). Draws the demand hydrograph of the report.
 pub fn ten_day_hydrograph_ls(r: &Results, node: Node) -> [f64; 36] {
     let series = r.demand.demand_m3_day(node);
-    let first_month0 = r
-        .complete_years
-        .first()
-        .map_or(0, |y| y.start().month0());
+    let first_month0 = r.complete_years.first().map_or(0, |y| y.start().month0());
     let mut volume = [0.0; 36];
     let mut days = [0u32; 36];
     for y in &r.complete_years {
@@ -314,6 +311,7 @@ pub fn ten_day_hydrograph_ls(r: &Results, node: Node) -> [f64; 36] {
 }
 
 #[cfg(test)]
+#[allow(clippy::unwrap_used)]
 mod tests {
     use super::*;
     use crate::calendar::{YearStart, year_coverage};

@@ -208,6 +208,7 @@ impl RankedSample {
 }
 
 #[cfg(test)]
+#[allow(clippy::unwrap_used)]
 mod tests {
     use super::*;
 

@@ -191,6 +191,7 @@ th { background: #e8eef4; font-weight: bold; text-align: left; }
 td.n { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
 tr { break-inside: avoid; page-break-inside: avoid; }
 thead { display: table-header-group; }
+div.keep { break-inside: avoid; page-break-inside: avoid; }
 figure { margin: 2mm 0 5mm 0; break-inside: avoid; page-break-inside: avoid; }
 figure svg { width: 100%; height: auto; display: block; }
 figcaption { font-size: 8.5pt; font-weight: bold; margin-top: 1mm; }
@@ -205,5 +206,6 @@ ol.toc { columns: 2; font-size: 9pt; margin: 1mm 0 3mm 0; }
 @media screen {
   body { padding: 8mm 0; }
   section.report-section { border-top: 1px dashed #bbb; padding-top: 6mm; margin-top: 8mm; }
+  section.report-section:first-of-type { border-top: none; margin-top: 0; }
 }
 "#;

@@ -165,4 +165,3 @@ pub const METHODS: [MethodEntry; 16] = [
                  systems. Technical Report No. 6, Cornell University, Ithaca, NY.",
     },
 ];
-

@@ -49,7 +49,10 @@ impl Provenance {
         let mut inputs = Vec::new();
         let weather = crate::project_file::weather_path(project_path, project);
         for (name, path) in [
-            (project_path.display().to_string(), project_path.to_path_buf()),
+            (
+                project_path.display().to_string(),
+                project_path.to_path_buf(),
+            ),
             (project.weather.path.clone(), weather),
         ] {
             let bytes = std::fs::read(&path).map_err(|source| ExportError::Io {

@@ -1,11 +1,13 @@
 //! The sections of the design report, in order. Each reads the engine's
 //! results and writes tables and figures; none computes a model rule.
 
+use std::fmt::Write as _;
+
+use offtake_core::calendar::TenDayPeriod;
 use offtake_core::engine::tables::{
     block_gir_monthly, crop_requirements_monthly, ten_day_hydrograph_ls,
 };
 use offtake_core::project::{CanalKind, Strategy};
-use offtake_core::calendar::TenDayPeriod;
 use offtake_core::scheme::NodeDesign;
 
 use super::ReportInput;
@@ -71,18 +73,21 @@ fn node_label(input: &ReportInput<'_>, d: &NodeDesign) -> String {
 fn summary(doc: &mut Doc, input: &ReportInput<'_>) {
     let (p, r) = (input.project, input.results);
     doc.section("summary", "Scheme summary and inputs");
-    doc.body.push_str(&format!(
-        "<div class=\"title\"><h1>{}</h1><p class=\"subtitle\">Design report of irrigation water demand — {}; made {} by {}.</p></div>\n",
+    let _ = writeln!(
+        doc.body,
+        "<div class=\"title\"><h1>{}</h1><p class=\"subtitle\">Design report of irrigation water demand — {}; made {} by {}.</p></div>",
         esc(&r.scheme_name),
-        esc(&r.scenario.as_deref().map_or_else(|| "base case".to_owned(), |s| format!("scenario {s}"))),
+        esc(&r
+            .scenario
+            .as_deref()
+            .map_or_else(|| "base case".to_owned(), |s| format!("scenario {s}"))),
         esc(&input.provenance.generated),
         esc(&input.provenance.program),
-    ));
+    );
     doc.p_class("caution", CAUTION_LINE);
     doc.body.push_str("<ol class=\"toc\">");
     for (id, title) in super::SECTION_IDS.iter().zip(SECTION_TITLES) {
-        doc.body
-            .push_str(&format!("<li><a href=\"#{id}\">{}</a></li>", esc(title)));
+        let _ = write!(doc.body, "<li><a href=\"#{id}\">{}</a></li>", esc(title));
     }
     doc.body.push_str("</ol>\n");
     if !p.scheme.notes.trim().is_empty() {
@@ -159,7 +164,7 @@ fn summary(doc: &mut Doc, input: &ReportInput<'_>) {
         doc.h3("Warnings of the run (data quality and checks)");
         doc.body.push_str("<ul>");
         for w in &r.warnings {
-            doc.body.push_str(&format!("<li>{}</li>", esc(w)));
+            let _ = write!(doc.body, "<li>{}</li>", esc(w));
         }
         doc.body.push_str("</ul>\n");
     }
@@ -384,16 +389,8 @@ fn crops(doc: &mut Doc, input: &ReportInput<'_>) {
         doc.table(
             &format!("Crop requirements by month, season {season}."),
             &[
-                "season",
-                "crop",
-                "month",
-                "area_ha",
-                "et0_mm",
-                "kc_mean",
-                "etc_mm",
-                "peff_mm",
-                "nir_mm",
-                "gir_m3",
+                "season", "crop", "month", "area_ha", "et0_mm", "kc_mean", "etc_mm", "peff_mm",
+                "nir_mm", "gir_m3",
             ],
             &cells,
         );
@@ -441,6 +438,8 @@ fn hydrographs(doc: &mut Doc, input: &ReportInput<'_>) {
         .collect();
     for d in &r.design {
         let name = node_label(input, d);
+        // A node's heading and its two figures stay on one page.
+        doc.body.push_str("<div class=\"keep\">");
         doc.h3(&name);
         let hydro = ten_day_hydrograph_ls(r, d.node);
         let mut hlines = vec![HLine {
@@ -517,7 +516,9 @@ fn hydrographs(doc: &mut Doc, input: &ReportInput<'_>) {
             x_labels: Vec::new(),
             label_every: 1,
             x_range: (0.0, 100.0),
-            x_ticks: (0..=10).map(|k| (f64::from(k) * 10.0, format!("{}", k * 10))).collect(),
+            x_ticks: (0..=10)
+                .map(|k| (f64::from(k) * 10.0, format!("{}", k * 10)))
+                .collect(),
             series: vec![Series {
                 name: "yearly peak",
                 points: peaks
@@ -538,6 +539,7 @@ fn hydrographs(doc: &mut Doc, input: &ReportInput<'_>) {
                 interval_basis_text(&d.design_flow_interval)
             ),
         );
+        doc.body.push_str("</div>\n");
     }
     ranked_peaks_table(doc, input);
 }
@@ -557,7 +559,11 @@ fn ranked_peaks_table(doc: &mut Doc, input: &ReportInput<'_>) {
             v
         })
         .collect();
-    let names: Vec<String> = r.design.iter().map(|d| format!("{} (l/s)", d.name)).collect();
+    let names: Vec<String> = r
+        .design
+        .iter()
+        .map(|d| format!("{} (l/s)", d.name))
+        .collect();
     let mut headers: Vec<&str> = vec!["Rank m", "m/(n+1) (%)"];
     headers.extend(names.iter().map(String::as_str));
     let rows: Vec<Vec<Td>> = (0..n)
@@ -591,9 +597,12 @@ fn ranked_peaks_table(doc: &mut Doc, input: &ReportInput<'_>) {
                     "{} ({})",
                     int(v.peak_ls(d.basis)),
                     match d.basis {
-                        offtake_core::scheme::DesignBasis::TenDay => period_label(v.peak_10day_period),
-                        offtake_core::scheme::DesignBasis::Monthly => v.peak_month.start().format("%b").to_string(),
-                        offtake_core::scheme::DesignBasis::Daily => v.peak_daily_date.format("%d %b").to_string(),
+                        offtake_core::scheme::DesignBasis::TenDay =>
+                            period_label(v.peak_10day_period),
+                        offtake_core::scheme::DesignBasis::Monthly =>
+                            v.peak_month.start().format("%b").to_string(),
+                        offtake_core::scheme::DesignBasis::Daily =>
+                            v.peak_daily_date.format("%d %b").to_string(),
                     }
                 ))
             }));
@@ -635,14 +644,24 @@ fn design(doc: &mut Doc, input: &ReportInput<'_>) {
                 Td::num(int(d.area_ha)),
                 Td::num(fmt_sig3(d.design_flow_ls))
                     .with_attrs(format!("class=\"n q-design\" data-node=\"{node}\"")),
-                Td::num(i.lower.map_or_else(|| "below smallest of record".into(), fmt_sig3))
-                    .with_attrs(format!("class=\"n q-low\" data-node=\"{node}\"")),
-                Td::num(i.upper.map_or_else(|| "above largest of record".into(), fmt_sig3))
-                    .with_attrs(format!("class=\"n q-high\" data-node=\"{node}\"")),
+                Td::num(
+                    i.lower
+                        .map_or_else(|| "below smallest of record".into(), fmt_sig3),
+                )
+                .with_attrs(format!("class=\"n q-low\" data-node=\"{node}\"")),
+                Td::num(
+                    i.upper
+                        .map_or_else(|| "above largest of record".into(), fmt_sig3),
+                )
+                .with_attrs(format!("class=\"n q-high\" data-node=\"{node}\"")),
                 Td::num(format!(
                     "{} / {}",
-                    i.ranks.lower_rank.map_or_else(|| "—".into(), |v| v.to_string()),
-                    i.ranks.upper_rank.map_or_else(|| "—".into(), |v| v.to_string())
+                    i.ranks
+                        .lower_rank
+                        .map_or_else(|| "—".into(), |v| v.to_string()),
+                    i.ranks
+                        .upper_rank
+                        .map_or_else(|| "—".into(), |v| v.to_string())
                 )),
                 Td::num(dec(i.ranks.coverage * 100.0, 1)),
                 Td::num(d.years.len().to_string()),
@@ -910,13 +929,12 @@ fn scenarios(doc: &mut Doc, input: &ReportInput<'_>) {
     line("Relative irrigation supply", &|col| {
         opt(col.relative_irrigation_supply, |v| dec(v, 2))
     });
-    doc.table(
-        "Scenarios side by side.",
-        &headers,
-        &rows,
-    );
+    doc.table("Scenarios side by side.", &headers, &rows);
     for (name, err) in &c.failed {
-        doc.p_class("caution", &format!("Scenario {name} could not be computed: {err}"));
+        doc.p_class(
+            "caution",
+            &format!("Scenario {name} could not be computed: {err}"),
+        );
     }
 }
 

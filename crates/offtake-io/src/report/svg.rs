@@ -280,7 +280,11 @@ impl LineChart<'_> {
             .iter()
             .map(|s| (s.name, s.colour, "", s.markers))
             .collect();
-        items.extend(self.hlines.iter().map(|h| (h.name, h.colour, h.dash, false)));
+        items.extend(
+            self.hlines
+                .iter()
+                .map(|h| (h.name, h.colour, h.dash, false)),
+        );
         legend(&mut out, &items);
         out.push_str("</svg>");
         out
