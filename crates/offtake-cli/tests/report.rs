@@ -306,3 +306,42 @@ fn report_renders_in_chromium() {
     assert!(bytes.len() > 20_000, "the screenshot is nearly empty");
     eprintln!("PNG of the first pages: {}", png.display());
 }
+
+/// An absurd confidence level is refused with the option's name and the
+/// accepted range, and nothing is written.
+#[test]
+fn absurd_confidence_level_is_an_error() {
+    let dir = tempfile::tempdir().unwrap();
+    let weather = Path::new(DEMO)
+        .parent()
+        .unwrap()
+        .join("../demo-weather/weather.csv");
+    let text = std::fs::read_to_string(DEMO).unwrap();
+    for level in ["0.0", "1e9"] {
+        let project = text
+            .replacen(
+                "design_basis: TenDay,",
+                &format!("design_basis: TenDay, design_confidence_pct: {level},"),
+                1,
+            )
+            .replace(
+                "\"../demo-weather/weather.csv\"",
+                &format!("{:?}", weather.display().to_string()),
+            );
+        let path = dir.path().join("absurd.ron");
+        std::fs::write(&path, project).unwrap();
+        let out_file = dir.path().join("absurd.html");
+        let out = offtake()
+            .arg("report")
+            .arg(&path)
+            .arg("--out")
+            .arg(&out_file)
+            .output()
+            .unwrap();
+        assert!(!out.status.success(), "level {level} accepted");
+        let err = String::from_utf8_lossy(&out.stderr);
+        assert!(err.contains("design_confidence_pct"), "{err}");
+        assert!(err.contains("from 50 to 99.99"), "{err}");
+        assert!(!out_file.exists());
+    }
+}

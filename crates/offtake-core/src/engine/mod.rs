@@ -433,6 +433,15 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
 
     let network = network_of(project)?;
     let options = design_options(project);
+    let confidence_pct = project.options.design_confidence_pct;
+    if !(50.0..=99.99).contains(&confidence_pct) {
+        return Err(SchemeError::BadOption {
+            what: "options.design_confidence_pct (confidence level of the design flow, %)",
+            value: confidence_pct,
+            expected: "a percentage from 50 to 99.99, e.g. 90",
+        }
+        .into());
+    }
     let year_start =
         YearStart::new(options.year_start_month).map_err(|_| SchemeError::BadOption {
             what: "irrigation-year start month",
