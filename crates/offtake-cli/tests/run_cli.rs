@@ -209,3 +209,39 @@ fn compare_prints_one_column_per_scenario() {
     assert!(text.contains("capacity shortfall, design basis (m3/year)"));
     assert!(text.contains("design basis (10-day mean flows)"), "{text}");
 }
+
+/// `crop_requirements_monthly.csv`: the contract header (issue 21), and rows
+/// that hold together: ETc = kc_mean × ET₀ (rounding of the printed
+/// decimals), NIR ≥ 0, and GIR ≥ NIR × area (efficiencies ≤ 1).
+#[test]
+fn run_writes_the_crop_requirements_table() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = offtake()
+        .args(["run", DEMO, "--out"])
+        .arg(dir.path())
+        .output()
+        .unwrap();
+    assert!(out.status.success());
+    let text = std::fs::read_to_string(dir.path().join("crop_requirements_monthly.csv")).unwrap();
+    let mut lines = text.lines();
+    assert_eq!(
+        lines.next(),
+        Some("season,crop,month,area_ha,et0_mm,kc_mean,etc_mm,peff_mm,nir_mm,gir_m3")
+    );
+    let rows: Vec<Vec<&str>> = lines.map(|l| l.split(',').collect()).collect();
+    assert!(rows.len() > 20, "{} rows", rows.len());
+    let mut crops = std::collections::HashSet::new();
+    for r in &rows {
+        let v = |i: usize| -> f64 { r[i].parse().unwrap() };
+        let month: u32 = r[2].parse().unwrap();
+        assert!((1..=12).contains(&month), "{r:?}");
+        assert!(v(3) > 0.0 && v(4) > 0.0, "{r:?}");
+        assert!((v(6) - v(5) * v(4)).abs() <= 0.0005 * v(4) + 0.006, "{r:?}");
+        assert!(v(8) >= 0.0 && v(7) >= 0.0, "{r:?}");
+        assert!(v(9) + 0.1 >= v(8) * v(3) * 10.0, "{r:?}");
+        crops.insert((r[0], r[1]));
+    }
+    // Every crop and season of the demo's plan has rows: 4 wet-season and
+    // 5 dry-season crops (demo-projects/demo-scheme/scheme.ron).
+    assert_eq!(crops.len(), 9, "{crops:?}");
+}
