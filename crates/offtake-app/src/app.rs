@@ -602,6 +602,12 @@ impl OfftakeApp {
                     self.export_tables_to(&dir);
                 }
             }
+            Command::ExportReport => {
+                if let Some(path) = self.ask(&crate::prompt::Ask::SaveReport("report.html".into()))
+                {
+                    self.export_report_to(&path);
+                }
+            }
             Command::DiscardAndRun(inner) => {
                 self.clear_recovery();
                 self.replace_document(*inner);
@@ -964,6 +970,49 @@ impl OfftakeApp {
         });
         self.export_job = Some(rx);
         self.state.message = Some("Writing the result tables…".to_owned());
+    }
+
+    /// Writes the design report of the current results to `path` on a
+    /// background thread (the same report as `offtake report`, with the
+    /// scenarios compared when the worker has compared them); the status
+    /// line reports the outcome.
+    pub fn export_report_to(&mut self, path: &std::path::Path) {
+        let computed = self.computed.as_ref();
+        let run = computed
+            .and_then(|c| c.engine.as_ref())
+            .and_then(|e| e.as_ref().ok())
+            .map(|r| Arc::clone(&r.results));
+        let (Some(results), Some(doc)) = (run, &self.document) else {
+            self.state.message = Some(
+                "No report yet: the scheme needs weather and a finished computation".to_owned(),
+            );
+            return;
+        };
+        let comparison = computed.and_then(|c| c.comparison.clone());
+        let project = doc.project.clone();
+        let project_path = doc.path.clone();
+        let path = path.to_path_buf();
+        let (tx, rx) = mpsc::channel();
+        std::thread::spawn(move || {
+            let outcome = crate::export::write_report(
+                &results,
+                &project,
+                project_path.as_deref(),
+                comparison.as_ref(),
+                &path,
+            )
+            .map_err(|e| e.to_string());
+            let name = path
+                .file_name()
+                .map_or_else(|| "report".into(), |n| n.to_string_lossy().into_owned());
+            let dir = path
+                .parent()
+                .map(std::path::Path::to_path_buf)
+                .unwrap_or_default();
+            let _ = tx.send((dir, outcome.map(|()| vec![name])));
+        });
+        self.export_job = Some(rx);
+        self.state.message = Some("Writing the design report…".to_owned());
     }
 
     /// Blocks until a running export finishes (at most `timeout`). For tests.

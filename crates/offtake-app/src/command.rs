@@ -129,6 +129,8 @@ pub enum Command {
     ImportWeather,
     /// Export the result tables as CSV files and an XLSX workbook.
     ExportWorkbook,
+    /// Export the design report as one self-contained HTML file.
+    ExportReport,
     /// Save the plotted data of one plot as CSV (full series, not decimated).
     ExportPlotCsv {
         /// Suggested file name.

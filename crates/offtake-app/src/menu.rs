@@ -72,6 +72,13 @@ pub fn ui(ui: &mut Ui, state: &RuntimeState, info: MenuInfo<'_>, commands: &mut 
             {
                 commands.push(Command::ExportWorkbook);
             }
+            if ui
+                .add_enabled(info.project_open, Button::new("Export report…"))
+                .on_disabled_hover_text("No project open")
+                .clicked()
+            {
+                commands.push(Command::ExportReport);
+            }
             if ui.button("Export plot image…").clicked() {
                 commands.push(Command::ExportPlotImage {
                     file_name: "offtake-plot.png".to_owned(),

@@ -24,6 +24,8 @@ pub enum Ask {
     SaveCsv(String),
     /// Where to save a plot's image (suggested file name).
     SavePng(String),
+    /// Where to save the design report (suggested file name).
+    SaveReport(String),
 }
 
 /// Where answers come from.
@@ -91,6 +93,10 @@ fn native(ask: &Ask) -> Option<PathBuf> {
             .save_file(),
         Ask::SavePng(name) => dialog
             .add_filter("PNG image", &["png"])
+            .set_file_name(name)
+            .save_file(),
+        Ask::SaveReport(name) => dialog
+            .add_filter("HTML report", &["html", "htm"])
             .set_file_name(name)
             .save_file(),
     }

@@ -57,6 +57,7 @@ fn file_menu_lists_every_entry() {
         "Save as…",
         "Import weather…",
         "Export tables/workbook…",
+        "Export report…",
         "Export plot image…",
     ] {
         h.get_by_label(entry);

@@ -13,6 +13,7 @@ use clap::{Parser, Subcommand};
 mod cmd_compare;
 mod cmd_et0;
 mod cmd_planting;
+mod cmd_report;
 mod cmd_run;
 mod cmd_weather_check;
 mod cmd_weather_stats;
@@ -33,6 +34,8 @@ enum Command {
     Run(cmd_run::Args),
     /// Compare the scenarios of a project side by side.
     Compare(cmd_compare::Args),
+    /// Write the design report of a project as one self-contained HTML file.
+    Report(cmd_report::Args),
     /// Net irrigation requirement of one planting over a weather record.
     Planting(cmd_planting::Args),
     /// Weather series: quality checks and multi-year statistics.
@@ -56,6 +59,7 @@ fn main() -> ExitCode {
         Command::Et0(args) => cmd_et0::run(args),
         Command::Run(args) => cmd_run::run(args),
         Command::Compare(args) => cmd_compare::run(args),
+        Command::Report(args) => cmd_report::run(args),
         Command::Planting(args) => cmd_planting::run(args),
         Command::Weather {
             command: WeatherCommand::Check(args),

@@ -103,9 +103,11 @@ fn run_writes_the_contract_tables() {
         .lines()
         .find(|l| l.starts_with("  middle-dy "))
         .unwrap();
-    // area, design flow (3 s.f.), duty, required, existing, design year
+    // area, design flow (3 s.f.), duty, required, existing, design year,
+    // interval "low to high"
     let cells: Vec<&str> = middle_row.split_whitespace().collect();
-    assert_eq!(cells.len(), 7, "{middle_row}");
+    assert_eq!(cells.len(), 10, "{middle_row}");
+    assert_eq!(cells[8], "to", "{middle_row}");
     assert_eq!(cells[1], "990");
     assert_eq!(cells[5], "2,000");
     // The shortfall is on the design basis, daily peaks labelled as such.
@@ -117,7 +119,7 @@ fn run_writes_the_contract_tables() {
     assert!(stdout.contains("daily peaks (for information"), "{stdout}");
     assert!(
         first_line(&dir.path().join("design_values.csv"))
-            == "node,area_ha,design_flow_ls,required_capacity_ls,existing_capacity_ls,peak_daily_ls,peak_10day_ls,duty_ls_ha,seasonal_volume_m3,design_year"
+            == "node,area_ha,design_flow_ls,required_capacity_ls,existing_capacity_ls,peak_daily_ls,peak_10day_ls,duty_ls_ha,seasonal_volume_m3,design_year,design_flow_low_ls,design_flow_high_ls"
     );
     assert_eq!(
         first_line(&dir.path().join("node_demand_daily.csv")),
@@ -146,6 +148,21 @@ fn run_writes_the_contract_tables() {
     assert_eq!(head[4], "");
     let middle = rows.iter().find(|r| r[0] == "middle-dy").unwrap();
     assert!((middle[4].parse::<f64>().unwrap() - 2000.0).abs() < 1e-6);
+    // The confidence interval (24 years at 80 %: order statistics 16 and
+    // 23, both inside the record) holds the design flow.
+    for r in &rows {
+        let (design, low, high): (f64, f64, f64) = (
+            r[2].parse().unwrap(),
+            r[10].parse().unwrap(),
+            r[11].parse().unwrap(),
+        );
+        assert!(low <= design && design <= high, "{r:?}");
+    }
+    assert!(stdout.contains("order statistics 16 and 23"), "{stdout}");
+    assert!(
+        stdout.contains("within the uncertainty of the record"),
+        "{stdout}"
+    );
 }
 
 #[test]
@@ -197,4 +214,40 @@ fn compare_prints_one_column_per_scenario() {
         "{text}"
     );
     assert!(text.contains("reservoir evaporation, spread of 3 methods (m3/year)"));
+}
+
+/// `crop_requirements_monthly.csv`: the contract header (issue 21), and rows
+/// that hold together: ETc = kc_mean × ET₀ (rounding of the printed
+/// decimals), NIR ≥ 0, and GIR ≥ NIR × area (efficiencies ≤ 1).
+#[test]
+fn run_writes_the_crop_requirements_table() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = offtake()
+        .args(["run", DEMO, "--out"])
+        .arg(dir.path())
+        .output()
+        .unwrap();
+    assert!(out.status.success());
+    let text = std::fs::read_to_string(dir.path().join("crop_requirements_monthly.csv")).unwrap();
+    let mut lines = text.lines();
+    assert_eq!(
+        lines.next(),
+        Some("season,crop,month,area_ha,et0_mm,kc_mean,etc_mm,peff_mm,nir_mm,gir_m3")
+    );
+    let rows: Vec<Vec<&str>> = lines.map(|l| l.split(',').collect()).collect();
+    assert!(rows.len() > 20, "{} rows", rows.len());
+    let mut crops = std::collections::HashSet::new();
+    for r in &rows {
+        let v = |i: usize| -> f64 { r[i].parse().unwrap() };
+        let month: u32 = r[2].parse().unwrap();
+        assert!((1..=12).contains(&month), "{r:?}");
+        assert!(v(3) > 0.0 && v(4) > 0.0, "{r:?}");
+        assert!((v(6) - v(5) * v(4)).abs() <= 0.0005 * v(4) + 0.006, "{r:?}");
+        assert!(v(8) >= 0.0 && v(7) >= 0.0, "{r:?}");
+        assert!(v(9) + 0.1 >= v(8) * v(3) * 10.0, "{r:?}");
+        crops.insert((r[0], r[1]));
+    }
+    // Every crop and season of the demo's plan has rows: 4 wet-season and
+    // 5 dry-season crops (demo-projects/demo-scheme/scheme.ron).
+    assert_eq!(crops.len(), 9, "{crops:?}");
 }

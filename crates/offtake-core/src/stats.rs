@@ -35,6 +35,10 @@ use std::fmt;
 
 use serde::{Deserialize, Serialize};
 
+pub mod interval;
+
+pub use interval::{QuantileInterval, RankInterval, quantile_interval_ranks};
+
 /// Errors of the probability functions.
 #[derive(Debug, Clone, Copy, PartialEq, thiserror::Error)]
 #[non_exhaustive]
@@ -55,6 +59,12 @@ pub enum StatsError {
     ProbabilityOutOfRange {
         /// The probability given (as a fraction, not a percentage).
         p: f64,
+    },
+    /// A confidence level outside (0, 1) (or NaN).
+    #[error("confidence level {level} is outside 0 to 1 (exclusive)")]
+    LevelOutOfRange {
+        /// The level given (as a fraction, not a percentage).
+        level: f64,
     },
 }
 

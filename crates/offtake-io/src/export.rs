@@ -25,8 +25,10 @@ use thiserror::Error;
 /// Design values per node: file name.
 pub const DESIGN_VALUES_CSV: &str = "design_values.csv";
 /// Design values per node: header (one row per canal and one named
-/// `headworks`; existing capacity blank where none is given).
-pub const DESIGN_VALUES_HEADERS: [&str; 10] = [
+/// `headworks`; existing capacity blank where none is given; the bounds of
+/// the design flow's confidence interval blank where no order statistic of
+/// the record reaches them).
+pub const DESIGN_VALUES_HEADERS: [&str; 12] = [
     "node",
     "area_ha",
     "design_flow_ls",
@@ -37,6 +39,8 @@ pub const DESIGN_VALUES_HEADERS: [&str; 10] = [
     "duty_ls_ha",
     "seasonal_volume_m3",
     "design_year",
+    "design_flow_low_ls",
+    "design_flow_high_ls",
 ];
 /// Daily demand at every node: file name.
 pub const NODE_DEMAND_DAILY_CSV: &str = "node_demand_daily.csv";

@@ -9,5 +9,6 @@
 pub mod export;
 pub mod library;
 pub mod project_file;
+pub mod report;
 pub mod results;
 pub mod weather;

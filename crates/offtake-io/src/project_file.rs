@@ -724,6 +724,7 @@ pub mod v0 {
                 irrigation_year_start_month: old.options.irrigation_year_start_month,
                 design_probability_pct: old.options.dependability_pct,
                 design_basis: old.options.design_basis,
+                design_confidence_pct: cur::Options::default().design_confidence_pct,
                 rotation_period_days: old.options.rotation_period_days,
                 available_supply: None,
                 gap_filling: cur::GapFilling::default(),

@@ -21,6 +21,7 @@ use offtake_core::engine::{Results, StorageLosses};
 use offtake_core::openwater::FAO56_SHALLOW_OPEN_WATER_KC;
 use offtake_core::project::Project;
 use offtake_core::scheme::{DesignBasis, Node, PeriodStep};
+use offtake_core::stats::QuantileInterval;
 
 /// 10-day table file.
 pub const DEMAND_10DAY_CSV: &str = "demand_10day.csv";
@@ -52,6 +53,39 @@ pub const BLOCK_OUTLETS_HEADERS: [&str; 11] = [
     "delivered_m3_per_year",
     "limited_pct",
 ];
+/// Per-crop monthly requirements file (issue 21).
+pub const CROP_REQUIREMENTS_MONTHLY_CSV: &str = "crop_requirements_monthly.csv";
+/// Per-crop monthly requirements header (issue 21; a contract).
+pub const CROP_REQUIREMENTS_MONTHLY_HEADERS: [&str; 10] = [
+    "season", "crop", "month", "area_ha", "et0_mm", "kc_mean", "etc_mm", "peff_mm", "nir_mm",
+    "gir_m3",
+];
+
+/// The per-crop monthly table: one row per season, crop and calendar month
+/// in which the crop uses water, means over the complete irrigation years
+/// ([`offtake_core::engine::tables::crop_requirements_monthly`]).
+pub fn crop_requirements_table(r: &Results) -> Table {
+    let mut t = Table::with_headers(
+        "crop requirements monthly",
+        &CROP_REQUIREMENTS_MONTHLY_HEADERS,
+    );
+    for row in offtake_core::engine::tables::crop_requirements_monthly(r) {
+        t.push_row(vec![
+            Cell::Text(row.season),
+            Cell::Text(row.crop),
+            Cell::Integer(i64::from(row.month)),
+            Cell::rounded(row.area_ha, dec::AREA_HA),
+            Cell::rounded(row.et0_mm, dec::DEPTH_MM),
+            Cell::rounded(row.kc_mean, 3),
+            Cell::rounded(row.etc_mm, dec::DEPTH_MM),
+            Cell::rounded(row.peff_mm, dec::DEPTH_MM),
+            Cell::rounded(row.nir_mm, dec::DEPTH_MM),
+            Cell::rounded(row.gir_m3, dec::VOLUME_M3),
+        ]);
+    }
+    t
+}
+
 /// Roster file.
 pub const ROSTER_CSV: &str = "roster.csv";
 /// Roster header.
@@ -94,6 +128,34 @@ pub fn fmt_sig3(v: f64) -> String {
         let decimals = usize::try_from(3 - digits).unwrap_or(0);
         format!("{v:.decimals$}")
     }
+}
+
+/// A confidence interval of a flow (l/s) in words, bounds to 3 significant
+/// figures: `4,150 to 5,020`, with an open side said as `below the smallest
+/// of record` or `above the largest of record`.
+pub fn interval_text(i: &QuantileInterval) -> String {
+    let low = i
+        .lower
+        .map_or_else(|| "below the smallest of record".to_owned(), fmt_sig3);
+    let high = i
+        .upper
+        .map_or_else(|| "above the largest of record".to_owned(), fmt_sig3);
+    format!("{low} to {high}")
+}
+
+/// The interval's level and achieved coverage in words:
+/// `90 % interval (achieved coverage 93.1 %, 24 years; ranks 16 and 23)`.
+pub fn interval_basis_text(i: &QuantileInterval) -> String {
+    let r = &i.ranks;
+    let rank = |x: Option<usize>| x.map_or_else(|| "none".to_owned(), |v| v.to_string());
+    format!(
+        "{:.0} % interval (achieved coverage {:.1} %, {} years; order statistics {} and {})",
+        r.level * 100.0,
+        r.coverage * 100.0,
+        r.n,
+        rank(r.lower_rank),
+        rank(r.upper_rank)
+    )
 }
 
 fn fmt_opt(v: Option<f64>, decimals: usize) -> String {
@@ -139,6 +201,12 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
         );
         let _ = writeln!(
             s,
+            "  uncertainty of the record: {} l/s, {}, distribution-free (Hahn and Meeker 1991)",
+            interval_text(&h.design_flow_interval),
+            interval_basis_text(&h.design_flow_interval)
+        );
+        let _ = writeln!(
+            s,
             "Peak duty at the headworks: {} l/s/ha over {} ha ({} ha per m3/s); largest daily flow {} l/s",
             fmt_opt(h.duty_ls_ha, 2),
             fmt_int(h.area_ha),
@@ -179,7 +247,7 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
             let cap = d.existing_capacity_ls.unwrap_or(0.0);
             let _ = writeln!(
                 s,
-                "  {}: capacity {} l/s, required {} l/s ({})",
+                "  {}: capacity {} l/s, required {} l/s ({}{})",
                 d.name,
                 fmt_int(cap),
                 fmt_int(d.required_capacity_ls),
@@ -187,6 +255,14 @@ pub fn summary_text(r: &Results, project: &Project) -> String {
                     "TOO SMALL"
                 } else {
                     "sufficient"
+                },
+                if d.capacity_within_uncertainty() == Some(true) {
+                    format!(
+                        ", within the uncertainty of the record: required {} l/s",
+                        interval_text(&d.required_capacity_interval())
+                    )
+                } else {
+                    String::new()
                 },
             );
             if let Some(f) = &d.shortfall {
@@ -265,10 +341,11 @@ fn design_table(s: &mut String, r: &Results) {
     };
     let _ = writeln!(
         s,
-        "Design flows per canal ({:.0} % non-exceedance of the yearly peak {} mean flow over {} complete irrigation years; flows to 3 significant figures):",
+        "Design flows per canal ({:.0} % non-exceedance of the yearly peak {} mean flow over {} complete irrigation years; flows to 3 significant figures; {:.0} % distribution-free interval of the design flow from the order statistics of the yearly peaks):",
         first.non_exceedance * 100.0,
         first.basis.label(),
-        first.years.len()
+        first.years.len(),
+        first.design_flow_interval.ranks.level * 100.0
     );
     let head = [
         "node",
@@ -278,8 +355,9 @@ fn design_table(s: &mut String, r: &Results) {
         "required l/s",
         "existing l/s",
         "design year",
+        "interval l/s",
     ];
-    let rows: Vec<[String; 7]> = r
+    let rows: Vec<[String; 8]> = r
         .design
         .iter()
         .map(|d| {
@@ -291,6 +369,7 @@ fn design_table(s: &mut String, r: &Results) {
                 fmt_sig3(d.required_capacity_ls),
                 d.existing_capacity_ls.map_or_else(|| "-".into(), fmt_int),
                 d.design_year.label(),
+                interval_text(&d.design_flow_interval),
             ]
         })
         .collect();
@@ -441,6 +520,8 @@ pub fn tables(r: &Results, project: &Project) -> Vec<Table> {
             Cell::rounded_opt(d.duty_ls_ha, dec::DUTY_LS_HA),
             Cell::rounded(d.seasonal_volume_m3, dec::VOLUME_M3),
             Cell::Text(d.design_year.label()),
+            Cell::rounded_opt(d.design_flow_interval.lower, dec::FLOW_LS),
+            Cell::rounded_opt(d.design_flow_interval.upper, dec::FLOW_LS),
         ]);
     }
     let nodes = node_order(r);
@@ -563,6 +644,9 @@ pub fn write_tables(
         export::write_csv(t, &out.join(ROSTER_CSV))?;
         written.push(ROSTER_CSV.to_owned());
     }
+    let crops = crop_requirements_table(r);
+    export::write_csv(&crops, &out.join(CROP_REQUIREMENTS_MONTHLY_CSV))?;
+    written.push(CROP_REQUIREMENTS_MONTHLY_CSV.to_owned());
     let summary = all.iter().find(|t| t.name == "summary");
     let mut book: Vec<&Table> = Vec::new();
     book.extend(summary);
@@ -570,6 +654,7 @@ pub fn write_tables(
     book.push(&all[3]);
     book.push(&all[4]);
     book.extend(all.iter().find(|t| t.name == "block outlets"));
+    book.push(&crops);
     book.extend(roster);
     book.extend(all.iter().find(|t| t.name == "reservoir evaporation"));
     export::write_workbook(&book, &out.join(RESULTS_WORKBOOK))?;

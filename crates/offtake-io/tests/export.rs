@@ -23,6 +23,8 @@ fn design_table() -> Table {
         1.485.into(),
         12_345_678.0.into(),
         2011.into(),
+        3900.0.into(),
+        Cell::Empty,
     ]);
     t.push_row(vec![
         "Lower, Minor \"1\"".into(),
@@ -35,6 +37,8 @@ fn design_table() -> Table {
         1.351.into(),
         1.0e6.into(),
         2007.into(),
+        450.5.into(),
+        520.0.into(),
     ]);
     t
 }
@@ -45,7 +49,7 @@ fn design_table() -> Table {
 fn contract_headers() {
     assert_eq!(
         DESIGN_VALUES_HEADERS.join(","),
-        "node,area_ha,design_flow_ls,required_capacity_ls,existing_capacity_ls,peak_daily_ls,peak_10day_ls,duty_ls_ha,seasonal_volume_m3,design_year"
+        "node,area_ha,design_flow_ls,required_capacity_ls,existing_capacity_ls,peak_daily_ls,peak_10day_ls,duty_ls_ha,seasonal_volume_m3,design_year,design_flow_low_ls,design_flow_high_ls"
     );
     assert_eq!(NODE_DEMAND_DAILY_HEADERS.join(","), "date,node,demand_ls");
     assert_eq!(
@@ -65,11 +69,11 @@ fn csv_has_header_blanks_quotes_and_dates() {
     assert_eq!(lines[0], DESIGN_VALUES_HEADERS.join(","));
     assert_eq!(
         lines[1],
-        "headworks,2910,4321.5,4321.5,,5000.25,4500,1.485,12345678,2011"
+        "headworks,2910,4321.5,4321.5,,5000.25,4500,1.485,12345678,2011,3900,"
     );
     assert_eq!(
         lines[2],
-        "\"Lower, Minor \"\"1\"\"\",370,500,1000,800,600,550,1.351,1000000,2007"
+        "\"Lower, Minor \"\"1\"\"\",370,500,1000,800,600,550,1.351,1000000,2007,450.5,520"
     );
 
     let mut daily = Table::with_headers("daily", &NODE_DEMAND_DAILY_HEADERS);
@@ -104,8 +108,8 @@ fn malformed_tables_are_refused() {
             err,
             ExportError::RowWidth {
                 row: 1,
-                expected: 10,
-                found: 9,
+                expected: 12,
+                found: 11,
                 ..
             }
         ),

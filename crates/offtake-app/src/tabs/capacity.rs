@@ -231,6 +231,22 @@ pub fn explanation(project: &Project, r: &Results, d: &NodeDesign) -> String {
         format_number(d.hours_per_day, 1),
         format_sig(d.required_capacity_ls, 3)
     );
+    let _ = writeln!(
+        t,
+        "Uncertainty of the record: the design flow lies between {} l/s, {} — a distribution-free \
+         confidence interval of the quantile from the order statistics of the {n} yearly peaks \
+         (binomial ranks; Hahn and Meeker 1991, Statistical Intervals).",
+        offtake_io::results::interval_text(&d.design_flow_interval),
+        offtake_io::results::interval_basis_text(&d.design_flow_interval),
+    );
+    if d.capacity_within_uncertainty() == Some(true) {
+        let _ = writeln!(
+            t,
+            "The existing capacity lies inside the interval of the required capacity ({} l/s): \
+             the capacity verdict is within the uncertainty of the record.",
+            offtake_io::results::interval_text(&d.required_capacity_interval()),
+        );
+    }
     if let Some(duty) = d.duty_ls_ha {
         let _ = writeln!(
             t,
@@ -422,7 +438,7 @@ fn yearly_peaks(ui: &mut Ui, d: &NodeDesign) {
 
 /// Column titles of the design table, with units.
 /// Two lines each, so that the table fits beside the tree and inspector.
-pub const DESIGN_TABLE_HEADERS: [&str; 9] = [
+pub const DESIGN_TABLE_HEADERS: [&str; 10] = [
     "Node",
     "Area\n(ha)",
     "Design flow\n(l/s)",
@@ -432,6 +448,7 @@ pub const DESIGN_TABLE_HEADERS: [&str; 9] = [
     "Duty\n(l/s/ha)",
     "Seasonal volume\n(Mm³)",
     "Design\nyear",
+    "Design flow interval\n(l/s)",
 ];
 
 fn design_table(
@@ -470,15 +487,27 @@ fn design_table(
                         ui.label(RichText::new(format_sig(d.design_flow_ls, 3)).strong())
                             .on_hover_text(explanation(project, r, d));
                         ui.label(format_sig(d.required_capacity_ls, 3));
+                        let within = if d.capacity_within_uncertainty() == Some(true) {
+                            ", within the uncertainty of the record"
+                        } else {
+                            ""
+                        };
                         match d.existing_capacity_ls {
                             Some(cap) if cap < d.required_capacity_ls => {
                                 ui.label(
-                                    RichText::new(format!("{} (too small)", format_sig(cap, 3)))
-                                        .color(ui.visuals().error_fg_color),
+                                    RichText::new(format!(
+                                        "{} (too small{within})",
+                                        format_sig(cap, 3)
+                                    ))
+                                    .color(ui.visuals().error_fg_color),
                                 );
                             }
                             Some(cap) => {
-                                ui.label(format_sig(cap, 3));
+                                ui.label(if within.is_empty() {
+                                    format_sig(cap, 3)
+                                } else {
+                                    format!("{} (sufficient{within})", format_sig(cap, 3))
+                                });
                             }
                             None => {
                                 ui.label("—");
@@ -491,6 +520,10 @@ fn design_table(
                         );
                         ui.label(format_sig(d.seasonal_volume_m3 / 1.0e6, 3));
                         ui.label(d.design_year.label());
+                        ui.label(offtake_io::results::interval_text(&d.design_flow_interval))
+                            .on_hover_text(offtake_io::results::interval_basis_text(
+                                &d.design_flow_interval,
+                            ));
                         ui.end_row();
                     }
                 });

@@ -43,6 +43,7 @@ pub mod planting_step;
 pub mod plantings;
 pub mod storage;
 pub mod supply;
+pub mod tables;
 pub mod weather_prep;
 
 use std::time::{Duration, Instant};
@@ -299,6 +300,9 @@ pub struct Results {
     pub et0_estimated_days: usize,
     /// Mean ET₀ over the record (mm/day).
     pub et0_mean_mm_day: f64,
+    /// ET₀ and rain per calendar month over the complete irrigation years,
+    /// mean and dependable (at the design probability).
+    pub climate: tables::MonthlyClimate,
     /// Daily demand at every node with breakdowns.
     pub demand: SchemeDemand,
     /// Design values: canals in network order, then the headworks.
@@ -394,6 +398,7 @@ fn design_options(project: &Project) -> DesignOptions {
         },
         headworks_hours_per_day: 24.0,
         headworks_capacity_m3s: None,
+        confidence_level: project.options.design_confidence_pct / 100.0,
     }
 }
 
@@ -496,6 +501,15 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
 
     let network = network_of(project)?;
     let options = design_options(project);
+    let confidence_pct = project.options.design_confidence_pct;
+    if !(50.0..=99.99).contains(&confidence_pct) {
+        return Err(SchemeError::BadOption {
+            what: "options.design_confidence_pct (confidence level of the design flow, %)",
+            value: confidence_pct,
+            expected: "a percentage from 50 to 99.99, e.g. 90",
+        }
+        .into());
+    }
     let year_start =
         YearStart::new(options.year_start_month).map_err(|_| SchemeError::BadOption {
             what: "irrigation-year start month",
@@ -601,6 +615,13 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
         }
     }
     let et0_mean_mm_day = weather.et0_mm.iter().sum::<f64>() / weather.days() as f64;
+    let climate = tables::monthly_climate(
+        weather.start,
+        &weather.et0_mm,
+        &weather.rain_mm,
+        &complete_years,
+        options.non_exceedance,
+    );
     Ok(Results {
         scheme_name: project.scheme.name.clone(),
         scenario: input.scenario.map(str::to_owned),
@@ -609,6 +630,7 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
         complete_years,
         et0_estimated_days: weather.estimated_days,
         et0_mean_mm_day,
+        climate,
         demand,
         design,
         plantings: computed.summaries,

@@ -58,6 +58,11 @@ pub struct PlantingOutcome {
     pub seasons: Vec<SeasonOutcome>,
     /// Seasons left out of statistics (cut by the record's ends).
     pub seasons_excluded: usize,
+    /// Crop ET under no stress (mm/day), one value per weather day
+    /// (area-weighted over cohorts, 0 outside seasons).
+    pub etc_mm: Vec<f64>,
+    /// Effective rain (mm/day), one value per weather day.
+    pub peff_mm: Vec<f64>,
     /// Largest mean ETc over a calendar 10-day period of the record
     /// (mm/day, per hectare planted; 0 when the crop is never in the field).
     pub peak_etc_10day_mm_day: f64,
@@ -298,6 +303,8 @@ pub fn simulate_planting(
     let mut out = PlantingOutcome {
         peak_etc_10day_mm_day: peak_10day_mean(w.start, &result.etc_mm),
         nir_mm: result.nir_mm,
+        etc_mm: result.etc_mm,
+        peff_mm: result.peff_mm,
         ..PlantingOutcome::default()
     };
     for s in &result.seasons {

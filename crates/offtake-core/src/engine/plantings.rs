@@ -13,6 +13,7 @@ use super::planting_step::{
     PlantingOutcome, SeasonOutcome, application_efficiency_override, coefficient_mode,
     raw_and_peak_etc, simulate_planting,
 };
+use super::tables::{MonthlyDepths, planting_monthly_depths};
 use super::weather_prep::PreparedWeather;
 use crate::calendar::IrrigationYear;
 use crate::crop::Crop;
@@ -54,6 +55,9 @@ pub struct PlantingSummary {
     /// Whether the planting is paddy rice (its RAW is the pond, its rate
     /// ETc + seepage and percolation).
     pub is_paddy: bool,
+    /// ET₀, ETc, effective rain and NIR per calendar month, per hectare
+    /// planted, means over the complete irrigation years.
+    pub monthly: MonthlyDepths,
 }
 
 /// Plantings computed for the scheme.
@@ -224,6 +228,12 @@ pub fn compute_plantings(
         })
         .collect();
     let outcomes: Vec<PlantingOutcome> = outcomes.into_iter().collect::<Result<_, _>>()?;
+    let monthly: Vec<MonthlyDepths> = outcomes
+        .par_iter()
+        .map(|o| {
+            planting_monthly_depths(w.start, &w.et0_mm, &o.etc_mm, &o.peff_mm, &o.nir_mm, years)
+        })
+        .collect();
     // Each message once (e.g. an unknown Ky is said once per crop).
     let mut warnings: Vec<String> = mode_warnings;
     for w in outcomes.iter().flat_map(|o| o.warnings.iter()) {
@@ -298,6 +308,7 @@ pub fn compute_plantings(
                         outcome.peak_etc_10day_mm_day,
                     ),
                     is_paddy: job.ea_override.is_some(),
+                    monthly: monthly[job.distinct],
                 },
                 if keep_daily {
                     outcome.nir_mm.clone()

@@ -766,6 +766,13 @@ pub struct Options {
     pub design_probability_pct: f64,
     /// Averaging period of the yearly peaks used for design.
     pub design_basis: DesignBasis,
+    /// Nominal level of the design flow's confidence interval, percent
+    /// (default 90; older files without the field take the default).
+    #[serde(
+        default = "default_design_confidence_pct",
+        skip_serializing_if = "is_default_design_confidence_pct"
+    )]
+    pub design_confidence_pct: f64,
     /// Length of a full rotation cycle in days.
     pub rotation_period_days: u32,
     /// Available supply for the rotation roster; `None` = supply suffices.
@@ -833,6 +840,18 @@ impl GapFilling {
     }
 }
 
+fn default_design_confidence_pct() -> f64 {
+    90.0
+}
+
+#[expect(
+    clippy::trivially_copy_pass_by_ref,
+    reason = "serde's skip_serializing_if passes a reference"
+)]
+fn is_default_design_confidence_pct(v: &f64) -> bool {
+    (*v - default_design_confidence_pct()).abs() < 1e-12
+}
+
 fn default_et0_method() -> Et0Method {
     Et0Method::PenmanMonteith
 }
@@ -846,6 +865,7 @@ impl Default for Options {
             irrigation_year_start_month: 1,
             design_probability_pct: 80.0,
             design_basis: DesignBasis::TenDay,
+            design_confidence_pct: default_design_confidence_pct(),
             rotation_period_days: 7,
             available_supply: None,
             gap_filling: GapFilling::default(),

@@ -20,6 +20,12 @@
 //! ranks ([`crate::stats`]). The design year is the year whose peak is
 //! closest to the design flow.
 //!
+//! With each design flow, a distribution-free confidence interval of the
+//! quantile from the order statistics of the yearly peaks (binomial ranks,
+//! Hahn and Meeker 1991; [`crate::stats::interval`]), at a nominal level of
+//! 90 % by default: it says how far the design flow could move with another
+//! record of the same length.
+//!
 //! Duty = design flow ÷ area commanded below the node (l/s/ha; also ha per
 //! m³/s). Required capacity = design flow × 24 ÷ hours of operation per day
 //! (published-check-values §10.3).
@@ -45,7 +51,7 @@ use super::SchemeError;
 use super::demand::SchemeDemand;
 use super::network::{NetworkProblem, Node};
 use crate::calendar::{IrrigationYear, TenDayPeriod, YearMonth, YearStart, year_coverage};
-use crate::stats::{Probability, design_year};
+use crate::stats::{Probability, QuantileInterval, RankedSample, design_year};
 use crate::units::{SECONDS_PER_DAY, m3_day_to_l_s};
 
 /// The yearly peak the design flow is taken from.
@@ -94,7 +100,13 @@ pub struct DesignOptions {
     pub headworks_hours_per_day: f64,
     /// Existing capacity of the headworks (m³/s), if any.
     pub headworks_capacity_m3s: Option<f64>,
+    /// Nominal level of the design flow's confidence interval, a fraction
+    /// in (0, 1) (default 0.9).
+    pub confidence_level: f64,
 }
+
+/// Default nominal level of the design-flow confidence interval (90 %).
+pub const DEFAULT_CONFIDENCE_LEVEL: f64 = 0.9;
 
 impl Default for DesignOptions {
     fn default() -> Self {
@@ -104,6 +116,7 @@ impl Default for DesignOptions {
             basis: DesignBasis::TenDay,
             headworks_hours_per_day: 24.0,
             headworks_capacity_m3s: None,
+            confidence_level: DEFAULT_CONFIDENCE_LEVEL,
         }
     }
 }
@@ -159,6 +172,11 @@ pub struct NodeDesign {
     pub non_exceedance: f64,
     /// Design flow: continuous 24-hour flow (l/s).
     pub design_flow_ls: f64,
+    /// Distribution-free confidence interval of the design flow (l/s) from
+    /// the order statistics of the yearly peaks on the design basis
+    /// ([`crate::stats::interval`]); an open bound lies beyond the record.
+    #[serde(default)]
+    pub design_flow_interval: QuantileInterval,
     /// The year whose peak is closest to the design flow.
     pub design_year: IrrigationYear,
     /// Largest daily flow over the complete years (l/s), reported only.
@@ -512,6 +530,13 @@ fn check_options(options: &DesignOptions) -> Result<YearStart, SchemeError> {
             expected: "a positive number",
         });
     }
+    if !(options.confidence_level > 0.0 && options.confidence_level < 1.0) {
+        return Err(SchemeError::BadOption {
+            what: "confidence level of the design flow",
+            value: options.confidence_level,
+            expected: "a fraction in (0, 1), e.g. 0.9",
+        });
+    }
     YearStart::new(options.year_start_month).map_err(|_| SchemeError::BadOption {
         what: "irrigation-year start month",
         value: f64::from(options.year_start_month),
@@ -584,6 +609,13 @@ pub fn design_values(
             },
         )?;
         let design_flow_ls = dy.value_at_probability;
+        let design_flow_interval = RankedSample::new(&peaks)
+            .and_then(|s| s.quantile_interval(options.non_exceedance, options.confidence_level))
+            .map_err(|_| SchemeError::BadOption {
+                what: "confidence level of the design flow",
+                value: options.confidence_level,
+                expected: "a fraction in (0, 1), e.g. 0.9",
+            })?;
         let n_years = years.len() as f64;
         let (hours_per_day, capacity_m3s) = match node {
             Node::Headworks => (
@@ -602,6 +634,7 @@ pub fn design_values(
             basis: options.basis,
             non_exceedance: options.non_exceedance,
             design_flow_ls,
+            design_flow_interval,
             design_year: years[dy.index].year,
             peak_daily_ls: years.iter().map(|y| y.peak_daily_ls).fold(0.0, f64::max),
             peak_10day_ls: years.iter().map(|y| y.peak_10day_ls).fold(0.0, f64::max),
@@ -634,6 +667,25 @@ pub fn design_values(
         });
     }
     Ok(out)
+}
+
+impl NodeDesign {
+    /// The design flow's confidence interval as a required capacity (l/s):
+    /// both bounds × 24 ÷ hours of operation, as the required capacity
+    /// follows from the design flow.
+    pub fn required_capacity_interval(&self) -> QuantileInterval {
+        self.design_flow_interval
+            .scaled(required_capacity_ls(1.0, self.hours_per_day))
+    }
+
+    /// Whether the existing capacity lies inside the confidence interval of
+    /// the required capacity: the verdict "sufficient" or "too small" is then
+    /// within the uncertainty of the record. `None` without an existing
+    /// capacity.
+    pub fn capacity_within_uncertainty(&self) -> Option<bool> {
+        self.existing_capacity_ls
+            .map(|cap| self.required_capacity_interval().contains(cap))
+    }
 }
 
 /// Duty (l/s/ha): design flow (l/s) ÷ commanded area (ha). With a flow
