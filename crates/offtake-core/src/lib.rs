@@ -28,6 +28,7 @@ pub mod rain;
 pub mod rotation;
 pub mod salinity;
 pub mod scheme;
+pub mod section;
 pub mod soil;
 pub mod stats;
 pub mod units;
