@@ -13,6 +13,7 @@ mod cmd_compare;
 mod cmd_et0;
 mod cmd_planting;
 mod cmd_run;
+mod cmd_section;
 mod cmd_weather_check;
 mod cmd_weather_stats;
 
@@ -34,6 +35,8 @@ enum Command {
     Compare(cmd_compare::Args),
     /// Net irrigation requirement of one planting over a weather record.
     Planting(cmd_planting::Args),
+    /// One canal section: normal depth (Manning) or regime section (Lacey), with checks.
+    Section(cmd_section::Args),
     /// Weather series: quality checks and multi-year statistics.
     Weather {
         #[command(subcommand)]
@@ -56,6 +59,7 @@ fn main() -> ExitCode {
         Command::Run(args) => cmd_run::run(args),
         Command::Compare(args) => cmd_compare::run(args),
         Command::Planting(args) => cmd_planting::run(args),
+        Command::Section(args) => cmd_section::run(args),
         Command::Weather {
             command: WeatherCommand::Check(args),
         } => cmd_weather_check::run(args),

@@ -10,4 +10,5 @@ pub mod export;
 pub mod library;
 pub mod project_file;
 pub mod results;
+pub mod sections;
 pub mod weather;

@@ -4,7 +4,8 @@
 //! `node_demand_daily.csv`, `block_requirements_daily.csv`,
 //! `demand_10day.csv`, `demand_monthly.csv`, `roster.csv` (when supply is
 //! short) and `results.xlsx` (summary, design values, 10-day and monthly
-//! tables, roster; daily tables stay in CSV), plus the text summary with
+//! tables, roster, canal sections; daily tables stay in CSV), plus
+//! `canal_sections.csv` (see [`crate::sections`]), plus the text summary with
 //! units that `offtake run` prints.
 
 use std::fmt::Write as _;
@@ -405,6 +406,7 @@ pub fn tables(r: &Results, project: &Project) -> Vec<Table> {
         }
         out.push(t);
     }
+    out.push(crate::sections::canal_sections_table(r));
     let mut summary = Table::with_headers("summary", &["item", "value"]);
     for line in summary_text(r, project).lines() {
         summary.push_row(vec![Cell::Text(line.to_owned()), Cell::Empty]);
@@ -447,6 +449,13 @@ pub fn write_tables(
         export::write_csv(t, &out.join(ROSTER_CSV))?;
         written.push(ROSTER_CSV.to_owned());
     }
+    let sections = all
+        .iter()
+        .find(|t| t.name == crate::sections::CANAL_SECTIONS_TABLE);
+    if let Some(t) = sections {
+        export::write_csv(t, &out.join(crate::sections::CANAL_SECTIONS_CSV))?;
+        written.push(crate::sections::CANAL_SECTIONS_CSV.to_owned());
+    }
     let summary = all.iter().find(|t| t.name == "summary");
     let mut book: Vec<&Table> = Vec::new();
     book.extend(summary);
@@ -454,6 +463,7 @@ pub fn write_tables(
     book.push(&all[3]);
     book.push(&all[4]);
     book.extend(roster);
+    book.extend(sections);
     export::write_workbook(&book, &out.join(RESULTS_WORKBOOK))?;
     written.push(RESULTS_WORKBOOK.to_owned());
     Ok(written)

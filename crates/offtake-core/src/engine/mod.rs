@@ -235,6 +235,8 @@ pub struct Results {
     pub supply: Option<SupplyResult>,
     /// Warnings (validation problems, estimated data, excluded seasons...).
     pub warnings: Vec<String>,
+    /// Each canal's section at its required capacity, in network order.
+    pub sections: Vec<crate::section::canal::CanalSectionRow>,
     /// Step timings.
     pub timing: Timing,
 }
@@ -267,6 +269,27 @@ impl Results {
     }
 }
 
+/// Each canal's section at its required capacity (the design values'
+/// `required_capacity_ls`); capacity differences and sections that cannot
+/// be computed become warnings.
+fn canal_sections(
+    project: &Project,
+    design: &[NodeDesign],
+    warnings: &mut Vec<String>,
+) -> Vec<crate::section::canal::CanalSectionRow> {
+    let mut rows = Vec::new();
+    for d in design {
+        if let Some(c) = project.canals.iter().find(|c| c.id == d.name) {
+            let row = crate::section::canal::canal_section_row(c, d.required_capacity_ls);
+            if !row.note.is_empty() && c.section.bed_slope.is_some() {
+                warnings.push(format!("canal {}: section: {}", c.id, row.note));
+            }
+            rows.push(row);
+        }
+    }
+    rows
+}
+
 /// The scheme network of a project: Ea = the block method's application
 /// efficiency, Eb = the field-canal efficiency; blocks are named by id.
 ///
@@ -282,7 +305,7 @@ pub fn network_of(project: &Project) -> Result<Network, SchemeError> {
                 name: c.name.clone(),
                 parent: c.parent.clone(),
                 conveyance_efficiency: c.conveyance_efficiency,
-                existing_capacity_m3s: c.existing_capacity_m3s,
+                existing_capacity_m3s: c.effective_existing_capacity_m3s(),
                 hours_per_day: c.operating_hours_per_day,
             })
             .collect(),
@@ -492,6 +515,7 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
             ));
         }
     }
+    let sections = canal_sections(project, &design, &mut warnings);
     let t_scheme = t2.elapsed();
 
     let t3 = Instant::now();
@@ -530,6 +554,7 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
         storage,
         supply,
         warnings,
+        sections,
         timing: Timing {
             weather: t_weather,
             plantings: t_plantings,

@@ -20,6 +20,7 @@
 //! survey and local codes decide the final design, which a qualified
 //! engineer must check.
 
+pub mod canal;
 pub mod design;
 pub mod freeboard;
 pub mod geometry;
