@@ -145,7 +145,10 @@ fn run_writes_the_contract_tables() {
     let head = rows.iter().find(|r| r[0] == "headworks").unwrap();
     assert_eq!(head[4], "");
     let middle = rows.iter().find(|r| r[0] == "middle-dy").unwrap();
-    assert!((middle[4].parse::<f64>().unwrap() - 2000.0).abs() < 1e-6);
+    // middle-dy has an existing section whose Manning capacity (about
+    // 2 000 l/s) replaces the entered 2 000 l/s; canal_sections.csv gives
+    // both and the difference.
+    assert!((middle[4].parse::<f64>().unwrap() - 2000.0).abs() < 1.0);
 }
 
 #[test]
