@@ -456,6 +456,10 @@ pub fn write_tables(
         export::write_csv(t, &out.join(crate::sections::CANAL_SECTIONS_CSV))?;
         written.push(crate::sections::CANAL_SECTIONS_CSV.to_owned());
     }
+    if let Some(t) = crate::sections::canal_efficiency_daily_table(r) {
+        export::write_csv(&t, &out.join(crate::sections::CANAL_EFFICIENCY_DAILY_CSV))?;
+        written.push(crate::sections::CANAL_EFFICIENCY_DAILY_CSV.to_owned());
+    }
     let summary = all.iter().find(|t| t.name == "summary");
     let mut book: Vec<&Table> = Vec::new();
     book.extend(summary);

@@ -13,7 +13,7 @@ pub const CANAL_SECTIONS_CSV: &str = "canal_sections.csv";
 pub const CANAL_SECTIONS_TABLE: &str = "canal sections";
 
 /// Canal sections header.
-pub const CANAL_SECTIONS_HEADERS: [&str; 22] = [
+pub const CANAL_SECTIONS_HEADERS: [&str; 24] = [
     "node",
     "basis",
     "required_capacity_ls",
@@ -36,7 +36,43 @@ pub const CANAL_SECTIONS_HEADERS: [&str; 22] = [
     "entered_capacity_ls",
     "proposal",
     "note",
+    "seepage_efficiency_season",
+    "seepage_efficiency_min_day",
 ];
+
+/// Daily conveyance efficiency file (canals whose seepage replaces Ec).
+pub const CANAL_EFFICIENCY_DAILY_CSV: &str = "canal_efficiency_daily.csv";
+
+/// Daily conveyance efficiency table name.
+pub const CANAL_EFFICIENCY_DAILY_TABLE: &str = "canal efficiency daily";
+
+/// Daily conveyance efficiency of each canal whose seepage by wetted
+/// perimeter replaces its fixed Ec (`date,node,conveyance_efficiency`);
+/// `None` when no canal does.
+#[must_use]
+pub fn canal_efficiency_daily_table(r: &Results) -> Option<Table> {
+    let net = r.demand.network();
+    let canals: Vec<usize> = (0..net.canals().len())
+        .filter(|&i| net.seepage(i).is_some())
+        .collect();
+    if canals.is_empty() {
+        return None;
+    }
+    let mut t = Table::with_headers(
+        CANAL_EFFICIENCY_DAILY_TABLE,
+        &["date", "node", "conveyance_efficiency"],
+    );
+    for day in 0..r.days {
+        for &i in &canals {
+            t.push_row(vec![
+                Cell::Date(r.demand.date(day)),
+                Cell::Text(net.canals()[i].id.clone()),
+                Cell::rounded(r.demand.canal_efficiency_day(i)[day], 4),
+            ]);
+        }
+    }
+    Some(t)
+}
 
 /// Builds the canal sections table of a run.
 #[must_use]
@@ -73,6 +109,8 @@ pub fn canal_sections_table(r: &Results) -> Table {
             Cell::rounded_opt(row.entered_capacity_ls, 1),
             Cell::Text(row.proposal.clone().unwrap_or_default()),
             Cell::Text(row.note.clone()),
+            Cell::rounded_opt(row.seepage_efficiency_season, 4),
+            Cell::rounded_opt(row.seepage_efficiency_min_day, 4),
         ]);
         t.push_row(cells);
     }

@@ -35,6 +35,10 @@ pub struct CanalSectionSpec {
     /// Seepage rate (m³ per m² of wetted area per day).
     #[serde(skip_serializing_if = "Option::is_none")]
     pub seepage_m3_m2_day: Option<f64>,
+    /// Let seepage by wetted perimeter (length × rate) replace the fixed
+    /// conveyance efficiency Ec, solved each day by iteration to 0.1 %.
+    #[serde(skip_serializing_if = "std::ops::Not::not")]
+    pub seepage_replaces_ec: bool,
     /// The section as built, if any: its Manning capacity replaces the
     /// entered existing capacity.
     #[serde(skip_serializing_if = "Option::is_none")]
@@ -76,6 +80,54 @@ impl CanalSectionSpec {
             bank_height_m: e.bank_height_m,
             manning_n: e.manning_n.unwrap_or_else(|| self.manning_n_or_default()),
             bed_slope: self.bed_slope?,
+        })
+    }
+}
+
+impl CanalSectionSpec {
+    /// The seepage model that replaces the fixed Ec, when the user asks for
+    /// it and gives a slope, a length and a rate: on the existing section if
+    /// any, else on the section designed for `design_flow_m3s`.
+    #[must_use]
+    pub fn seepage_model(
+        &self,
+        design_flow_m3s: Option<f64>,
+    ) -> Option<crate::scheme::CanalSeepage> {
+        if !self.seepage_replaces_ec {
+            return None;
+        }
+        let (rate, length, slope) = (self.seepage_m3_m2_day?, self.length_m?, self.bed_slope?);
+        let (prism, n) = if let Some(e) = self.existing_section() {
+            (e.prism, e.manning_n)
+        } else {
+            let lining = self.lining_or_default();
+            let n = self.manning_n_or_default();
+            let req = crate::section::DesignRequest {
+                flow_m3s: design_flow_m3s?,
+                bed_slope: slope,
+                manning_n: n,
+                shape: self.shape.unwrap_or_default(),
+                side_slope_h_per_v: self
+                    .side_slope_h_per_v
+                    .unwrap_or_else(|| lining.side_slope_h_per_v()),
+                width: crate::section::Width::Ratio(
+                    self.width_ratio
+                        .unwrap_or(crate::section::canal::DEFAULT_WIDTH_RATIO),
+                ),
+                freeboard_m: None,
+                lining: Some(lining),
+                colloidal_silt: false,
+                min_velocity_ms: 0.0,
+                method: crate::section::Method::Manning,
+            };
+            (crate::section::design_section(&req).ok()?.prism, n)
+        };
+        Some(crate::scheme::CanalSeepage {
+            prism,
+            manning_n: n,
+            bed_slope: slope,
+            rate_m3_m2_day: rate,
+            length_m: length,
         })
     }
 }

@@ -58,6 +58,12 @@ pub struct CanalSectionRow {
     pub proposal: Option<String>,
     /// Why no section was designed, or a remark on the capacities.
     pub note: String,
+    /// With seepage replacing the fixed Ec: the record's conveyance
+    /// efficiency, Σ outflow ÷ Σ inflow.
+    pub seepage_efficiency_season: Option<f64>,
+    /// With seepage replacing the fixed Ec: the lowest daily efficiency on
+    /// a day with flow.
+    pub seepage_efficiency_min_day: Option<f64>,
 }
 
 /// The section row of `canal` for `required_capacity_ls`.
@@ -75,6 +81,8 @@ pub fn canal_section_row(canal: &Canal, required_capacity_ls: f64) -> CanalSecti
         entered_capacity_ls: entered,
         proposal: None,
         note: String::new(),
+        seepage_efficiency_season: None,
+        seepage_efficiency_min_day: None,
     };
     let Some(slope) = spec.bed_slope else {
         "no bed slope given".clone_into(&mut row.note);
