@@ -456,6 +456,7 @@ pub fn new_canal(doc: &Project, parent: Option<&str>) -> Canal {
         conveyance_efficiency: NEW_CANAL_CONVEYANCE_EFFICIENCY,
         existing_capacity_m3s: None,
         operating_hours_per_day: 24.0,
+        section: offtake_core::project::CanalSectionSpec::default(),
     }
 }
 

@@ -58,6 +58,14 @@ pub mod bounds {
         &limits::EXISTING_CAPACITY_M3S,
         1.0,
     );
+    /// Bed slope of a canal section.
+    pub const BED_SLOPE: Bounds = Bounds::new("Bed slope", "m/m", 0.000_001, 0.1);
+    /// Side slope of a canal section.
+    pub const SIDE_SLOPE: Bounds = Bounds::new("Side slope", "H per 1 V", 0.0, 10.0);
+    /// Reach length.
+    pub const LENGTH: Bounds = Bounds::new("Length", "m", 0.0, 1.0e6);
+    /// Seepage rate per wetted area.
+    pub const SEEPAGE: Bounds = Bounds::new("Seepage rate", "m³/m²/day", 0.0, 5.0);
     /// Block area.
     pub const AREA: Bounds = Bounds::new("Area", "ha", 0.0, 1.0e6);
     /// Planting share of its block.
@@ -131,7 +139,7 @@ fn problems_of(ui: &mut Ui, ctx: &Context<'_>, id: &str) {
     }
 }
 
-fn fid(item: &str, field: &str) -> Id {
+pub(crate) fn fid(item: &str, field: &str) -> Id {
     Id::unique(("inspector", item, field))
 }
 
@@ -247,7 +255,7 @@ fn scheme_ui(ui: &mut Ui, doc: &Project, commands: &mut Vec<Command>) {
     ));
 }
 
-fn set_canal(c: Canal) -> Command {
+pub(crate) fn set_canal(c: Canal) -> Command {
     Command::Edit(DocEdit::SetCanal {
         id: c.id.clone(),
         canal: Box::new(c),
@@ -343,6 +351,7 @@ fn canal_ui(ui: &mut Ui, doc: &Project, c: &Canal, commands: &mut Vec<Command>) 
             crate::fields::format_number(area, 1)
         ));
     }
+    crate::section_fields::section_ui(ui, c, commands);
 }
 
 fn set_block(b: Block) -> Command {

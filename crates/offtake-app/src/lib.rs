@@ -65,6 +65,7 @@ pub mod plot;
 pub mod prompt;
 pub mod recovery;
 pub mod scenario_editor;
+pub mod section_fields;
 pub mod state;
 pub mod status;
 pub mod tabs;

@@ -22,6 +22,7 @@ fn invented_scheme() -> Project {
         conveyance_efficiency: 0.9,
         existing_capacity_m3s: None,
         operating_hours_per_day: 24.0,
+        section: offtake_core::project::CanalSectionSpec::default(),
     };
     let block = |id: &str, name: &str, canal: &str, area_ha| Block {
         id: id.into(),

@@ -15,6 +15,7 @@ mod cmd_et0;
 mod cmd_planting;
 mod cmd_report;
 mod cmd_run;
+mod cmd_section;
 mod cmd_weather_check;
 mod cmd_weather_stats;
 
@@ -38,6 +39,8 @@ enum Command {
     Report(cmd_report::Args),
     /// Net irrigation requirement of one planting over a weather record.
     Planting(cmd_planting::Args),
+    /// One canal section: normal depth (Manning) or regime section (Lacey), with checks.
+    Section(cmd_section::Args),
     /// Weather series: quality checks and multi-year statistics.
     Weather {
         #[command(subcommand)]
@@ -61,6 +64,7 @@ fn main() -> ExitCode {
         Command::Compare(args) => cmd_compare::run(args),
         Command::Report(args) => cmd_report::run(args),
         Command::Planting(args) => cmd_planting::run(args),
+        Command::Section(args) => cmd_section::run(args),
         Command::Weather {
             command: WeatherCommand::Check(args),
         } => cmd_weather_check::run(args),

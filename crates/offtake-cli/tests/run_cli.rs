@@ -147,7 +147,9 @@ fn run_writes_the_contract_tables() {
     let head = rows.iter().find(|r| r[0] == "headworks").unwrap();
     assert_eq!(head[4], "");
     let middle = rows.iter().find(|r| r[0] == "middle-dy").unwrap();
-    assert!((middle[4].parse::<f64>().unwrap() - 2000.0).abs() < 1e-6);
+    // middle-dy has an existing section whose Manning capacity replaces the
+    // entered capacity; canal_sections.csv gives both and the difference.
+    assert!((middle[4].parse::<f64>().unwrap() - 1450.0).abs() < 1.0);
     // The confidence interval (24 years at 80 %: order statistics 16 and
     // 23, both inside the record) holds the design flow.
     for r in &rows {

@@ -97,6 +97,7 @@ fn project(blocks: usize, delivery: Delivery) -> Project {
         conveyance_efficiency: 0.95,
         existing_capacity_m3s: None,
         operating_hours_per_day: 24.0,
+        section: offtake_core::project::CanalSectionSpec::default(),
     });
     let n_dy = blocks.div_ceil(50);
     for d in 0..n_dy {
@@ -108,6 +109,7 @@ fn project(blocks: usize, delivery: Delivery) -> Project {
             conveyance_efficiency: 0.85,
             existing_capacity_m3s: None,
             operating_hours_per_day: 24.0,
+            section: offtake_core::project::CanalSectionSpec::default(),
         });
     }
     let wet = ["rice-paddy", "maize-grain", "cotton", "sorghum-grain"];

@@ -29,6 +29,7 @@ pub mod rain;
 pub mod rotation;
 pub mod salinity;
 pub mod scheme;
+pub mod section;
 pub mod soil;
 pub mod station_limits;
 pub mod stats;

@@ -11,4 +11,5 @@ pub mod library;
 pub mod project_file;
 pub mod report;
 pub mod results;
+pub mod sections;
 pub mod weather;

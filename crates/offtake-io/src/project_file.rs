@@ -675,6 +675,7 @@ pub mod v0 {
                     conveyance_efficiency: c.conveyance_efficiency_pct / 100.0,
                     existing_capacity_m3s: c.existing_capacity_m3s,
                     operating_hours_per_day: c.operating_hours_per_day,
+                    section: cur::CanalSectionSpec::default(),
                 })
                 .collect(),
             blocks: old

@@ -4,8 +4,9 @@
 //! `node_demand_daily.csv`, `block_requirements_daily.csv`,
 //! `demand_10day.csv`, `demand_monthly.csv`, `roster.csv` (when supply is
 //! short) and `results.xlsx` (summary, design values, 10-day and monthly
-//! tables, roster, reservoir evaporation by every open-water method; daily
-//! tables stay in CSV), plus the text summary with
+//! tables, roster, reservoir evaporation by every open-water method, canal
+//! sections; daily tables stay in CSV), `canal_sections.csv` (see
+//! [`crate::sections`]), plus the text summary with
 //! units that `offtake run` prints.
 
 use std::fmt::Write as _;
@@ -598,6 +599,7 @@ pub fn tables(r: &Results, project: &Project) -> Vec<Table> {
     if let Some(st) = &r.storage {
         out.push(reservoir_table(st));
     }
+    out.push(crate::sections::canal_sections_table(r));
     let mut summary = Table::with_headers("summary", &["item", "value"]);
     for line in summary_text(r, project).lines() {
         summary.push_row(vec![Cell::Text(line.to_owned()), Cell::Empty]);
@@ -647,6 +649,17 @@ pub fn write_tables(
     let crops = crop_requirements_table(r);
     export::write_csv(&crops, &out.join(CROP_REQUIREMENTS_MONTHLY_CSV))?;
     written.push(CROP_REQUIREMENTS_MONTHLY_CSV.to_owned());
+    let sections = all
+        .iter()
+        .find(|t| t.name == crate::sections::CANAL_SECTIONS_TABLE);
+    if let Some(t) = sections {
+        export::write_csv(t, &out.join(crate::sections::CANAL_SECTIONS_CSV))?;
+        written.push(crate::sections::CANAL_SECTIONS_CSV.to_owned());
+    }
+    if let Some(t) = crate::sections::canal_efficiency_daily_table(r) {
+        export::write_csv(&t, &out.join(crate::sections::CANAL_EFFICIENCY_DAILY_CSV))?;
+        written.push(crate::sections::CANAL_EFFICIENCY_DAILY_CSV.to_owned());
+    }
     let summary = all.iter().find(|t| t.name == "summary");
     let mut book: Vec<&Table> = Vec::new();
     book.extend(summary);
@@ -657,6 +670,7 @@ pub fn write_tables(
     book.push(&crops);
     book.extend(roster);
     book.extend(all.iter().find(|t| t.name == "reservoir evaporation"));
+    book.extend(sections);
     export::write_workbook(&book, &out.join(RESULTS_WORKBOOK))?;
     written.push(RESULTS_WORKBOOK.to_owned());
     Ok(written)

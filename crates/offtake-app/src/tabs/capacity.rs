@@ -320,6 +320,12 @@ impl CanalCapacityTab {
                 ui.label(explanation(project, r, d));
                 yearly_peaks(ui, d);
             });
+        if node != Node::Headworks {
+            egui::CollapsingHeader::new("Section (drawn to scale) and checks")
+                .id_salt("capacity-section")
+                .default_open(true)
+                .show(ui, |ui| super::section_view::show(ui, r, &d.name));
+        }
         let table_height = (r.design.len() as f32 + 2.5) * 22.0 + 8.0;
         let plot_height = (ui.available_height() - table_height - 12.0).max(180.0);
         ui.allocate_ui(egui::vec2(ui.available_width(), plot_height), |ui| {

@@ -9,6 +9,7 @@ pub mod compare;
 pub mod crops;
 pub mod demand;
 pub mod rotation;
+pub mod section_view;
 pub mod weather;
 
 use egui::{RichText, Ui};

@@ -322,6 +322,8 @@ pub struct Results {
     pub supply: Option<SupplyResult>,
     /// Warnings (validation problems, estimated data, excluded seasons...).
     pub warnings: Vec<String>,
+    /// Each canal's section at its required capacity, in network order.
+    pub sections: Vec<crate::section::canal::CanalSectionRow>,
     /// Step timings.
     pub timing: Timing,
 }
@@ -354,6 +356,67 @@ impl Results {
     }
 }
 
+/// Each canal's section at its required capacity (the design values'
+/// `required_capacity_ls`); capacity differences and sections that cannot
+/// be computed become warnings.
+fn canal_sections(
+    project: &Project,
+    design: &[NodeDesign],
+    demand: &SchemeDemand,
+    warnings: &mut Vec<String>,
+) -> Vec<crate::section::canal::CanalSectionRow> {
+    let mut rows = Vec::new();
+    for d in design {
+        if let Some((i, c)) = project
+            .canals
+            .iter()
+            .enumerate()
+            .find(|(_, c)| c.id == d.name)
+        {
+            let mut row = crate::section::canal::canal_section_row(c, d.required_capacity_ls);
+            if demand.network().seepage(i).is_some() {
+                let ec = demand.canal_efficiency_day(i);
+                let inflow = demand.demand_m3_day(scheme::Node::Canal(i));
+                let total_in: f64 = inflow.iter().sum();
+                let total_out: f64 = inflow.iter().zip(ec).map(|(q, e)| q * e).sum();
+                if total_in > 0.0 {
+                    row.seepage_efficiency_season = Some(total_out / total_in);
+                }
+                row.seepage_efficiency_min_day = inflow
+                    .iter()
+                    .zip(ec)
+                    .filter(|(q, _)| **q > 0.0)
+                    .map(|(_, e)| *e)
+                    .reduce(f64::min);
+            }
+            if !row.note.is_empty() && c.section.bed_slope.is_some() {
+                warnings.push(format!("canal {}: section: {}", c.id, row.note));
+            }
+            rows.push(row);
+        }
+    }
+    rows
+}
+
+/// A copy of `network` with seepage models for the canals whose section
+/// asks seepage to replace the fixed Ec; `None` when no canal does.
+fn with_seepage(project: &Project, network: &Network, design: &[NodeDesign]) -> Option<Network> {
+    let mut net = network.clone();
+    let mut any = false;
+    for (i, c) in project.canals.iter().enumerate() {
+        let flow = design
+            .iter()
+            .find(|d| d.name == c.id)
+            .map(|d| d.required_capacity_ls / 1000.0)
+            .filter(|q| *q > 0.0);
+        if let Some(model) = c.section.seepage_model(flow) {
+            net.set_seepage(i, Some(model));
+            any = true;
+        }
+    }
+    any.then_some(net)
+}
+
 /// The scheme network of a project: Ea = the block method's application
 /// efficiency, Eb = the field-canal efficiency; blocks are named by id.
 ///
@@ -369,7 +432,7 @@ pub fn network_of(project: &Project) -> Result<Network, SchemeError> {
                 name: c.name.clone(),
                 parent: c.parent.clone(),
                 conveyance_efficiency: c.conveyance_efficiency,
-                existing_capacity_m3s: c.existing_capacity_m3s,
+                existing_capacity_m3s: c.effective_existing_capacity_m3s(),
                 hours_per_day: c.operating_hours_per_day,
             })
             .collect(),
@@ -544,7 +607,33 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
         Some(d) => d?,
         None => SchemeDemand::compute(&network, weather.start, weather.days(), &[])?,
     };
-    let design = scheme::design_values(&demand, &options)?;
+    let mut design = scheme::design_values(&demand, &options)?;
+    // Seepage by wetted perimeter replacing a fixed Ec: size each such
+    // canal's section for the required capacity found with the fixed Ec,
+    // then recompute the demand with the daily seepage solved to 0.1 %.
+    let seepage_network = with_seepage(project, &network, &design);
+    let (demand, computed) = if let Some(net2) = seepage_network {
+        let mut again = plantings::compute_plantings(
+            project,
+            input.crops,
+            input.soils,
+            &weather,
+            &net2,
+            &complete_years,
+            keep_daily,
+        )?;
+        let d2 = match again.demand.take() {
+            Some(d) => d?,
+            None => SchemeDemand::compute(&net2, weather.start, weather.days(), &[])?,
+        };
+        design = scheme::design_values(&d2, &options)?;
+        warnings.push(
+            "seepage by wetted perimeter replaces the fixed Ec of some canals: each day's loss solved by iteration to 0.1 % on the section sized for the fixed-Ec required capacity".to_owned(),
+        );
+        (d2, again)
+    } else {
+        (demand, computed)
+    };
     let storage = match &project.reservoir {
         Some(r) => Some(storage::reservoir_losses(
             r,
@@ -583,6 +672,7 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
             ));
         }
     }
+    let sections = canal_sections(project, &design, &demand, &mut warnings);
     let t_scheme = t2.elapsed();
 
     let t3 = Instant::now();
@@ -640,6 +730,7 @@ pub fn run(input: &EngineInput<'_>) -> Result<Results, EngineError> {
         weather_out_of_limits,
         supply,
         warnings,
+        sections,
         timing: Timing {
             weather: t_weather,
             plantings: t_plantings,

@@ -19,6 +19,7 @@
 //! ([`tree`]), whole-project validation ([`validate`]) and scenario
 //! application ([`scenario`]).
 
+pub mod canal_section;
 pub mod plausibility;
 pub mod scenario;
 pub mod tree;
@@ -29,6 +30,7 @@ use serde::{Deserialize, Serialize};
 
 use crate::weather_import::ImportSettings;
 
+pub use canal_section::{CanalSectionSpec, ExistingSectionSpec};
 pub use scenario::{Override, Scenario, ScenarioError, WeatherPerturbation};
 pub use validate::{CropSeasonLengths, ItemKind, ValidationContext, ValidationProblem};
 
@@ -162,6 +164,22 @@ pub struct Canal {
     /// Hours per day the canal runs, in (0, 24]. Required capacity =
     /// design flow × 24 ÷ hours.
     pub operating_hours_per_day: f64,
+    /// Section data (slope, lining, shape, length, seepage, existing
+    /// section); left out of the file when empty.
+    #[serde(default, skip_serializing_if = "CanalSectionSpec::is_empty")]
+    pub section: CanalSectionSpec,
+}
+
+impl Canal {
+    /// The existing capacity the scheme uses (m³/s): an existing section's
+    /// Manning capacity wins over an entered capacity.
+    #[must_use]
+    pub fn effective_existing_capacity_m3s(&self) -> Option<f64> {
+        self.section
+            .existing_section()
+            .and_then(|e| e.capacity_m3s().ok())
+            .or(self.existing_capacity_m3s)
+    }
 }
 
 /// The irrigation method of a block and its field application efficiency.

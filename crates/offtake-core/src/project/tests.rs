@@ -19,6 +19,7 @@ fn canal(id: &str, parent: Option<&str>, ec: f64) -> Canal {
         conveyance_efficiency: ec,
         existing_capacity_m3s: None,
         operating_hours_per_day: 24.0,
+        section: crate::project::CanalSectionSpec::default(),
     }
 }
 

@@ -191,6 +191,9 @@ pub struct SchemeDemand {
     block_gir_m3_day: Vec<f64>,
     node_m3_day: Vec<f64>,
     node_crop_m3_day: Vec<f64>,
+    /// Conveyance efficiency of each canal on each day (`[canal × days]`):
+    /// the fixed Ec, or the day's efficiency from seepage.
+    canal_efficiency_day: Vec<f64>,
 }
 
 /// Builds a [`SchemeDemand`] one NIR series at a time, so a caller can
@@ -337,8 +340,11 @@ impl DemandAccumulator {
         }
         // Canals, children first: divide the sum at the canal by its Ec, then
         // add it into the parent (or the headworks).
+        let mut canal_efficiency_day = vec![0.0; n_canals * days];
         for &canal in network.upward_order() {
             let ec = network.canals()[canal].conveyance_efficiency;
+            let day_ec = daily_efficiency(&network, canal, &node_crop_m3_day, n_crops, days)?;
+            canal_efficiency_day[canal * days..(canal + 1) * days].copy_from_slice(&day_ec);
             let to = network.parent(canal).unwrap_or(n_canals);
             let (lo, hi) = node_crop_m3_day.split_at_mut(canal.max(to) * n_crops * days);
             let (src, dst) = if canal < to {
@@ -352,9 +358,16 @@ impl DemandAccumulator {
                     &mut lo[to * n_crops * days..(to + 1) * n_crops * days],
                 )
             };
-            for (s, d) in src.iter_mut().zip(dst.iter_mut()) {
-                *s /= ec;
-                *d += *s;
+            if network.seepage(canal).is_some() {
+                for (k, (s, d)) in src.iter_mut().zip(dst.iter_mut()).enumerate() {
+                    *s /= day_ec[k % days];
+                    *d += *s;
+                }
+            } else {
+                for (s, d) in src.iter_mut().zip(dst.iter_mut()) {
+                    *s /= ec;
+                    *d += *s;
+                }
             }
         }
         let mut node_m3_day = vec![0.0; n_nodes * days];
@@ -376,8 +389,49 @@ impl DemandAccumulator {
             block_gir_m3_day,
             node_m3_day,
             node_crop_m3_day,
+            canal_efficiency_day,
         })
     }
+}
+
+/// Each day's conveyance efficiency of `canal`: its fixed Ec, or, with a
+/// seepage model, outflow ÷ inflow from
+/// [`crate::section::seepage::inflow_with_seepage`] at the day's flow while
+/// the canal runs (daily total ÷ running hours). The sum at the canal over
+/// crops is its outflow (what its blocks and children take).
+fn daily_efficiency(
+    network: &Network,
+    canal: usize,
+    node_crop_m3_day: &[f64],
+    n_crops: usize,
+    days: usize,
+) -> Result<Vec<f64>, SchemeError> {
+    let c = &network.canals()[canal];
+    let Some(seep) = network.seepage(canal) else {
+        return Ok(vec![c.conveyance_efficiency; days]);
+    };
+    let running_s = c.hours_per_day * 3600.0;
+    let mut out = vec![1.0; days];
+    for (day, e) in out.iter_mut().enumerate() {
+        let outflow_m3_day: f64 = (0..n_crops)
+            .map(|k| node_crop_m3_day[(canal * n_crops + k) * days + day])
+            .sum();
+        let q = outflow_m3_day / running_s;
+        let sol = crate::section::seepage::inflow_with_seepage(
+            &seep.prism,
+            seep.manning_n,
+            seep.bed_slope,
+            q,
+            seep.rate_m3_m2_day,
+            seep.length_m,
+        )
+        .map_err(|source| SchemeError::Seepage {
+            canal: c.id.clone(),
+            source,
+        })?;
+        *e = sol.efficiency;
+    }
+    Ok(out)
 }
 
 impl SchemeDemand {
@@ -428,6 +482,12 @@ impl SchemeDemand {
     /// [`Self::crop_demand_m3_day`].
     pub fn crops(&self) -> &[String] {
         &self.crops
+    }
+
+    /// Conveyance efficiency of canal `canal` on each day: its fixed Ec, or
+    /// the day's efficiency from seepage by wetted perimeter.
+    pub fn canal_efficiency_day(&self, canal: usize) -> &[f64] {
+        &self.canal_efficiency_day[canal * self.days..(canal + 1) * self.days]
     }
 
     /// Daily demand at a node (m³/day).

@@ -25,7 +25,7 @@ pub use design::{
     BasisShortfallPeriod, DesignBasis, DesignOptions, NodeDesign, Shortfall, ShortfallDay,
     ShortfallPeriod, YearValues, capacity_shortfall, capacity_shortfall_on_basis, design_values,
 };
-pub use network::{Block, Canal, Network, NetworkProblem, Node};
+pub use network::{Block, Canal, CanalSeepage, Network, NetworkProblem, Node};
 
 /// Errors of the scheme computations.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
@@ -41,6 +41,14 @@ pub enum SchemeError {
         what: String,
         /// The value found.
         value: f64,
+    },
+    /// Seepage by wetted perimeter could not be solved for a canal.
+    #[error("canal {canal}: seepage by wetted perimeter: {source}")]
+    Seepage {
+        /// Canal id.
+        canal: String,
+        /// Why.
+        source: crate::section::SectionError,
     },
     /// A design option is out of range.
     #[error("design option {what} = {value}: {expected}")]

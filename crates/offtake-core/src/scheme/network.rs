@@ -244,6 +244,28 @@ pub struct Network {
     /// schemes of thousands of blocks.
     canal_by_id: HashMap<String, usize>,
     block_by_name: HashMap<String, usize>,
+    /// Seepage model of each canal that replaces its fixed Ec (see
+    /// [`CanalSeepage`]); `None` keeps the fixed Ec.
+    seepage: Vec<Option<CanalSeepage>>,
+}
+
+/// Seepage by wetted perimeter replacing a canal's fixed conveyance
+/// efficiency: each day the inflow Q_in solves Q_in = Q_out + rate ×
+/// P(y_n(Q_in)) × L / 86 400 to 0.1 % ([`crate::section::seepage`]), the
+/// flows being those while the canal runs (daily mean × 24 ÷ hours), so the
+/// day's efficiency Q_out ÷ Q_in falls at low flow.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct CanalSeepage {
+    /// The canal's section (shape, bed width, side slope).
+    pub prism: crate::section::Prism,
+    /// Manning n.
+    pub manning_n: f64,
+    /// Bed slope (m/m).
+    pub bed_slope: f64,
+    /// Seepage rate (m³ per m² of wetted area per day).
+    pub rate_m3_m2_day: f64,
+    /// Reach length (m).
+    pub length_m: f64,
 }
 
 impl Network {
@@ -403,6 +425,7 @@ impl Network {
             .enumerate()
             .map(|(i, b)| (b.name.clone(), i))
             .collect();
+        let n_seepage = canals.len();
         Ok(Self {
             canals,
             blocks,
@@ -412,7 +435,21 @@ impl Network {
             canal_area_ha,
             canal_by_id,
             block_by_name,
+            seepage: vec![None; n_seepage],
         })
+    }
+
+    /// Lets seepage by wetted perimeter replace canal `canal`'s fixed Ec
+    /// (`None` restores the fixed Ec). Out-of-range indices are ignored.
+    pub fn set_seepage(&mut self, canal: usize, seepage: Option<CanalSeepage>) {
+        if let Some(slot) = self.seepage.get_mut(canal) {
+            *slot = seepage;
+        }
+    }
+
+    /// The seepage model replacing canal `canal`'s fixed Ec, if any.
+    pub fn seepage(&self, canal: usize) -> Option<&CanalSeepage> {
+        self.seepage.get(canal).and_then(Option::as_ref)
     }
 
     /// The canals, in the order given.
