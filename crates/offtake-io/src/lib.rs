@@ -6,8 +6,10 @@
 //!
 //! Errors carry the file, line and column of the offending cell and say what
 //! was found and what was expected.
+pub mod atomic;
 pub mod export;
 pub mod library;
 pub mod project_file;
 pub mod results;
+pub mod results_set;
 pub mod weather;

@@ -15,6 +15,7 @@ use crate::export::{
     DESIGN_VALUES_HEADERS, ExportError, NODE_DEMAND_DAILY_CSV, NODE_DEMAND_DAILY_HEADERS,
     RESULTS_WORKBOOK, Table, decimals as dec,
 };
+use crate::results_set::{FileWriter, SetOrigin, write_file_set};
 use offtake_core::engine::Results;
 use offtake_core::project::Project;
 use offtake_core::scheme::{DesignBasis, Node, PeriodStep};
@@ -425,10 +426,23 @@ pub fn write_tables(
     project: &Project,
     out: &Path,
 ) -> Result<Vec<String>, ExportError> {
-    std::fs::create_dir_all(out).map_err(|source| ExportError::Io {
-        path: out.to_path_buf(),
-        source,
-    })?;
+    write_results_set(r, project, None, out).map(|m| m.files.into_iter().map(|f| f.name).collect())
+}
+
+/// Writes the result tables into `out` as one set with a manifest
+/// ([`crate::results_set`]): a kill or a second run at the same time never
+/// leaves a mix of two runs, a file of the previous run that this run does
+/// not write (e.g. `roster.csv`) is removed, and files no manifest lists are
+/// never touched. `project_file` is named in the manifest.
+///
+/// # Errors
+/// As [`write_tables`].
+pub fn write_results_set(
+    r: &Results,
+    project: &Project,
+    project_file: Option<&Path>,
+    out: &Path,
+) -> Result<crate::results_set::Manifest, ExportError> {
     let all = tables(r, project);
     let files = [
         DESIGN_VALUES_CSV,
@@ -437,15 +451,19 @@ pub fn write_tables(
         DEMAND_10DAY_CSV,
         DEMAND_MONTHLY_CSV,
     ];
-    let mut written = Vec::new();
+    let mut writers: Vec<(String, FileWriter<'_, ExportError>)> = Vec::new();
     for (t, f) in all.iter().zip(files) {
-        export::write_csv(t, &out.join(f))?;
-        written.push(f.to_owned());
+        writers.push((
+            f.to_owned(),
+            Box::new(move |p: &Path| export::write_csv(t, p)),
+        ));
     }
     let roster = all.iter().find(|t| t.name == "roster");
     if let Some(t) = roster {
-        export::write_csv(t, &out.join(ROSTER_CSV))?;
-        written.push(ROSTER_CSV.to_owned());
+        writers.push((
+            ROSTER_CSV.to_owned(),
+            Box::new(move |p: &Path| export::write_csv(t, p)),
+        ));
     }
     let summary = all.iter().find(|t| t.name == "summary");
     let mut book: Vec<&Table> = Vec::new();
@@ -454,7 +472,14 @@ pub fn write_tables(
     book.push(&all[3]);
     book.push(&all[4]);
     book.extend(roster);
-    export::write_workbook(&book, &out.join(RESULTS_WORKBOOK))?;
-    written.push(RESULTS_WORKBOOK.to_owned());
-    Ok(written)
+    writers.push((
+        RESULTS_WORKBOOK.to_owned(),
+        Box::new(move |p: &Path| export::write_workbook(&book, p)),
+    ));
+    let origin = SetOrigin {
+        scheme: r.scheme_name.clone(),
+        project_file: project_file.map(Path::to_path_buf),
+        scenario: r.scenario.clone(),
+    };
+    write_file_set(out, &origin, writers)
 }

@@ -86,6 +86,14 @@ pub enum ProblemKind {
         /// The line of that previous date.
         previous_line: u64,
     },
+    /// A day whose values, each readable, cannot be used together (e.g.
+    /// Tmin above Tmax); the reason says what is expected.
+    InvalidDay {
+        /// The day.
+        date: NaiveDate,
+        /// What is wrong and what is expected.
+        reason: String,
+    },
     /// A cell that is not UTF-8 text.
     NotUtf8 {
         /// Column (field) name.
@@ -136,6 +144,7 @@ impl fmt::Display for ProblemKind {
                 f,
                 "date: found {date} after {previous} (line {previous_line}), expected dates in increasing order; row rejected"
             ),
+            Self::InvalidDay { date, reason } => write!(f, "{date}: {reason}"),
             Self::NotUtf8 { column } => {
                 write!(
                     f,
