@@ -277,7 +277,12 @@ impl OfftakeApp {
                 Some(Ok((project, path))) => {
                     self.state.message = Some(path.as_ref().map_or_else(
                         || "Restored unsaved work — save it with File › Save as…".to_owned(),
-                        |p| format!("Restored unsaved work of {} — save it with File › Save", p.display()),
+                        |p| {
+                            format!(
+                                "Restored unsaved work of {} — save it with File › Save",
+                                p.display()
+                            )
+                        },
                     ));
                     self.set_document(OpenDocument::restored(project, path));
                     // Keep the file until the restored work is saved again.

@@ -166,7 +166,12 @@ impl crate::OfftakeApp {
     /// What the app opens at start: the project named on the command line,
     /// else the demo in `data_dir` (copied there on first start from
     /// `shipped` or from the built-in copy).
-    pub fn open_at_start(&mut self, argument: Option<&Path>, data_dir: &Path, shipped: Option<&Path>) {
+    pub fn open_at_start(
+        &mut self,
+        argument: Option<&Path>,
+        data_dir: &Path,
+        shipped: Option<&Path>,
+    ) {
         if let Some(path) = argument {
             let path = std::path::absolute(path).unwrap_or_else(|_| path.to_path_buf());
             self.open_file(&path);
@@ -175,8 +180,10 @@ impl crate::OfftakeApp {
         match install_demo(data_dir, shipped) {
             Ok((path, _)) => self.open_file(&path),
             Err(e) => {
-                self.state.message =
-                    Some(format!("Could not put the demo in {}: {e}", data_dir.display()));
+                self.state.message = Some(format!(
+                    "Could not put the demo in {}: {e}",
+                    data_dir.display()
+                ));
             }
         }
     }
@@ -205,7 +212,12 @@ mod tests {
             std::fs::read_to_string(&path).expect("read"),
             BUILT_IN_PROJECT
         );
-        assert!(dir.path().join("demo-projects").join(DEMO_WEATHER_FILE).is_file());
+        assert!(
+            dir.path()
+                .join("demo-projects")
+                .join(DEMO_WEATHER_FILE)
+                .is_file()
+        );
         std::fs::write(&path, "edited").expect("edit");
         let (again, source) = install_demo(dir.path(), None).expect("again");
         assert_eq!((again.clone(), source), (path, DemoSource::DataFolder));
@@ -217,7 +229,10 @@ mod tests {
         let install = tempfile::tempdir().expect("dir");
         let bin = install.path().join("bin");
         let shipped = install.path().join("share/offtake/demo-projects");
-        for (name, text) in [(DEMO_PROJECT_FILE, "project"), (DEMO_WEATHER_FILE, "weather")] {
+        for (name, text) in [
+            (DEMO_PROJECT_FILE, "project"),
+            (DEMO_WEATHER_FILE, "weather"),
+        ] {
             let p = shipped.join(name);
             std::fs::create_dir_all(p.parent().expect("parent")).expect("mkdir");
             std::fs::write(p, text).expect("write");

@@ -69,7 +69,11 @@ fn first_start_copies_the_demo_into_the_data_folder_and_saves_there() {
     let mut app = OfftakeApp::new().without_dialogs();
     app.open_at_start(None, &data, None);
     let path = doc_path(&app).expect("the demo is open from a file");
-    assert!(path.starts_with(&data), "{} is not in the data folder", path.display());
+    assert!(
+        path.starts_with(&data),
+        "{} is not in the data folder",
+        path.display()
+    );
     let mut h = harness(app);
     settle(&mut h);
     assert!(
@@ -78,13 +82,7 @@ fn first_start_copies_the_demo_into_the_data_folder_and_saves_there() {
     );
     // Ctrl+S (File › Save) writes the copy in the data folder.
     let source_before = std::fs::read(demo_file()).unwrap();
-    h.state_mut()
-        .document
-        .as_mut()
-        .unwrap()
-        .project
-        .scheme
-        .name = "My demo (invented)".into();
+    h.state_mut().document.as_mut().unwrap().project.scheme.name = "My demo (invented)".into();
     h.state_mut().push(Command::Save);
     h.run();
     let saved = std::fs::read_to_string(&path).unwrap();
@@ -97,10 +95,7 @@ fn first_start_copies_the_demo_into_the_data_folder_and_saves_there() {
     // The next start opens the user's copy as it is.
     let mut again = OfftakeApp::new().without_dialogs();
     again.open_at_start(None, &data, None);
-    assert_eq!(
-        again.project().unwrap().scheme.name,
-        "My demo (invented)"
-    );
+    assert_eq!(again.project().unwrap().scheme.name, "My demo (invented)");
 }
 
 #[test]

@@ -43,7 +43,11 @@ fn a_file_without_line_ends_stops_at_the_line_cap() {
         )
     );
     // Read no more than the cap and one buffer beyond it.
-    assert!(source.read < MAX_LINE_BYTES + 64 * 1024, "read {}", source.read);
+    assert!(
+        source.read < MAX_LINE_BYTES + 64 * 1024,
+        "read {}",
+        source.read
+    );
 }
 
 #[test]
@@ -54,7 +58,11 @@ fn an_over_long_data_line_names_its_line() {
     );
     let err =
         import_weather_reader(text.as_bytes(), "long.csv", &ImportOptions::default()).unwrap_err();
-    assert!(err.to_string().starts_with("long.csv:3:1: found a line longer than"), "{err}");
+    assert!(
+        err.to_string()
+            .starts_with("long.csv:3:1: found a line longer than"),
+        "{err}"
+    );
 }
 
 #[test]
@@ -98,15 +106,19 @@ fn a_long_cell_is_shown_cut_with_its_length() {
     let err =
         import_weather_reader(text.as_bytes(), "cell.csv", &ImportOptions::default()).unwrap_err();
     let msg = err.to_string();
-    assert!(msg.contains("… (250001 characters)"), "{}", &msg[..msg.len().min(300)]);
+    assert!(
+        msg.contains("… (250001 characters)"),
+        "{}",
+        &msg[..msg.len().min(300)]
+    );
     assert!(msg.len() < 400, "message of {} bytes", msg.len());
 }
 
 #[test]
 fn underflow_to_zero_is_reported_not_read_as_zero() {
     let text = "date,tmax_c,tmin_c,rain_mm\n2021-01-01,30,20,1e-400\n2021-01-02,30,20,0e-400\n";
-    let err = import_weather_reader(text.as_bytes(), "u.csv", &ImportOptions::default())
-        .unwrap_err();
+    let err =
+        import_weather_reader(text.as_bytes(), "u.csv", &ImportOptions::default()).unwrap_err();
     let ImportError::Rejected { problems, .. } = &err else {
         panic!("{err}");
     };
@@ -177,9 +189,15 @@ fn hand_written_comments_are_counted_and_own_header_is_not() {
 #[test]
 fn the_first_save_over_a_hand_written_file_keeps_the_original_beside_it() {
     use offtake_io::project_file::{original_path, save_project};
-    let source = concat!(env!("CARGO_MANIFEST_DIR"), "/../../tests/project-files/minimal.ron");
+    let source = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/../../tests/project-files/minimal.ron"
+    );
     let text = std::fs::read_to_string(source).unwrap();
-    assert!(hand_written_comment_lines(&text) > 0, "the corpus file has a comment");
+    assert!(
+        hand_written_comment_lines(&text) > 0,
+        "the corpus file has a comment"
+    );
     let dir = tempfile::tempdir().unwrap();
     let path = dir.path().join("p.ron");
     std::fs::write(&path, &text).unwrap();

@@ -59,7 +59,8 @@ where
             failure_persistence: None,
             ..Config::default()
         };
-        let mut runner = TestRunner::new_with_rng(config, TestRng::from_seed(RngAlgorithm::ChaCha, &seed));
+        let mut runner =
+            TestRunner::new_with_rng(config, TestRng::from_seed(RngAlgorithm::ChaCha, &seed));
         let t = test.clone();
         runner
             .run(&strategy, move |v| {
@@ -94,8 +95,18 @@ fn check_weather(bytes: &[u8]) {
         Ok(s) => {
             for d in &s.days {
                 for v in [
-                    d.tmax_c, d.tmin_c, d.tmean_c, d.rhmax_pct, d.rhmin_pct, d.rhmean_pct,
-                    d.tdew_c, d.ea_kpa, d.wind_ms, d.solar_mj, d.sunshine_h, d.rain_mm,
+                    d.tmax_c,
+                    d.tmin_c,
+                    d.tmean_c,
+                    d.rhmax_pct,
+                    d.rhmin_pct,
+                    d.rhmean_pct,
+                    d.tdew_c,
+                    d.ea_kpa,
+                    d.wind_ms,
+                    d.solar_mj,
+                    d.sunshine_h,
+                    d.rain_mm,
                 ]
                 .into_iter()
                 .flatten()
@@ -155,7 +166,9 @@ fn weather_csv_arbitrary_bytes() {
 
 #[test]
 fn weather_csv_mutated_good_file() {
-    run("weather-mutated", mutate(GOOD_WEATHER), |b| check_weather(&b));
+    run("weather-mutated", mutate(GOOD_WEATHER), |b| {
+        check_weather(&b)
+    });
 }
 
 #[test]

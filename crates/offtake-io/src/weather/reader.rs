@@ -200,6 +200,9 @@ impl<R: Read> Read for LineCap<R> {
             if *b == b'\n' {
                 self.line += 1;
                 self.since_line_end = 0;
+            } else if *b == b'\r' {
+                // A line end on its own too (the CSV reader accepts it).
+                self.since_line_end = 0;
             } else {
                 self.since_line_end += 1;
                 if self.since_line_end > MAX_LINE_BYTES {
