@@ -150,7 +150,7 @@ fn a_kill_at_any_step_of_writing_results_never_leaves_a_silent_mix() {
         if target.join(JOURNAL_FILE).exists() {
             // Decided but unfinished: visible as such, and completed by the
             // next writer (here the library's recovery).
-            assert_eq!(verify(&target).unwrap().unwrap_or(false), false, "{point}");
+            assert!(!verify(&target).unwrap().unwrap_or(false), "{point}");
             assert!(recover(&target).unwrap(), "{point}: recovery ran");
             assert_eq!(
                 read_manifest(&target).unwrap().unwrap().scenario.as_deref(),
@@ -171,7 +171,7 @@ fn a_kill_at_any_step_of_writing_results_never_leaves_a_silent_mix() {
             .unwrap()
             .flatten()
             .map(|e| e.file_name().to_string_lossy().into_owned())
-            .filter(|n| n.starts_with(".offtake-staging-") || n.ends_with(".tmp"))
+            .filter(|n| n.starts_with(".offtake-staging-") || is_temporary(n))
             .collect();
         assert!(leftovers.is_empty(), "{point}: left {leftovers:?}");
     }
@@ -283,12 +283,17 @@ fn et0_lists_every_invalid_day_before_it_stops() {
     assert_no_temporaries(dir.path());
 }
 
+/// A name of the atomic writer's temporary files (`.NAME.PID.RANDOM.tmp`).
+fn is_temporary(name: &str) -> bool {
+    name.starts_with('.') && name.rsplit('.').next() == Some("tmp")
+}
+
 fn assert_no_temporaries(dir: &Path) {
     let left: Vec<String> = std::fs::read_dir(dir)
         .unwrap()
         .flatten()
         .map(|e| e.file_name().to_string_lossy().into_owned())
-        .filter(|n| n.ends_with(".tmp"))
+        .filter(|n| is_temporary(n))
         .collect();
     assert!(left.is_empty(), "temporary files left: {left:?}");
 }

@@ -338,12 +338,17 @@ fn sync_folder(dir: &Path) {
 mod tests {
     use super::*;
 
+    /// A name of the atomic writer's temporary files (`.NAME.PID.RANDOM.tmp`).
+    fn is_temporary(name: &str) -> bool {
+        name.starts_with('.') && name.rsplit('.').next() == Some("tmp")
+    }
+
     fn leftovers(dir: &Path) -> Vec<String> {
         std::fs::read_dir(dir)
             .expect("list")
             .flatten()
             .map(|e| e.file_name().to_string_lossy().into_owned())
-            .filter(|n| n.ends_with(".tmp"))
+            .filter(|n| is_temporary(n))
             .collect()
     }
 

@@ -167,7 +167,7 @@ fn weather_csv_arbitrary_bytes() {
 #[test]
 fn weather_csv_mutated_good_file() {
     run("weather-mutated", mutate(GOOD_WEATHER), |b| {
-        check_weather(&b)
+        check_weather(&b);
     });
 }
 

@@ -1,6 +1,6 @@
 //! Import errors, rejected cells and warnings, each with `file:line:column`.
 
-use std::fmt;
+use std::fmt::{self, Write as _};
 use std::path::PathBuf;
 
 use chrono::NaiveDate;
@@ -394,7 +394,7 @@ fn quote_list(items: &[String]) -> String {
         .collect::<Vec<_>>()
         .join(", ");
     if items.len() > MAX_LISTED {
-        text.push_str(&format!(" and {} more", items.len() - MAX_LISTED));
+        let _ = write!(text, " and {} more", items.len() - MAX_LISTED);
     }
     text
 }
