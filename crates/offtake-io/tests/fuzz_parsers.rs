@@ -47,13 +47,16 @@ where
         .ok()
         .and_then(|m| m.parse().ok())
         .unwrap_or(0);
-    let deadline = Instant::now() + Duration::from_secs(minutes * 60);
-    let mut round: u8 = 0;
+    let started = Instant::now();
+    let deadline = started + Duration::from_secs(minutes * 60);
+    let mut round: u32 = 0;
     let mut total: u64 = 0;
     loop {
+        // Seed: the test's name, then the round number.
         let mut seed = [0u8; 32];
-        seed[..name.len().min(31)].copy_from_slice(&name.as_bytes()[..name.len().min(31)]);
-        seed[31] = round;
+        let n = name.len().min(28);
+        seed[..n].copy_from_slice(&name.as_bytes()[..n]);
+        seed[28..].copy_from_slice(&round.to_le_bytes());
         let config = Config {
             cases: CI_CASES,
             failure_persistence: None,
@@ -69,13 +72,16 @@ where
             })
             .unwrap_or_else(|e| panic!("{name}, round {round}: {e}"));
         total += u64::from(CI_CASES);
-        round = round.wrapping_add(1);
-        if Instant::now() >= deadline || (minutes > 0 && round == 0) {
+        round += 1;
+        if Instant::now() >= deadline {
             break;
         }
     }
     if minutes > 0 {
-        eprintln!("{name}: {total} cases in {minutes} minute(s)");
+        eprintln!(
+            "{name}: {total} cases in {round} rounds, {:.1} minutes",
+            started.elapsed().as_secs_f64() / 60.0
+        );
     }
 }
 
