@@ -25,6 +25,7 @@
 
 mod date;
 mod error;
+mod lines;
 mod mapping;
 mod project;
 mod reader;
