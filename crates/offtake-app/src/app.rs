@@ -235,7 +235,7 @@ impl OfftakeApp {
         if !doc.is_dirty() {
             return;
         }
-        if let Err(e) = r.write_if_due(&doc.project, Instant::now(), force) {
+        if let Err(e) = r.write_if_due(&doc.project, doc.path.as_deref(), Instant::now(), force) {
             self.state.message = Some(format!("Autosave failed: {e}"));
         }
     }
@@ -274,10 +274,17 @@ impl OfftakeApp {
         if restore {
             let read = self.recovery.as_ref().map(Recovery::read);
             match read {
-                Some(Ok(project)) => {
-                    self.set_document(OpenDocument::new(project));
-                    self.state.message =
-                        Some("Restored unsaved work — save it with File › Save as…".to_owned());
+                Some(Ok((project, path))) => {
+                    self.state.message = Some(path.as_ref().map_or_else(
+                        || "Restored unsaved work — save it with File › Save as…".to_owned(),
+                        |p| {
+                            format!(
+                                "Restored unsaved work of {} — save it with File › Save",
+                                p.display()
+                            )
+                        },
+                    ));
+                    self.set_document(OpenDocument::restored(project, path));
                     // Keep the file until the restored work is saved again.
                     self.autosave(true);
                 }
@@ -646,7 +653,9 @@ impl OfftakeApp {
         })
     }
 
-    /// Opens the invented demo scheme shipped in `demo-projects/` (first start).
+    /// Opens the invented demo scheme of the repository's `demo-projects/`
+    /// in place (tests and screenshots; the installed app opens the copy in
+    /// the user's data folder, [`crate::startup`]).
     pub fn open_demo(&mut self) {
         let path = std::path::Path::new(DEMO_PROJECT);
         let path = std::fs::canonicalize(path).unwrap_or_else(|_| path.to_path_buf());
@@ -776,7 +785,12 @@ impl OfftakeApp {
             Ok(project) => {
                 self.set_document(OpenDocument::opened(project, path.to_path_buf()));
                 self.remember_recent(path);
-                self.state.message = Some(format!("Opened {}", path.display()));
+                // Said before the first save: a save drops hand-written comments.
+                self.state.message = Some(format!(
+                    "Opened {}{}",
+                    path.display(),
+                    crate::startup::comment_notice(path).unwrap_or_default()
+                ));
             }
             Err(e) => self.state.message = Some(format!("Could not open: {e}")),
         }
@@ -788,12 +802,22 @@ impl OfftakeApp {
         let Some(doc) = self.document.as_mut() else {
             return;
         };
+        let original = offtake_io::project_file::original_path(path);
+        let had_original = original.exists();
         match offtake_io::project_file::save_project(path, &doc.project) {
             Ok(()) => {
                 doc.mark_saved(path.to_path_buf());
                 self.remember_recent(path);
                 self.clear_recovery();
-                self.state.message = Some(format!("Saved {}", path.display()));
+                let kept = if !had_original && original.exists() {
+                    format!(
+                        "; the file as it was, with its hand-written comments, is kept as {}",
+                        original.display()
+                    )
+                } else {
+                    String::new()
+                };
+                self.state.message = Some(format!("Saved {}{kept}", path.display()));
             }
             Err(e) => self.state.message = Some(format!("Could not save: {e}")),
         }

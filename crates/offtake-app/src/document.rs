@@ -35,6 +35,17 @@ impl OpenDocument {
         }
     }
 
+    /// Unsaved work restored after a crash, belonging to the file at `path`
+    /// (if it had one): changed, not saved, and relative paths resolve
+    /// against `path`.
+    pub fn restored(project: Project, path: Option<PathBuf>) -> Self {
+        Self {
+            project,
+            path,
+            saved: None,
+        }
+    }
+
     /// Records that the project was written to `path`.
     pub fn mark_saved(&mut self, path: PathBuf) {
         self.saved = Some(self.project.clone());

@@ -23,7 +23,6 @@
 //! **Use this weather** returns the file, the [`ImportSettings`] and the
 //! station fields the user typed; the app stores them as one undoable edit.
 
-use std::io::{BufRead, BufReader};
 use std::path::{Path, PathBuf};
 use std::sync::Arc;
 use std::sync::atomic::{AtomicBool, AtomicU64, Ordering};
@@ -161,31 +160,13 @@ pub enum ImportAnswer {
     Cancel,
 }
 
-fn detect_delimiter(line: &str) -> Delimiter {
-    let count = |c: char| line.matches(c).count();
-    let (semi, tab, comma) = (count(';'), count('\t'), count(','));
-    if tab > semi && tab > comma {
-        Delimiter::Tab
-    } else if semi > comma {
-        Delimiter::Semicolon
-    } else {
-        Delimiter::Comma
-    }
-}
-
-/// Reads the header line: its names, split by `delimiter` (detected when `None`).
+/// Reads the header line through offtake-io's one header reader (the
+/// importer's own: same delimiter detection, quoting, byte-order mark and
+/// caps), so the mapping table shows the columns that will be imported.
 fn read_header(path: &Path, delimiter: Option<Delimiter>) -> Result<Vec<String>, String> {
-    let file = std::fs::File::open(path).map_err(|e| format!("{}: {e}", path.display()))?;
-    let mut line = String::new();
-    BufReader::new(file)
-        .read_line(&mut line)
-        .map_err(|e| format!("{}:1:1: {e}", path.display()))?;
-    let line = line.trim_start_matches('\u{feff}').trim_end();
-    let d = delimiter.unwrap_or_else(|| detect_delimiter(line));
-    Ok(line
-        .split(char::from(d.as_byte()))
-        .map(|h| h.trim().trim_matches('"').to_owned())
-        .collect())
+    offtake_io::weather::read_header(path, delimiter)
+        .map(|h| h.names)
+        .map_err(|e| e.to_string())
 }
 
 fn rule_label(r: offtake_core::quality::Rule) -> String {
@@ -1083,7 +1064,7 @@ pub fn ui(ui: &mut Ui, job: &mut ImportJob) -> Option<ImportAnswer> {
 
 #[cfg(test)]
 mod tests {
-    use super::{ColumnRole, Delimiter, detect_delimiter, gap_days, roles_of};
+    use super::{ColumnRole, gap_days, roles_of};
     use chrono::NaiveDate;
     use offtake_core::weather::WeatherDay;
     use offtake_core::weather_import::units::TemperatureUnit;
@@ -1091,13 +1072,6 @@ mod tests {
 
     fn day(y: i32, m: u32, d: u32) -> WeatherDay {
         WeatherDay::empty(NaiveDate::from_ymd_opt(y, m, d).expect("valid date"))
-    }
-
-    #[test]
-    fn delimiter_is_the_most_frequent_separator_of_the_header() {
-        assert_eq!(detect_delimiter("date;tmax (F);rain"), Delimiter::Semicolon);
-        assert_eq!(detect_delimiter("date\ttmax\train"), Delimiter::Tab);
-        assert_eq!(detect_delimiter("date,tmax_c,rain_mm"), Delimiter::Comma);
     }
 
     #[test]

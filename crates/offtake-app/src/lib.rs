@@ -18,7 +18,10 @@
 //! - [`import`]: the weather import window (background read, preview, warnings).
 //! - [`library_editor`]: the crop and soil library editors (copy, edit, Kc curve).
 //! - [`scenario_editor`]: a scenario edited as a cropping pattern (window).
-//! - [`recovery`]: autosave to a recovery file and restore after a crash.
+//! - [`recovery`]: autosave to a recovery file and restore after a crash
+//!   (keeping the project's path).
+//! - [`startup`]: `offtake-app PATH`, and the demo copied into the user's data
+//!   folder on first start.
 //! - [`state`]: runtime state beside the document.
 //! - [`menu`], [`tree`], [`inspector`], [`fields`], [`status`], [`help`]: the panels.
 //! - [`tabs`]: the centre workspace tabs, one file each.
@@ -65,6 +68,7 @@ pub mod plot;
 pub mod prompt;
 pub mod recovery;
 pub mod scenario_editor;
+pub mod startup;
 pub mod section_fields;
 pub mod state;
 pub mod status;

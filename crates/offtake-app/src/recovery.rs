@@ -6,6 +6,10 @@
 //! closing normally removes the file. If the file is still there when the
 //! app starts, the previous session ended without saving, and the app offers
 //! to restore it.
+//!
+//! The project's own path is kept beside the recovery file (`recovery.path`,
+//! one line), so a restored project still resolves its relative weather path
+//! and File › Save writes back to where it came from.
 
 use std::path::{Path, PathBuf};
 use std::time::{Duration, Instant};
@@ -60,6 +64,7 @@ impl Recovery {
     pub fn write_if_due(
         &mut self,
         project: &Project,
+        project_path: Option<&Path>,
         now: Instant,
         force: bool,
     ) -> Result<bool, String> {
@@ -73,6 +78,19 @@ impl Recovery {
         if let Some(dir) = self.path.parent() {
             std::fs::create_dir_all(dir).map_err(|e| format!("{}: {e}", dir.display()))?;
         }
+        // The path first: a recovery file never names another project's path.
+        let path_file = self.path_file();
+        match project_path {
+            Some(p) => {
+                let absolute = std::path::absolute(p).unwrap_or_else(|_| p.to_path_buf());
+                let line = format!("{}\n", absolute.display());
+                offtake_io::atomic::write_atomically(&path_file, line.as_bytes())
+                    .map_err(|e| e.to_string())?;
+            }
+            None => {
+                let _ = std::fs::remove_file(&path_file);
+            }
+        }
         offtake_io::project_file::save_project(&self.path, project).map_err(|e| e.to_string())?;
         self.last_write = Some(now);
         Ok(true)
@@ -83,14 +101,27 @@ impl Recovery {
         // A missing file is the normal case.
         let _ = std::fs::remove_file(&self.path);
         let _ = std::fs::remove_file(offtake_io::project_file::backup_path(&self.path));
+        let _ = std::fs::remove_file(self.path_file());
         self.last_write = None;
     }
 
-    /// Reads the recovery file.
+    /// Reads the recovery file and the project's path, if it had one.
     ///
     /// # Errors
     /// The read or parse error with its position.
-    pub fn read(&self) -> Result<Project, String> {
-        offtake_io::project_file::load_project(&self.path).map_err(|e| e.to_string())
+    pub fn read(&self) -> Result<(Project, Option<PathBuf>), String> {
+        let project =
+            offtake_io::project_file::load_project(&self.path).map_err(|e| e.to_string())?;
+        let path = std::fs::read_to_string(self.path_file())
+            .ok()
+            .map(|t| t.trim_end_matches(['\r', '\n']).to_owned())
+            .filter(|t| !t.is_empty())
+            .map(PathBuf::from);
+        Ok((project, path))
+    }
+
+    /// The file beside the recovery file that names the project's path.
+    pub fn path_file(&self) -> PathBuf {
+        self.path.with_extension("path")
     }
 }

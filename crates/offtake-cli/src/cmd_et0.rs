@@ -6,8 +6,10 @@
 //! messages are the same as `offtake weather check`'s) and writes one row per
 //! day: `date,et0_mm,humidity,radiation,wind`; the last three name the
 //! FAO-56 source or missing-data procedure of each input. A day with Tmin >
-//! Tmax (or another invalid value) stops the command with `file:line:column`,
-//! or with `--skip-invalid` gets a blank et0 and a warning naming the date. A
+//! Tmax (or another invalid value) is listed with `file:line:column` among
+//! the rejected cells (all of them, up to the cap of `weather check`) and the
+//! command stops once the file is read, or with `--skip-invalid` it gets a
+//! blank et0 and a warning naming the date. A
 //! day without Tmax or Tmin gets a blank et0 and a warning.
 
 use std::io::{BufWriter, Write};
@@ -16,9 +18,10 @@ use std::path::PathBuf;
 use anyhow::{Context, Result, bail};
 use clap::Args as ClapArgs;
 use offtake_core::et0::{Et0Context, Et0Error, Et0Method, Et0Options};
-use offtake_io::weather::{ImportError, SourceLocation, WeatherReader};
+use offtake_io::atomic::AtomicFile;
+use offtake_io::weather::{ImportError, ImportProblem, ProblemKind, SourceLocation, WeatherReader};
 
-use crate::cmd_weather_check::{DateFormatArg, import_options, site_from_args, temporary_sibling};
+use crate::cmd_weather_check::{DateFormatArg, import_options, site_from_args};
 
 /// Arguments of `offtake et0`.
 #[derive(Debug, ClapArgs)]
@@ -79,33 +82,24 @@ pub fn run(args: &Args) -> Result<()> {
     .context("station site")?;
 
     if let Some(path) = &args.out {
+        // offtake-io's one atomic writer: a uniquely named temporary file
+        // created exclusively beside the target; dropped (and removed) on
+        // any error, renamed over the target only when the whole table is
+        // written.
+        let mut file = AtomicFile::create(path)?;
         {
-            let tmp = temporary_sibling(path);
-            let file = std::fs::File::create(&tmp)
-                .with_context(|| format!("{}: cannot create", tmp.display()))?;
-            let mut out = BufWriter::new(file);
-            let result = stream(&mut reader, &context, args, &mut out).and_then(|()| {
-                out.flush()
-                    .with_context(|| format!("{}: cannot write", tmp.display()))
-            });
-            drop(out);
-            match result {
-                Ok(()) => std::fs::rename(&tmp, path).with_context(|| {
-                    format!("{}: cannot replace with {}", path.display(), tmp.display())
-                }),
-                Err(e) => {
-                    let _ = std::fs::remove_file(&tmp);
-                    Err(e)
-                }
-            }
-        }
-    } else {
-        {
-            let stdout = std::io::stdout();
-            let mut out = BufWriter::new(stdout.lock());
+            let mut out = BufWriter::new(&mut file);
             stream(&mut reader, &context, args, &mut out)?;
-            out.flush().context("writing to standard output")
+            out.flush()
+                .with_context(|| format!("{}: cannot write", path.display()))?;
         }
+        file.commit()?;
+        Ok(())
+    } else {
+        let stdout = std::io::stdout();
+        let mut out = BufWriter::new(stdout.lock());
+        stream(&mut reader, &context, args, &mut out)?;
+        out.flush().context("writing to standard output")
     }
 }
 
@@ -183,10 +177,21 @@ fn stream<R: std::io::Read, W: Write>(
             }
             (Err(e), _) => {
                 if !args.skip_invalid {
-                    bail!(
-                        "{at}: {}: {e}; expected valid weather (or use --skip-invalid)",
-                        read.day.date
-                    );
+                    // Listed with the rejected cells (same cap as `weather
+                    // check`); the command stops after the whole file.
+                    let problem = ImportProblem {
+                        at,
+                        kind: ProblemKind::InvalidDay {
+                            date: read.day.date,
+                            reason: format!("{e}; expected valid weather (or use --skip-invalid)"),
+                        },
+                    };
+                    if problems.len() < offtake_io::weather::DEFAULT_MAX_PROBLEMS {
+                        problems.push(problem);
+                    } else {
+                        omitted += 1;
+                    }
+                    continue;
                 }
                 tally.blank += 1;
                 eprintln!("{at}: warning: {}: {e}; et0 left blank", read.day.date);

@@ -6,7 +6,8 @@
 //! `design_values.csv`, `node_demand_daily.csv`,
 //! `block_requirements_daily.csv`, `demand_10day.csv`, `demand_monthly.csv`,
 //! `roster.csv` (when supply is short) and `results.xlsx` (summary, design
-//! values, 10-day and monthly tables, roster; daily tables in CSV only).
+//! values, 10-day and monthly tables, roster; daily tables in CSV only),
+//! as one set with the manifest `offtake-manifest.ron` written last.
 
 use std::path::{Path, PathBuf};
 
@@ -17,7 +18,7 @@ use offtake_core::project::Project;
 use offtake_core::weather::WeatherDay;
 use offtake_io::library::Libraries;
 use offtake_io::project_file::load_project;
-use offtake_io::results::{summary_text, write_tables};
+use offtake_io::results::{summary_text, write_results_set};
 use offtake_io::weather::load_project_weather;
 
 /// Arguments of `offtake run`.
@@ -84,7 +85,9 @@ pub fn run(args: &Args) -> Result<()> {
     });
     std::fs::create_dir_all(&out)
         .with_context(|| format!("creating the output folder {}", out.display()))?;
-    write_tables(&results, &loaded.project, &out)?;
+    // One set with a manifest written last (offtake_io::results_set): never
+    // a silent mix of two runs, a previous run's extra files removed.
+    write_results_set(&results, &loaded.project, Some(&args.project), &out)?;
     let text = format!(
         "{}Results written to {}\n",
         summary_text(&results, &loaded.project),

@@ -157,26 +157,16 @@ pub(crate) fn site_from_args(
     }))
 }
 
-/// Writes `bytes` to `path` through a temporary file in the same folder and a
-/// rename, so a reader never sees a half-written file.
+/// Writes `bytes` to `path` through offtake-io's one atomic writer (a
+/// uniquely named temporary file created exclusively beside it, renamed into
+/// place), so a reader never sees a half-written file and two runs at once
+/// never share a temporary file.
 ///
 /// # Errors
 /// The file system's reason, naming the file.
 pub(crate) fn write_atomically(path: &Path, bytes: &[u8]) -> Result<()> {
-    let tmp = temporary_sibling(path);
-    std::fs::write(&tmp, bytes).with_context(|| format!("{}: cannot write", tmp.display()))?;
-    std::fs::rename(&tmp, path).with_context(|| {
-        let _ = std::fs::remove_file(&tmp);
-        format!("{}: cannot replace with {}", path.display(), tmp.display())
-    })
-}
-
-/// `name.csv` → `.name.csv.tmp` beside it.
-pub(crate) fn temporary_sibling(path: &Path) -> PathBuf {
-    let name = path
-        .file_name()
-        .map_or_else(|| "out".into(), |n| n.to_string_lossy().into_owned());
-    path.with_file_name(format!(".{name}.tmp"))
+    offtake_io::atomic::write_atomically(path, bytes)?;
+    Ok(())
 }
 
 fn render_report(report: &QualityReport) -> String {

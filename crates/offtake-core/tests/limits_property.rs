@@ -260,6 +260,7 @@ fn project(
                 conveyance_efficiency: ec,
                 existing_capacity_m3s: cap,
                 operating_hours_per_day: hours,
+                section: offtake_core::project::CanalSectionSpec::default(),
             })
             .collect(),
         blocks: blocks
@@ -276,6 +277,17 @@ fn project(
                     application_efficiency: ea,
                 },
                 field_canal_efficiency: eb,
+                // Each delivery mode, cycles at both ends of their range, and
+                // an outlet that binds on every third block.
+                delivery: match i % 3 {
+                    0 => offtake_core::project::DeliveryMode::RotationWithinBlock {
+                        cycle_days: if i % 2 == 0 { 1 } else { 30 },
+                        min_depth_mm: 10.0,
+                    },
+                    1 => offtake_core::project::DeliveryMode::ContinuousFlow { cycle_days: 30 },
+                    _ => offtake_core::project::DeliveryMode::OnDemand,
+                },
+                outlet_stream_size_ls: (i % 3 == 0).then_some((0.5 * area).clamp(1.0, 50_000.0)),
             })
             .collect(),
         weather: WeatherSource {

@@ -7,8 +7,9 @@
 //! worksheet holds at most [`XLSX_MAX_ROWS`] rows, and a table longer than
 //! that is refused with a clear error instead of being cut.
 //!
-//! Both writers go through a temporary file beside the target and rename it
-//! into place, so a failed export never leaves half a file. The file gets
+//! Both writers go through [`crate::atomic`] (a uniquely named temporary
+//! file created exclusively beside the target, renamed into place), so a
+//! failed export never leaves half a file. The file gets
 //! the permissions of the file it replaces, or `rw-r--r--` (0o644) for a new
 //! file on Unix — not the owner-only mode of a temporary file.
 //!
@@ -21,6 +22,8 @@ use std::path::{Path, PathBuf};
 use chrono::{Datelike, NaiveDate};
 use rust_xlsxwriter::{ExcelDateTime, Format, Workbook, XlsxError};
 use thiserror::Error;
+
+use crate::atomic::{AtomicFile, AtomicWriteError};
 
 /// Design values per node: file name.
 pub const DESIGN_VALUES_CSV: &str = "design_values.csv";
@@ -290,6 +293,12 @@ pub enum ExportError {
         #[source]
         source: io::Error,
     },
+    /// The atomic write failed (the previous file, if any, is unchanged).
+    #[error(transparent)]
+    Write(#[from] AtomicWriteError),
+    /// The results set could not be written as one set.
+    #[error(transparent)]
+    ResultsSet(#[from] crate::results_set::ResultsSetError),
     /// CSV writer error.
     #[error("{}: {source}", path.display())]
     Csv {
@@ -350,9 +359,9 @@ pub fn write_csv_to<W: Write>(table: &Table, writer: W, path: &Path) -> Result<(
 /// [`ExportError`] on a malformed table or a file-system failure.
 pub fn write_csv(table: &Table, path: &Path) -> Result<(), ExportError> {
     table.check()?;
-    let mut tmp = temp_beside(path)?;
-    write_csv_to(table, io::BufWriter::new(tmp.as_file_mut()), path)?;
-    persist(tmp, path)
+    let mut file = AtomicFile::create(path)?;
+    write_csv_to(table, io::BufWriter::new(&mut file), path)?;
+    Ok(file.commit()?)
 }
 
 /// Writes `bytes` to `path` atomically (a temporary file beside it, synced,
@@ -361,12 +370,7 @@ pub fn write_csv(table: &Table, path: &Path) -> Result<(), ExportError> {
 /// # Errors
 /// [`ExportError::Io`] on a file-system failure.
 pub fn write_bytes(bytes: &[u8], path: &Path) -> Result<(), ExportError> {
-    let mut tmp = temp_beside(path)?;
-    io::Write::write_all(tmp.as_file_mut(), bytes).map_err(|source| ExportError::Io {
-        path: path.to_path_buf(),
-        source,
-    })?;
-    persist(tmp, path)
+    Ok(crate::atomic::write_atomically(path, bytes)?)
 }
 
 /// A worksheet name Excel accepts: `[]:*?/\` replaced by `_`, at most 31
@@ -466,52 +470,16 @@ pub fn write_workbook(tables: &[&Table], path: &Path) -> Result<(), ExportError>
             }
         }
     }
-    let mut tmp = temp_beside(path)?;
+    let mut file = AtomicFile::create(path)?;
     workbook
-        .save_to_writer(io::BufWriter::new(tmp.as_file_mut()))
+        .save_to_writer(io::BufWriter::new(&mut file))
         .map_err(xerr)?;
-    persist(tmp, path)
+    Ok(file.commit()?)
 }
 
-fn temp_beside(path: &Path) -> Result<tempfile::NamedTempFile, ExportError> {
-    let dir = match path.parent() {
-        Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
-        _ => PathBuf::from("."),
-    };
-    let mut builder = tempfile::Builder::new();
-    builder.prefix(".offtake-export-").suffix(".tmp");
-    if let Some(p) = permissions_for(path) {
-        builder.permissions(p);
-    }
-    builder
-        .tempfile_in(&dir)
-        .map_err(|source| ExportError::Io { path: dir, source })
-}
-
-/// Permissions a file written atomically over `path` should get: those of
-/// the file it replaces, or 0o644 (`rw-r--r--`) for a new file on Unix.
-/// `None` elsewhere (the platform default).
+/// Permissions a file written atomically over `path` should get (kept here
+/// for callers of the earlier API; the one implementation is
+/// [`crate::atomic::permissions_for`]).
 pub fn permissions_for(path: &Path) -> Option<std::fs::Permissions> {
-    if let Ok(meta) = std::fs::metadata(path) {
-        return Some(meta.permissions());
-    }
-    #[cfg(unix)]
-    {
-        use std::os::unix::fs::PermissionsExt;
-        Some(std::fs::Permissions::from_mode(0o644))
-    }
-    #[cfg(not(unix))]
-    {
-        None
-    }
-}
-
-fn persist(tmp: tempfile::NamedTempFile, path: &Path) -> Result<(), ExportError> {
-    let io_err = |source| ExportError::Io {
-        path: path.to_path_buf(),
-        source,
-    };
-    tmp.as_file().sync_all().map_err(io_err)?;
-    tmp.persist(path).map_err(|e| io_err(e.error))?;
-    Ok(())
+    crate::atomic::permissions_for(path)
 }

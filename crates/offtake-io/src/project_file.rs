@@ -22,11 +22,23 @@
 //! `inf`/`NaN` are refused with their position.
 //!
 //! # Saving
-//! [`save_project`] writes a temporary file in the same folder, flushes and
-//! syncs it, copies the previous file to `NAME.ron.bak`, then renames the
-//! temporary file over the target. The saved file keeps the permissions of
-//! the file it replaces (`rw-r--r--` for a new file on Unix). A failure at any step before the rename
-//! leaves the existing file untouched.
+//! [`save_project`] writes through [`crate::atomic`]: a uniquely named
+//! temporary file created exclusively in the same folder, flushed and synced;
+//! the previous file is copied to `NAME.ron.bak`, then the temporary file is
+//! renamed over the target. The saved file keeps the permissions of the file
+//! it replaces (`rw-r--r--` for a new file on Unix). A failure at any step
+//! before the rename leaves the existing file untouched.
+//!
+//! # Comments
+//! A save writes Offtake's own layout: comments written by hand in a project
+//! file cannot be carried through the RON serializer reliably, so they are
+//! not kept in the saved file. Instead [`hand_written_comment_lines`] counts
+//! them (callers say so before the first save), and the first save over a
+//! file with such comments keeps the file as it was in `NAME.ron.original`
+//! ([`original_path`]), which later saves never overwrite.
+//!
+//! # Byte-order mark
+//! A file starting with a UTF-8 byte-order mark is read as if it had none.
 
 use std::fs::File;
 use std::io::{self, Read, Write};
@@ -36,6 +48,8 @@ use offtake_core::project::{CURRENT_SCHEMA, Project};
 use ron::extensions::Extensions;
 use serde::Deserialize;
 use thiserror::Error;
+
+use crate::atomic::{AtomicFile, AtomicWriteError};
 
 /// Largest project file read, in bytes (16 MiB). A scheme of thousands of
 /// blocks is well under one megabyte.
@@ -194,6 +208,9 @@ pub fn load_project(path: &Path) -> Result<Project, ProjectFileError> {
 /// # Errors
 /// As [`load_project`], except for I/O and size.
 pub fn parse_project(text: &str, path: &Path) -> Result<Project, ProjectFileError> {
+    // A byte-order mark (as some Windows editors write) is not part of the
+    // RON text; positions after it are unchanged for the user.
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
     let parse_err = |e: ron::error::SpannedError| ProjectFileError::Parse {
         path: path.to_path_buf(),
         line: e.span.start.line,
@@ -415,11 +432,7 @@ pub fn project_to_string(project: &Project) -> Result<String, ProjectFileError> 
         .map_err(|e| ProjectFileError::Serialize {
             message: e.to_string(),
         })?;
-    let text = format!(
-        "// Offtake project file (schema {}). Planning estimates only: designs\n\
-         // must be checked by a qualified engineer under local codes.\n{body}\n",
-        project.schema
-    );
+    let text = format!("{}{body}\n", own_header(project.schema));
     // Never write a file that would be refused on loading.
     if let Some((line, _, token)) = find_non_finite_number(&text) {
         let context = text.lines().nth(line - 1).unwrap_or("").trim();
@@ -475,44 +488,137 @@ pub fn save_project_through<F>(
     wrap: F,
 ) -> Result<(), ProjectFileError>
 where
-    F: for<'a> FnOnce(&'a mut File) -> Box<dyn Write + 'a>,
+    F: for<'a> FnOnce(&'a mut AtomicFile) -> Box<dyn Write + 'a>,
 {
     // Serialize first: a value that cannot be written never touches the disk.
     let text = project_to_string(project)?;
-    let dir = match path.parent() {
-        Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
-        _ => PathBuf::from("."),
-    };
-    // The saved file keeps the permissions of the file it replaces (0o644
-    // for a new file on Unix), not the owner-only mode of a temporary file.
-    let mut builder = tempfile::Builder::new();
-    builder.prefix(".offtake-save-").suffix(".tmp");
-    if let Some(p) = crate::export::permissions_for(path) {
-        builder.permissions(p);
-    }
-    let mut tmp = builder.tempfile_in(&dir).map_err(io_err(&dir))?;
+    // The temporary file is created exclusively beside the target under a
+    // unique name and keeps the permissions of the file it replaces
+    // (crate::atomic); it is removed on every error path.
+    let mut file = AtomicFile::create(path).map_err(atomic_err(path))?;
     {
-        let mut writer = wrap(tmp.as_file_mut());
+        let mut writer = wrap(&mut file);
         writer.write_all(text.as_bytes()).map_err(io_err(path))?;
         writer.flush().map_err(io_err(path))?;
     }
-    // On error above, `tmp` is dropped and deleted; the target is untouched.
-    tmp.as_file().sync_all().map_err(io_err(path))?;
-    if path.exists() {
-        let bak = backup_path(path);
-        std::fs::copy(path, &bak).map_err(io_err(&bak))?;
+    file.commit_with(|| keep_previous(path))
+        .map_err(atomic_err(path))
+}
+
+/// Before a save replaces `path`: copies it to `NAME.ron.bak`, and, the first
+/// time a file with hand-written comments is replaced, to
+/// `NAME.ron.original` as well (never overwritten afterwards), since a save
+/// writes Offtake's own layout and cannot keep comments.
+fn keep_previous(path: &Path) -> io::Result<()> {
+    let meta = match std::fs::symlink_metadata(path) {
+        Ok(m) => m,
+        Err(e) if e.kind() == io::ErrorKind::NotFound => return Ok(()),
+        Err(e) => return Err(e),
+    };
+    if !meta.is_file() {
+        return Ok(());
     }
-    tmp.persist(path).map_err(|e| ProjectFileError::Io {
+    let original = original_path(path);
+    if !original.exists() {
+        let mut text = String::new();
+        File::open(path)?
+            .take(MAX_PROJECT_FILE_BYTES)
+            .read_to_string(&mut text)
+            .ok();
+        if hand_written_comment_lines(&text) > 0 {
+            crate::atomic::write_atomically(&original, text.as_bytes())
+                .map_err(io::Error::other)?;
+        }
+    }
+    let bak = backup_path(path);
+    let bytes = std::fs::read(path)?;
+    crate::atomic::write_atomically(&bak, &bytes).map_err(io::Error::other)
+}
+
+/// The path where the first save of a hand-written project file keeps the
+/// file as it was: `NAME.ron.original` beside `NAME.ron`.
+pub fn original_path(path: &Path) -> PathBuf {
+    let mut name = path.file_name().unwrap_or_default().to_os_string();
+    name.push(".original");
+    path.with_file_name(name)
+}
+
+/// Comment lines in a project file's text that a save would drop: every
+/// line holding a `//` or `/* */` comment outside strings, except the two
+/// header lines that Offtake writes itself. Saving writes Offtake's own
+/// layout (comments cannot be kept reliably through the RON serializer), so
+/// a caller says so before the first save when this is above zero.
+pub fn hand_written_comment_lines(text: &str) -> usize {
+    let own = own_header_lines();
+    let mut count = 0;
+    let mut in_block = false;
+    for line in text.lines() {
+        let trimmed = line.trim();
+        // Offtake's own header, of this schema or an older one.
+        if own[1] == trimmed
+            || (trimmed.starts_with("// Offtake project file (schema ")
+                && trimmed.ends_with("Planning estimates only: designs"))
+        {
+            continue;
+        }
+        let mut has_comment = in_block;
+        let mut in_string = false;
+        let chars: Vec<char> = line.chars().collect();
+        let mut i = 0;
+        while i < chars.len() {
+            let c = chars[i];
+            let next = chars.get(i + 1).copied();
+            if in_block {
+                if c == '*' && next == Some('/') {
+                    in_block = false;
+                    i += 1;
+                }
+            } else if in_string {
+                if c == '\\' {
+                    i += 1;
+                } else if c == '"' {
+                    in_string = false;
+                }
+            } else if c == '"' {
+                in_string = true;
+            } else if c == '/' && next == Some('/') {
+                has_comment = true;
+                break;
+            } else if c == '/' && next == Some('*') {
+                has_comment = true;
+                in_block = true;
+                i += 1;
+            }
+            i += 1;
+        }
+        if has_comment {
+            count += 1;
+        }
+    }
+    count
+}
+
+fn own_header_lines() -> [String; 2] {
+    let header = own_header(CURRENT_SCHEMA);
+    let mut lines = header.lines().map(|l| l.trim().to_owned());
+    [
+        lines.next().unwrap_or_default(),
+        lines.next().unwrap_or_default(),
+    ]
+}
+
+fn own_header(schema: u32) -> String {
+    format!(
+        "// Offtake project file (schema {schema}). Planning estimates only: designs\n\
+         // must be checked by a qualified engineer under local codes.\n"
+    )
+}
+
+fn atomic_err(path: &Path) -> impl FnOnce(AtomicWriteError) -> ProjectFileError + '_ {
+    move |e| ProjectFileError::Io {
         path: path.to_path_buf(),
-        source: e.error,
-    })?;
-    // Make the rename durable where the platform allows syncing a folder.
-    #[cfg(unix)]
-    if let Ok(d) = File::open(&dir) {
-        // Best effort: the file itself is already synced and renamed.
-        let _ = d.sync_all();
+        source: io::Error::other(e),
     }
-    Ok(())
 }
 
 /// The weather file of a project, resolved against the project file's folder
@@ -532,501 +638,5 @@ pub fn weather_path(project_path: &Path, project: &Project) -> PathBuf {
     std::fs::canonicalize(&joined).unwrap_or(joined)
 }
 
-pub mod v0 {
-    //! The first project layout (schema 0), kept so old files still open.
-    //! It migrates to schema 1 ([`super::v1`]), which migrates to the current
-    //! schema.
-    //!
-    //! Differences from schema 1:
-    //! * efficiencies were percentages: `conveyance_efficiency_pct`,
-    //!   `application_efficiency_pct`, `field_canal_efficiency_pct`;
-    //! * a block named its canal `outlet_on`, and held one method name
-    //!   (`method`) beside the application efficiency;
-    //! * planting areas were always hectares (`area_ha`), the first planting
-    //!   day was `planting_month` + `planting_day`, and there was no season
-    //!   length override;
-    //! * the design probability was called `dependability_pct`;
-    //!   there were no reservoir, ET₀ method choice, supply or scenarios.
-
-    use offtake_core::project as cur;
-    use serde::Deserialize;
-
-    use super::v1;
-
-    /// Schema-0 project.
-    #[derive(Debug, Deserialize)]
-    #[serde(deny_unknown_fields, rename = "Project")]
-    pub struct Project {
-        /// Always 0.
-        pub schema: u32,
-        /// Scheme name and notes (unchanged since).
-        pub scheme: cur::SchemeInfo,
-        /// Canals.
-        pub canals: Vec<Canal>,
-        /// Blocks.
-        pub blocks: Vec<Block>,
-        /// Plantings.
-        pub plantings: Vec<Planting>,
-        /// Weather source (unchanged in schema 1).
-        pub weather: v1::WeatherSource,
-        /// Options.
-        pub options: Options,
-    }
-
-    /// Schema-0 canal.
-    #[derive(Debug, Deserialize)]
-    #[serde(deny_unknown_fields)]
-    pub struct Canal {
-        /// Id.
-        pub id: String,
-        /// Name.
-        pub name: String,
-        /// Parent canal id.
-        #[serde(default)]
-        pub parent: Option<String>,
-        /// Kind.
-        pub kind: cur::CanalKind,
-        /// Conveyance efficiency in percent.
-        pub conveyance_efficiency_pct: f64,
-        /// Existing capacity, m³/s.
-        #[serde(default)]
-        pub existing_capacity_m3s: Option<f64>,
-        /// Hours per day.
-        pub operating_hours_per_day: f64,
-    }
-
-    /// Schema-0 block.
-    #[derive(Debug, Deserialize)]
-    #[serde(deny_unknown_fields)]
-    pub struct Block {
-        /// Id.
-        pub id: String,
-        /// Name.
-        pub name: String,
-        /// Canal id (renamed `canal` in schema 1).
-        pub outlet_on: String,
-        /// Area, ha.
-        pub area_ha: f64,
-        /// Soil id.
-        pub soil: String,
-        /// Irrigation method name.
-        pub method: String,
-        /// Field application efficiency in percent.
-        pub application_efficiency_pct: f64,
-        /// Field-canal efficiency in percent.
-        pub field_canal_efficiency_pct: f64,
-    }
-
-    /// Schema-0 planting.
-    #[derive(Debug, Deserialize)]
-    #[serde(deny_unknown_fields)]
-    pub struct Planting {
-        /// Id.
-        pub id: String,
-        /// Block id.
-        pub block: String,
-        /// Crop id.
-        pub crop: String,
-        /// Area, ha.
-        pub area_ha: f64,
-        /// First planting month.
-        pub planting_month: u32,
-        /// First planting day.
-        pub planting_day: u32,
-        /// Spread, days.
-        pub spread_days: u32,
-        /// Season label.
-        pub season: String,
-        /// Strategy (unchanged since).
-        pub strategy: cur::Strategy,
-    }
-
-    /// Schema-0 options.
-    #[derive(Debug, Deserialize)]
-    #[serde(deny_unknown_fields)]
-    pub struct Options {
-        /// Effective rain method.
-        pub effective_rain: cur::EffectiveRain,
-        /// Reporting step.
-        pub reporting_step: cur::ReportingStep,
-        /// Irrigation year start month.
-        pub irrigation_year_start_month: u32,
-        /// Design probability (renamed `design_probability_pct`).
-        pub dependability_pct: f64,
-        /// Design basis.
-        pub design_basis: cur::DesignBasis,
-        /// Rotation period, days.
-        pub rotation_period_days: u32,
-    }
-
-    /// Converts a schema-0 project to schema 1.
-    pub fn migrate(old: Project) -> v1::Project {
-        v1::Project {
-            schema: 1,
-            scheme: old.scheme,
-            canals: old
-                .canals
-                .into_iter()
-                .map(|c| cur::Canal {
-                    id: c.id,
-                    name: c.name,
-                    parent: c.parent,
-                    kind: c.kind,
-                    conveyance_efficiency: c.conveyance_efficiency_pct / 100.0,
-                    existing_capacity_m3s: c.existing_capacity_m3s,
-                    operating_hours_per_day: c.operating_hours_per_day,
-                    section: cur::CanalSectionSpec::default(),
-                })
-                .collect(),
-            blocks: old
-                .blocks
-                .into_iter()
-                .map(|b| cur::Block {
-                    id: b.id,
-                    name: b.name,
-                    canal: b.outlet_on,
-                    area_ha: b.area_ha,
-                    soil: b.soil,
-                    method: cur::IrrigationMethod {
-                        name: b.method,
-                        application_efficiency: b.application_efficiency_pct / 100.0,
-                    },
-                    field_canal_efficiency: b.field_canal_efficiency_pct / 100.0,
-                    delivery: offtake_core::project::DeliveryMode::OnDemand,
-                    outlet_stream_size_ls: None,
-                })
-                .collect(),
-            plantings: old
-                .plantings
-                .into_iter()
-                .map(|p| cur::Planting {
-                    id: p.id,
-                    block: p.block,
-                    crop: p.crop,
-                    area: cur::PlantingArea::Hectares(p.area_ha),
-                    first_planting: cur::MonthDay {
-                        month: p.planting_month,
-                        day: p.planting_day,
-                    },
-                    spread_days: p.spread_days,
-                    season: p.season,
-                    strategy: p.strategy,
-                    season_length_days: None,
-                    paddy: None,
-                    coefficients: offtake_core::project::CoefficientChoice::Single,
-                })
-                .collect(),
-            weather: old.weather,
-            reservoir: None,
-            options: cur::Options {
-                et0_method: cur::Et0Method::PenmanMonteith,
-                effective_rain: old.options.effective_rain,
-                reporting_step: old.options.reporting_step,
-                irrigation_year_start_month: old.options.irrigation_year_start_month,
-                design_probability_pct: old.options.dependability_pct,
-                design_basis: old.options.design_basis,
-                design_confidence_pct: cur::Options::default().design_confidence_pct,
-                rotation_period_days: old.options.rotation_period_days,
-                available_supply: None,
-                gap_filling: cur::GapFilling::default(),
-                station_limits: offtake_core::station_limits::StationLimits::default(),
-            },
-            scenarios: Vec::new(),
-        }
-    }
-}
-
-pub mod v1 {
-    //! The second project layout (schema 1), kept so its files still open.
-    //!
-    //! Differences from schema 2: the weather source held a minimal column
-    //! mapping, `weather.mapping: (columns: [(source, target, unit)])`, where
-    //! `target` is one of Offtake's own column names (DESIGN.md) and `unit` a
-    //! free unit text. Schema 2 replaces it by `weather.import`
-    //! ([`ImportSettings`]); [`migrate`] converts the mapping, reading the
-    //! unit texts listed at [`quantity_of`]. A mapping without a `date`
-    //! target keeps the date column `date`; delimiter, decimal separator and
-    //! date format stay detected, as schema 1 read them.
-
-    use offtake_core::project as cur;
-    use offtake_core::weather_import::units::{
-        DepthUnit, HumidityUnit, PressureUnit, RadiationUnit, TemperatureUnit, WindUnit,
-    };
-    use offtake_core::weather_import::{
-        ColumnMapping, DateFormat, ImportSettings, MappedColumn, Quantity,
-    };
-    use serde::Deserialize;
-    use thiserror::Error;
-
-    /// Schema-1 project: the current layout except the weather source.
-    #[derive(Debug, Deserialize)]
-    #[serde(deny_unknown_fields, rename = "Project")]
-    pub struct Project {
-        /// Always 1.
-        pub schema: u32,
-        /// Scheme name and notes.
-        pub scheme: cur::SchemeInfo,
-        /// Canals.
-        pub canals: Vec<cur::Canal>,
-        /// Blocks.
-        pub blocks: Vec<cur::Block>,
-        /// Plantings.
-        pub plantings: Vec<cur::Planting>,
-        /// Weather source with the schema-1 mapping.
-        pub weather: WeatherSource,
-        /// Reservoir.
-        #[serde(default)]
-        pub reservoir: Option<cur::Reservoir>,
-        /// Options.
-        pub options: cur::Options,
-        /// Scenarios.
-        #[serde(default)]
-        pub scenarios: Vec<cur::Scenario>,
-    }
-
-    /// Schema-1 weather source.
-    #[derive(Debug, Deserialize)]
-    #[serde(deny_unknown_fields)]
-    pub struct WeatherSource {
-        /// Path to the weather CSV.
-        pub path: String,
-        /// Latitude, degrees.
-        pub latitude_deg: f64,
-        /// Elevation, m.
-        pub elevation_m: f64,
-        /// Wind measurement height, m.
-        pub wind_height_m: f64,
-        /// The minimal mapping.
-        #[serde(default)]
-        pub mapping: Option<WeatherMapping>,
-    }
-
-    /// Schema-1 mapping: one entry per mapped column.
-    #[derive(Debug, Deserialize)]
-    #[serde(deny_unknown_fields)]
-    pub struct WeatherMapping {
-        /// The mapped columns.
-        pub columns: Vec<ColumnMap>,
-    }
-
-    /// Schema-1 mapped column.
-    #[derive(Debug, Deserialize)]
-    #[serde(deny_unknown_fields)]
-    pub struct ColumnMap {
-        /// Header in the source file.
-        pub source: String,
-        /// Offtake column name (`date`, `tmax_c`, `rain_mm`, …).
-        pub target: String,
-        /// Unit text of the source column, if not Offtake's unit.
-        #[serde(default)]
-        pub unit: Option<String>,
-    }
-
-    /// A schema-1 mapping entry the current schema cannot express.
-    #[derive(Debug, Clone, PartialEq, Eq, Error)]
-    #[non_exhaustive]
-    pub enum MigrationError {
-        /// `target` is not one of Offtake's column names.
-        #[error(
-            "weather.mapping column {header:?}: target {target:?} is not an Offtake column name (expected one of date, tmax_c, tmin_c, tmean_c, rhmax_pct, rhmin_pct, rhmean_pct, tdew_c, ea_kpa, wind_ms, solar_mj, sunshine_h, rain_mm)"
-        )]
-        UnknownTarget {
-            /// The source header.
-            header: String,
-            /// The target given.
-            target: String,
-        },
-        /// The unit text is not one this target can be in.
-        #[error(
-            "weather.mapping column {header:?} ({target}): unit {unit:?} is not understood; expected one of {expected}"
-        )]
-        UnknownUnit {
-            /// The source header.
-            header: String,
-            /// The target.
-            target: String,
-            /// The unit text given.
-            unit: String,
-            /// The unit texts accepted for this target.
-            expected: &'static str,
-        },
-    }
-
-    /// Lower case, without spaces, degree signs and `_`.
-    fn normalise_unit(unit: &str) -> String {
-        unit.chars()
-            .filter(|c| !c.is_whitespace() && !matches!(c, '°' | 'º' | '_'))
-            .flat_map(char::to_lowercase)
-            .collect()
-    }
-
-    /// The quantity of a schema-1 mapping entry: `target` (Offtake's column
-    /// name) in the unit `unit` (`None` = the column's own unit).
-    ///
-    /// Unit texts read (case, spaces and degree signs ignored): temperature
-    /// `C`, `degC`, `celsius`, `F`, `degF`, `fahrenheit`, `K`, `kelvin`;
-    /// humidity `%`, `pct`, `percent`, `fraction`, `frac`; vapour pressure
-    /// `kPa`, `hPa`, `mbar`, `mb`; wind `m/s`, `ms`, `km/h`, `kmh`, `kph`,
-    /// `mph`, `knots`, `knot`, `kn`, `kt`, `kts`; radiation `MJ/m2/day`, `MJ`,
-    /// `W/m2`, `Wm-2`, `kWh/m2/day`, `kWh`; sunshine `h`, `hours`; rain `mm`,
-    /// `in`, `inch`, `inches`.
-    ///
-    /// # Errors
-    /// [`MigrationError`] naming the column, the text found and the texts
-    /// accepted.
-    pub fn quantity_of(c: &ColumnMap) -> Result<Quantity, MigrationError> {
-        let Some(own) = Quantity::from_own_column(&c.target.trim().to_lowercase()) else {
-            return Err(MigrationError::UnknownTarget {
-                header: c.source.clone(),
-                target: c.target.clone(),
-            });
-        };
-        let Some(unit_text) = c.unit.as_deref().filter(|u| !u.trim().is_empty()) else {
-            return Ok(own);
-        };
-        let u = normalise_unit(unit_text);
-        let bad = |expected: &'static str| MigrationError::UnknownUnit {
-            header: c.source.clone(),
-            target: own.field_name().to_owned(),
-            unit: unit_text.to_owned(),
-            expected,
-        };
-        let temperature = || match u.as_str() {
-            "c" | "degc" | "celsius" => Ok(TemperatureUnit::Celsius),
-            "f" | "degf" | "fahrenheit" => Ok(TemperatureUnit::Fahrenheit),
-            "k" | "kelvin" => Ok(TemperatureUnit::Kelvin),
-            _ => Err(bad("C, F, K")),
-        };
-        let humidity = || match u.as_str() {
-            "%" | "pct" | "percent" => Ok(HumidityUnit::Percent),
-            "fraction" | "frac" => Ok(HumidityUnit::Fraction),
-            _ => Err(bad("%, fraction")),
-        };
-        let q = match own {
-            Quantity::Tmax(_) => Quantity::Tmax(temperature()?),
-            Quantity::Tmin(_) => Quantity::Tmin(temperature()?),
-            Quantity::Tmean(_) => Quantity::Tmean(temperature()?),
-            Quantity::Dewpoint(_) => Quantity::Dewpoint(temperature()?),
-            Quantity::RhMax(_) => Quantity::RhMax(humidity()?),
-            Quantity::RhMin(_) => Quantity::RhMin(humidity()?),
-            Quantity::RhMean(_) => Quantity::RhMean(humidity()?),
-            Quantity::VapourPressure(_) => Quantity::VapourPressure(match u.as_str() {
-                "kpa" => PressureUnit::Kilopascal,
-                "hpa" => PressureUnit::Hectopascal,
-                "mbar" | "mb" => PressureUnit::Millibar,
-                _ => return Err(bad("kPa, hPa, mbar")),
-            }),
-            Quantity::Wind { height_m, .. } => Quantity::Wind {
-                unit: match u.as_str() {
-                    "m/s" | "ms" | "mps" => WindUnit::MetresPerSecond,
-                    "km/h" | "kmh" | "kph" => WindUnit::KilometresPerHour,
-                    "mph" => WindUnit::MilesPerHour,
-                    "knots" | "knot" | "kn" | "kt" | "kts" => WindUnit::Knots,
-                    _ => return Err(bad("m/s, km/h, mph, knots")),
-                },
-                height_m,
-            },
-            Quantity::Solar(_) => Quantity::Solar(match u.as_str() {
-                "mj/m2/day" | "mj/m2" | "mj" | "mjm-2day-1" | "mj/m²/day" => {
-                    RadiationUnit::MegajoulesPerSquareMetreDay
-                }
-                "w/m2" | "wm-2" | "w/m²" | "wm2" => RadiationUnit::WattsPerSquareMetreDailyMean,
-                "kwh/m2/day" | "kwh/m2" | "kwh" | "kwh/m²/day" => {
-                    RadiationUnit::KilowattHoursPerSquareMetreDay
-                }
-                _ => return Err(bad("MJ/m2/day, W/m2, kWh/m2/day")),
-            }),
-            Quantity::SunshineHours => match u.as_str() {
-                "h" | "hours" | "hour" => Quantity::SunshineHours,
-                _ => return Err(bad("h")),
-            },
-            Quantity::Rain(_) => Quantity::Rain(match u.as_str() {
-                "mm" => DepthUnit::Millimetres,
-                "in" | "inch" | "inches" => DepthUnit::Inches,
-                _ => return Err(bad("mm, in")),
-            }),
-        };
-        Ok(q)
-    }
-
-    /// The date format named by a schema-1 `date` entry's unit text, if any.
-    fn date_format_of(c: &ColumnMap) -> Result<Option<DateFormat>, MigrationError> {
-        let Some(text) = c.unit.as_deref().filter(|u| !u.trim().is_empty()) else {
-            return Ok(None);
-        };
-        match normalise_unit(text).as_str() {
-            "iso" | "yyyy-mm-dd" => Ok(Some(DateFormat::Iso)),
-            "dd/mm/yyyy" | "d/m/y" | "dmy" => Ok(Some(DateFormat::DayMonthYear)),
-            "mm/dd/yyyy" | "m/d/y" | "mdy" => Ok(Some(DateFormat::MonthDayYear)),
-            _ => Err(MigrationError::UnknownUnit {
-                header: c.source.clone(),
-                target: "date".to_owned(),
-                unit: text.to_owned(),
-                expected: "yyyy-mm-dd, dd/mm/yyyy, mm/dd/yyyy",
-            }),
-        }
-    }
-
-    /// Converts a schema-1 mapping to import settings (`None` for no or an
-    /// empty mapping).
-    ///
-    /// # Errors
-    /// [`MigrationError`] for an unknown target or unit text.
-    pub fn import_settings_of(
-        mapping: Option<WeatherMapping>,
-    ) -> Result<Option<ImportSettings>, MigrationError> {
-        let Some(mapping) = mapping.filter(|m| !m.columns.is_empty()) else {
-            return Ok(None);
-        };
-        let mut date_column = "date".to_owned();
-        let mut date_format = None;
-        let mut columns = Vec::new();
-        for c in &mapping.columns {
-            if c.target.trim().eq_ignore_ascii_case("date") {
-                date_column.clone_from(&c.source);
-                date_format = date_format_of(c)?;
-            } else {
-                columns.push(MappedColumn {
-                    header: c.source.clone(),
-                    quantity: quantity_of(c)?,
-                });
-            }
-        }
-        Ok(Some(ImportSettings {
-            mapping: Some(ColumnMapping {
-                date_column,
-                columns,
-            }),
-            date_format,
-            ..ImportSettings::default()
-        }))
-    }
-
-    /// Converts a schema-1 project to the current schema.
-    ///
-    /// # Errors
-    /// [`MigrationError`] when the weather mapping names an unknown column or
-    /// unit.
-    pub fn migrate(old: Project) -> Result<cur::Project, MigrationError> {
-        let w = old.weather;
-        Ok(cur::Project {
-            schema: cur::CURRENT_SCHEMA,
-            scheme: old.scheme,
-            canals: old.canals,
-            blocks: old.blocks,
-            plantings: old.plantings,
-            weather: cur::WeatherSource {
-                path: w.path,
-                latitude_deg: w.latitude_deg,
-                elevation_m: w.elevation_m,
-                wind_height_m: w.wind_height_m,
-                import: import_settings_of(w.mapping)?,
-            },
-            reservoir: old.reservoir,
-            options: old.options,
-            scenarios: old.scenarios,
-            user_crops: Vec::new(),
-            user_soils: Vec::new(),
-        })
-    }
-}
+pub mod v0;
+pub mod v1;

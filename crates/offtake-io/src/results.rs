@@ -17,6 +17,7 @@ use crate::export::{
     DESIGN_VALUES_HEADERS, ExportError, NODE_DEMAND_DAILY_CSV, NODE_DEMAND_DAILY_HEADERS,
     RESULTS_WORKBOOK, Table, decimals as dec,
 };
+use crate::results_set::{FileWriter, SetOrigin, write_file_set};
 use offtake_core::engine::storage::method_label;
 use offtake_core::engine::{Results, StorageLosses};
 use offtake_core::openwater::FAO56_SHALLOW_OPEN_WATER_KC;
@@ -620,11 +621,26 @@ pub fn write_tables(
     project: &Project,
     out: &Path,
 ) -> Result<Vec<String>, ExportError> {
-    std::fs::create_dir_all(out).map_err(|source| ExportError::Io {
-        path: out.to_path_buf(),
-        source,
-    })?;
+    write_results_set(r, project, None, out).map(|m| m.files.into_iter().map(|f| f.name).collect())
+}
+
+/// Writes the result tables into `out` as one set with a manifest
+/// ([`crate::results_set`]): a kill or a second run at the same time never
+/// leaves a mix of two runs, a file of the previous run that this run does
+/// not write (e.g. `roster.csv`) is removed, and files no manifest lists are
+/// never touched. `project_file` is named in the manifest.
+///
+/// # Errors
+/// As [`write_tables`].
+pub fn write_results_set(
+    r: &Results,
+    project: &Project,
+    project_file: Option<&Path>,
+    out: &Path,
+) -> Result<crate::results_set::Manifest, ExportError> {
     let all = tables(r, project);
+    let crops = crop_requirements_table(r);
+    let efficiency = crate::sections::canal_efficiency_daily_table(r);
     let files = [
         DESIGN_VALUES_CSV,
         NODE_DEMAND_DAILY_CSV,
@@ -632,33 +648,48 @@ pub fn write_tables(
         DEMAND_10DAY_CSV,
         DEMAND_MONTHLY_CSV,
     ];
-    let mut written = Vec::new();
+    let mut writers: Vec<(String, FileWriter<'_, ExportError>)> = Vec::new();
     for (t, f) in all.iter().zip(files) {
-        export::write_csv(t, &out.join(f))?;
-        written.push(f.to_owned());
+        writers.push((
+            f.to_owned(),
+            Box::new(move |p: &Path| export::write_csv(t, p)),
+        ));
     }
-    if let Some(t) = all.iter().find(|t| t.name == "block outlets") {
-        export::write_csv(t, &out.join(BLOCK_OUTLETS_CSV))?;
-        written.push(BLOCK_OUTLETS_CSV.to_owned());
+    let outlets = all.iter().find(|t| t.name == "block outlets");
+    if let Some(t) = outlets {
+        writers.push((
+            BLOCK_OUTLETS_CSV.to_owned(),
+            Box::new(move |p: &Path| export::write_csv(t, p)),
+        ));
     }
     let roster = all.iter().find(|t| t.name == "roster");
     if let Some(t) = roster {
-        export::write_csv(t, &out.join(ROSTER_CSV))?;
-        written.push(ROSTER_CSV.to_owned());
+        writers.push((
+            ROSTER_CSV.to_owned(),
+            Box::new(move |p: &Path| export::write_csv(t, p)),
+        ));
     }
-    let crops = crop_requirements_table(r);
-    export::write_csv(&crops, &out.join(CROP_REQUIREMENTS_MONTHLY_CSV))?;
-    written.push(CROP_REQUIREMENTS_MONTHLY_CSV.to_owned());
+    {
+        let t = &crops;
+        writers.push((
+            CROP_REQUIREMENTS_MONTHLY_CSV.to_owned(),
+            Box::new(move |p: &Path| export::write_csv(t, p)),
+        ));
+    }
     let sections = all
         .iter()
         .find(|t| t.name == crate::sections::CANAL_SECTIONS_TABLE);
     if let Some(t) = sections {
-        export::write_csv(t, &out.join(crate::sections::CANAL_SECTIONS_CSV))?;
-        written.push(crate::sections::CANAL_SECTIONS_CSV.to_owned());
+        writers.push((
+            crate::sections::CANAL_SECTIONS_CSV.to_owned(),
+            Box::new(move |p: &Path| export::write_csv(t, p)),
+        ));
     }
-    if let Some(t) = crate::sections::canal_efficiency_daily_table(r) {
-        export::write_csv(&t, &out.join(crate::sections::CANAL_EFFICIENCY_DAILY_CSV))?;
-        written.push(crate::sections::CANAL_EFFICIENCY_DAILY_CSV.to_owned());
+    if let Some(t) = &efficiency {
+        writers.push((
+            crate::sections::CANAL_EFFICIENCY_DAILY_CSV.to_owned(),
+            Box::new(move |p: &Path| export::write_csv(t, p)),
+        ));
     }
     let summary = all.iter().find(|t| t.name == "summary");
     let mut book: Vec<&Table> = Vec::new();
@@ -666,14 +697,21 @@ pub fn write_tables(
     book.push(&all[0]);
     book.push(&all[3]);
     book.push(&all[4]);
-    book.extend(all.iter().find(|t| t.name == "block outlets"));
+    book.extend(outlets);
     book.push(&crops);
     book.extend(roster);
     book.extend(all.iter().find(|t| t.name == "reservoir evaporation"));
     book.extend(sections);
-    export::write_workbook(&book, &out.join(RESULTS_WORKBOOK))?;
-    written.push(RESULTS_WORKBOOK.to_owned());
-    Ok(written)
+    writers.push((
+        RESULTS_WORKBOOK.to_owned(),
+        Box::new(move |p: &Path| export::write_workbook(&book, p)),
+    ));
+    let origin = SetOrigin {
+        scheme: r.scheme_name.clone(),
+        project_file: project_file.map(Path::to_path_buf),
+        scenario: r.scenario.clone(),
+    };
+    write_file_set(out, &origin, writers)
 }
 
 /// The block outlets table ([`BLOCK_OUTLETS_HEADERS`]).

@@ -12,6 +12,8 @@ pub mod rotation;
 pub mod section_view;
 pub mod weather;
 
+use std::fmt::Write as _;
+
 use egui::{RichText, Ui};
 
 use crate::command::{Command, Tab};
@@ -258,7 +260,7 @@ pub fn delivery_sentence(project: &offtake_core::project::Project, canal: Option
     }
     let list: Vec<String> = parts
         .iter()
-        .map(|(d, n)| format!("{n} by {d}", n = n))
+        .map(|(d, n)| format!("{n} by {d}"))
         .collect();
     let on_demand = blocks
         .iter()
@@ -285,10 +287,11 @@ pub fn delivery_sentence(project: &offtake_core::project::Project, canal: Option
         );
     }
     if assumed > 0 {
-        s.push_str(&format!(
+        let _ = write!(
+            s,
             " {assumed} outlet stream size{} assumed (never limiting).",
             if assumed == 1 { " is" } else { "s are" }
-        ));
+        );
     }
     s
 }

@@ -28,6 +28,13 @@ use super::EngineError;
 use super::planting_step::PlantingOutcome;
 use crate::project::DeliveryMode;
 
+/// What applying an outlet gives: the limited outcomes (when it binds), the
+/// outlet's summary and a warning when the limit did not settle.
+pub type OutletRun = (Option<Vec<PlantingOutcome>>, OutletSummary, Option<String>);
+
+/// Re-runs planting `k` of a block with a daily supply factor.
+pub type Rerun<'a> = dyn Fn(usize, &[f64]) -> Result<PlantingOutcome, EngineError> + Sync + 'a;
+
 /// Runs with f = min(1, cap ÷ Σ requests) before f may only fall.
 pub const FREE_PASSES: usize = 6;
 /// Most re-runs of a limited block.
@@ -154,8 +161,8 @@ pub fn apply_outlet(
     days: usize,
     range: std::ops::Range<usize>,
     n_years: f64,
-    rerun: &(dyn Fn(usize, &[f64]) -> Result<PlantingOutcome, EngineError> + Sync),
-) -> Result<(Option<Vec<PlantingOutcome>>, OutletSummary, Option<String>), EngineError> {
+    rerun: &Rerun<'_>,
+) -> Result<OutletRun, EngineError> {
     let base: Vec<(f64, &PlantingOutcome)> =
         units.iter().map(|u| (u.m3_per_mm, u.outcome)).collect();
     let unlimited = gross_m3(&base, days);
@@ -264,7 +271,8 @@ pub fn rotation_stress_warnings(
     plantings: &[super::plantings::PlantingSummary],
 ) -> Vec<String> {
     // (crop, season, cycle) -> (blocks, shortest RAW/ETc in days)
-    let mut found: Vec<((String, String, u32), Vec<String>, f64)> = Vec::new();
+    type Key = (String, String, u32);
+    let mut found: Vec<(Key, Vec<String>, f64)> = Vec::new();
     for p in plantings {
         let Some(block) = project.blocks.iter().find(|b| b.id == p.block) else {
             continue;

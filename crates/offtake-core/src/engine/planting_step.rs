@@ -281,6 +281,10 @@ pub fn planting_weather(w: &PreparedWeather) -> PlantingWeather<'_> {
 ///
 /// # Errors
 /// The planting module's error as text (it names the season and cause).
+#[expect(
+    clippy::too_many_arguments,
+    reason = "the planting, its block, the weather and the two delivery inputs, each named"
+)]
 pub fn simulate_planting(
     crop: &Crop,
     soil: &Soil,

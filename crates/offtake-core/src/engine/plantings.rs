@@ -8,7 +8,7 @@
 use rayon::prelude::*;
 
 use super::EngineError;
-use super::outlets::{OutletSummary, OutletUnit, apply_outlet};
+use super::outlets::{OutletRun, OutletSummary, OutletUnit, apply_outlet};
 use super::planting_step::{
     PlantingOutcome, SeasonOutcome, application_efficiency_override, coefficient_mode,
     raw_and_peak_etc, simulate_planting,
@@ -361,7 +361,6 @@ pub fn compute_plantings(
 
 /// The outlet of one block ([`super::outlets`]): its plantings limited by its
 /// stream size over its canal's hours, when it binds.
-#[expect(clippy::too_many_arguments, reason = "the block's computed inputs")]
 fn block_outlet(
     project: &Project,
     w: &PreparedWeather,
@@ -370,7 +369,7 @@ fn block_outlet(
     distinct: &[Distinct<'_>],
     range: std::ops::Range<usize>,
     n_years: f64,
-) -> Result<(Option<Vec<PlantingOutcome>>, OutletSummary, Option<String>), EngineError> {
+) -> Result<OutletRun, EngineError> {
     let block = &project.blocks[jobs[0].block];
     let hours = project
         .canals

@@ -476,10 +476,6 @@ fn balance_unit(
 
 /// One balance run of a cohort (or share) with a given Kc ini (`None`:
 /// Table 12); also returns the length of its first initial stage (days).
-#[expect(
-    clippy::too_many_arguments,
-    reason = "the unit's inputs, passed straight through"
-)]
 fn balance_cohort_once(
     p: &Prepared<'_, '_>,
     index: usize,

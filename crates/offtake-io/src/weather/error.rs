@@ -1,6 +1,6 @@
 //! Import errors, rejected cells and warnings, each with `file:line:column`.
 
-use std::fmt;
+use std::fmt::{self, Write as _};
 use std::path::PathBuf;
 
 use chrono::NaiveDate;
@@ -86,6 +86,21 @@ pub enum ProblemKind {
         /// The line of that previous date.
         previous_line: u64,
     },
+    /// A day whose values, each readable, cannot be used together (e.g.
+    /// Tmin above Tmax); the reason says what is expected.
+    InvalidDay {
+        /// The day.
+        date: NaiveDate,
+        /// What is wrong and what is expected.
+        reason: String,
+    },
+    /// A non-zero number too small to hold (it would be read as 0).
+    Underflow {
+        /// Column (field) name.
+        column: String,
+        /// The cell text (cut when long).
+        found: String,
+    },
     /// A cell that is not UTF-8 text.
     NotUtf8 {
         /// Column (field) name.
@@ -135,6 +150,11 @@ impl fmt::Display for ProblemKind {
             } => write!(
                 f,
                 "date: found {date} after {previous} (line {previous_line}), expected dates in increasing order; row rejected"
+            ),
+            Self::InvalidDay { date, reason } => write!(f, "{date}: {reason}"),
+            Self::Underflow { column, found } => write!(
+                f,
+                "{column}: found \"{found}\", a number too small to hold (it would be read as 0), expected 0 or a number of plausible size"
             ),
             Self::NotUtf8 { column } => {
                 write!(
@@ -320,6 +340,39 @@ pub enum ImportError {
         /// The RON parser's error with its line and column.
         error: Box<ron::error::SpannedError>,
     },
+    /// A line longer than the cap (or no line end at all).
+    #[error(
+        "{at}: found a line longer than {limit_bytes} bytes, expected lines of at most {limit_bytes} bytes (a weather file's line is a few hundred; is this a weather CSV file?)"
+    )]
+    LineTooLong {
+        /// The line (column 1).
+        at: SourceLocation,
+        /// The limit ([`super::MAX_LINE_BYTES`]).
+        limit_bytes: usize,
+    },
+    /// A header with more columns than the cap.
+    #[error("{at}: found {found} columns in the header, expected at most {limit} columns")]
+    TooManyColumns {
+        /// The header line.
+        at: SourceLocation,
+        /// Columns found.
+        found: usize,
+        /// The limit ([`super::MAX_COLUMNS`]).
+        limit: usize,
+    },
+    /// A series longer than the computation can hold.
+    #[error(
+        "{at}: found more than {limit_days} days{}, expected a weather series of at most {limit_days} days (about 273 years); split the record or keep the years you need",
+        file_bytes.map_or_else(String::new, |b| format!(" in a file of {b} bytes"))
+    )]
+    TooManyDays {
+        /// The line of the first day past the cap.
+        at: SourceLocation,
+        /// The limit ([`super::MAX_SERIES_DAYS`]).
+        limit_days: usize,
+        /// The file's size, when known.
+        file_bytes: Option<u64>,
+    },
     /// The options are contradictory.
     #[error("import options: found {found}, expected {expected}")]
     Options {
@@ -330,12 +383,20 @@ pub enum ImportError {
     },
 }
 
+/// Most items a message lists; the rest are counted.
+const MAX_LISTED: usize = 20;
+
 fn quote_list(items: &[String]) -> String {
-    items
+    let mut text = items
         .iter()
-        .map(|s| format!("\"{s}\""))
+        .take(MAX_LISTED)
+        .map(|s| format!("\"{}\"", super::reader::shown_cell(s)))
         .collect::<Vec<_>>()
-        .join(", ")
+        .join(", ");
+    if items.len() > MAX_LISTED {
+        let _ = write!(text, " and {} more", items.len() - MAX_LISTED);
+    }
+    text
 }
 
 fn describe_guess(g: &MappingGuess) -> String {
@@ -345,7 +406,7 @@ fn describe_guess(g: &MappingGuess) -> String {
     } else {
         parts.push(format!("\"{}\" = date", g.mapping.date_column));
     }
-    for c in &g.mapping.columns {
+    for c in g.mapping.columns.iter().take(MAX_LISTED) {
         parts.push(format!(
             "\"{}\" = {} [{}]",
             c.header,

@@ -25,6 +25,7 @@
 
 mod date;
 mod error;
+mod lines;
 mod mapping;
 mod project;
 mod reader;
@@ -41,7 +42,8 @@ pub use mapping::{
 pub use offtake_core::weather_import::{ImportSettings, ImportSettingsProblem};
 pub use project::{ProjectWeather, ProjectWeatherError, load_project_weather};
 pub use reader::{
-    DEFAULT_MAX_PROBLEMS, DecimalSeparator, Delimiter, ImportOptions, ImportedSeries,
-    MAGNITUDE_LIMIT, ReadDay, WeatherReader, import_weather_file, import_weather_reader,
-    load_mapping,
+    DEFAULT_MAX_PROBLEMS, DecimalSeparator, Delimiter, HeaderLine, ImportOptions, ImportedSeries,
+    MAGNITUDE_LIMIT, MAX_COLUMNS, MAX_LINE_BYTES, MAX_SERIES_DAYS, MAX_SHOWN_CELL_CHARS, ReadDay,
+    WeatherReader, import_weather_file, import_weather_reader, load_mapping, read_header,
+    read_header_from, shown_cell,
 };

@@ -2,7 +2,7 @@
 
 use std::collections::VecDeque;
 use std::fs::File;
-use std::io::{BufRead, BufReader, Cursor, Read};
+use std::io::Read;
 use std::path::Path;
 
 use chrono::NaiveDate;
@@ -14,6 +14,11 @@ use serde::{Deserialize, Serialize};
 use super::date::{self, DateFormat, Evidence};
 use super::error::{
     ImportError, ImportProblem, ImportWarning, ProblemKind, SourceLocation, WarningKind,
+};
+pub use super::lines::{HeaderLine, read_header, read_header_from};
+use super::lines::{
+    HeaderRead, Source, column_of_field, csv_fatal, delimiter_name, field_columns, line_length,
+    read_header_record,
 };
 use super::mapping::{ColumnMapping, OWN_COLUMNS, Quantity, guess_mapping};
 
@@ -27,6 +32,37 @@ pub const MAGNITUDE_LIMIT: f64 = 1.0e6;
 
 /// Default cap on the number of problems an import lists.
 pub const DEFAULT_MAX_PROBLEMS: usize = 100;
+
+/// Longest line read, in bytes (1 MiB). A weather file's line is a few
+/// hundred bytes; a header of 30,000 named columns fits. A longer line (or a
+/// file with no line ends at all, such as `/dev/zero`) is refused with its
+/// line number before more is read.
+pub const MAX_LINE_BYTES: usize = 1024 * 1024;
+
+/// Most columns read (100,000); a header with more is refused.
+pub const MAX_COLUMNS: usize = 100_000;
+
+/// Most days a whole series may hold (100,000 days, about 273 years): the
+/// computation holds several arrays per day for every block, so a longer
+/// record would exhaust memory. Refused with its size and this limit.
+pub const MAX_SERIES_DAYS: usize = 100_000;
+
+/// Longest cell text repeated in a message, in characters; a longer cell is
+/// shown cut, with its length.
+pub const MAX_SHOWN_CELL_CHARS: usize = 60;
+
+/// A cell text for a message: whole when short, else its start and its
+/// length (`"12345678…" (250000 characters)` form).
+pub fn shown_cell(text: &str) -> String {
+    let mut chars = text.char_indices();
+    match chars.nth(MAX_SHOWN_CELL_CHARS) {
+        None => text.to_owned(),
+        Some((cut, _)) => {
+            let total = text.chars().count();
+            format!("{}… ({total} characters)", &text[..cut])
+        }
+    }
+}
 
 /// How to read a weather file: the saved [`ImportSettings`] of a file plus
 /// the run-time cap on listed problems. `None` fields are detected from the
@@ -134,69 +170,6 @@ pub struct ImportedSeries {
     pub fields: Vec<&'static str>,
 }
 
-type Source<R> = LineTap<std::io::Chain<Cursor<Vec<u8>>, BufReader<R>>>;
-
-/// A reader that notes where each line-end byte is, so a record's byte offset
-/// (which the csv crate reports from the end of the previous record, blank
-/// lines included) can be turned into the line number an editor shows.
-/// Offsets already passed are dropped, so memory stays bounded by the csv
-/// read-ahead buffer.
-struct LineTap<R> {
-    inner: R,
-    offset: u64,
-    /// Offsets of `\r` and `\n` bytes not yet passed, with whether each is `\n`.
-    ends: VecDeque<(u64, bool)>,
-    lines_before: u64,
-}
-
-impl<R> LineTap<R> {
-    fn new(inner: R) -> Self {
-        Self {
-            inner,
-            offset: 0,
-            ends: VecDeque::new(),
-            lines_before: 0,
-        }
-    }
-
-    /// Line number (from 1) of the first byte at or after `byte` that is not a
-    /// line end; calls must not go backwards.
-    fn line_at(&mut self, byte: u64) -> u64 {
-        while let Some(&(at, is_nl)) = self.ends.front() {
-            if at >= byte {
-                break;
-            }
-            self.ends.pop_front();
-            if is_nl {
-                self.lines_before += 1;
-            }
-        }
-        let mut leading = 0;
-        for (expected, &(at, is_nl)) in (byte..).zip(self.ends.iter()) {
-            if at != expected {
-                break;
-            }
-            if is_nl {
-                leading += 1;
-            }
-        }
-        self.lines_before + leading + 1
-    }
-}
-
-impl<R: Read> Read for LineTap<R> {
-    fn read(&mut self, buf: &mut [u8]) -> std::io::Result<usize> {
-        let n = self.inner.read(buf)?;
-        for (i, b) in buf[..n].iter().enumerate() {
-            if *b == b'\n' || *b == b'\r' {
-                self.ends.push_back((self.offset + i as u64, *b == b'\n'));
-            }
-        }
-        self.offset += n as u64;
-        Ok(n)
-    }
-}
-
 /// Streaming weather CSV reader: yields one [`ReadDay`] at a time, so a file of
 /// any length is processed without holding it.
 ///
@@ -258,48 +231,14 @@ impl<R: Read> WeatherReader<R> {
                 expected: "a semicolon or tab delimiter when numbers use a decimal comma".into(),
             });
         }
-        let mut buffered = BufReader::new(reader);
-        let mut first = Vec::new();
-        buffered
-            .read_until(b'\n', &mut first)
-            .map_err(|source_err| ImportError::Io {
-                path: source.into(),
-                source: source_err,
-            })?;
-        if first.starts_with(&[0xEF, 0xBB, 0xBF]) {
-            first.drain(..3);
-        }
-        if first.is_empty() {
-            return Err(ImportError::Empty { at: at(1, 1) });
-        }
-        let header_text = String::from_utf8_lossy(&first)
-            .trim_end_matches(['\r', '\n'])
-            .to_owned();
-        if header_text.trim().is_empty() {
-            return Err(ImportError::Header {
-                at: at(1, 1),
-                found: "a blank first line".into(),
-                expected: "a header line such as \"date,tmax_c,tmin_c,...\"".into(),
-            });
-        }
-        let delimiter = match options.delimiter {
-            Some(d) => d.as_byte(),
-            None => detect_delimiter(&header_text).ok_or_else(|| ImportError::Header {
-                at: at(1, 1),
-                found: format!("header \"{header_text}\" with no comma, semicolon or tab"),
-                expected:
-                    "columns separated by comma, semicolon or tab (e.g. \"date,tmax_c,tmin_c\")"
-                        .into(),
-            })?,
-        };
-        let mut csv = csv::ReaderBuilder::new()
-            .has_headers(false)
-            .flexible(true)
-            .delimiter(delimiter)
-            .from_reader(LineTap::new(Cursor::new(first).chain(buffered)));
-        let mut header = csv::ByteRecord::new();
-        csv.read_byte_record(&mut header)
-            .map_err(|e| csv_fatal(e, source))?;
+        let HeaderRead {
+            csv,
+            header,
+            header_text,
+            delimiter,
+        } = read_header_record(reader, source, options.delimiter)?;
+        // Every header cell's column, computed once (linear in the header).
+        let header_cols = field_columns(&header);
         let header_names: Vec<String> = header
             .iter()
             .map(|f| String::from_utf8_lossy(f).trim().to_owned())
@@ -309,7 +248,7 @@ impl<R: Read> WeatherReader<R> {
         {
             return Err(ImportError::Header {
                 at: at(1, 1),
-                found: format!("a date \"{first_cell}\" on the first line"),
+                found: format!("a date \"{}\" on the first line", shown_cell(first_cell)),
                 expected: format!(
                     "a header line naming the columns, such as \"{}\"",
                     OWN_COLUMNS.join(",")
@@ -364,8 +303,8 @@ impl<R: Read> WeatherReader<R> {
                 .collect();
             if hits.len() > 1 {
                 return Err(ImportError::Header {
-                    at: at(1, column_of_field(&header, hits[1], delimiter)),
-                    found: format!("column \"{name}\" twice"),
+                    at: at(1, header_cols[hits[1]]),
+                    found: format!("column \"{}\" twice", shown_cell(name)),
                     expected: "each column name once".into(),
                 });
             }
@@ -408,7 +347,7 @@ impl<R: Read> WeatherReader<R> {
         for (i, name) in header_names.iter().enumerate() {
             if i != date_idx && !columns.iter().any(|(j, _)| *j == i) && !name.is_empty() {
                 warnings.push(ImportWarning {
-                    at: at(1, column_of_field(&header, i, delimiter)),
+                    at: at(1, header_cols[i]),
                     kind: WarningKind::IgnoredColumn {
                         header: name.clone(),
                     },
@@ -601,7 +540,7 @@ impl<R: Read> WeatherReader<R> {
             (_, false) if self.decimal == Some(DecimalSeparator::Comma) && t.contains('.') => {
                 return Err(bad(ProblemKind::NotANumber {
                     column: name.into(),
-                    found: t.into(),
+                    found: shown_cell(t),
                     expected: expected(),
                 }));
             }
@@ -609,7 +548,7 @@ impl<R: Read> WeatherReader<R> {
             (Some(DecimalSeparator::Point), true) => {
                 return Err(bad(ProblemKind::NotANumber {
                     column: name.into(),
-                    found: t.into(),
+                    found: shown_cell(t),
                     expected: expected(),
                 }));
             }
@@ -617,7 +556,7 @@ impl<R: Read> WeatherReader<R> {
                 if t.contains('.') || t.matches(',').count() > 1 {
                     return Err(bad(ProblemKind::NotANumber {
                         column: name.into(),
-                        found: t.into(),
+                        found: shown_cell(t),
                         expected: expected(),
                     }));
                 }
@@ -631,21 +570,27 @@ impl<R: Read> WeatherReader<R> {
         let Ok(value) = numeric.parse::<f64>() else {
             return Err(bad(ProblemKind::NotANumber {
                 column: name.into(),
-                found: t.into(),
+                found: shown_cell(t),
                 expected: expected(),
             }));
         };
+        if underflows(numeric, value) {
+            return Err(bad(ProblemKind::Underflow {
+                column: name.into(),
+                found: shown_cell(t),
+            }));
+        }
         if !value.is_finite() {
             return Err(bad(ProblemKind::NonFinite {
                 column: name.into(),
-                found: t.into(),
+                found: shown_cell(t),
             }));
         }
         let si = quantity.to_si(value);
         if !si.is_finite() || si.abs() > MAGNITUDE_LIMIT {
             return Err(bad(ProblemKind::Implausible {
                 column: name.into(),
-                found: t.into(),
+                found: shown_cell(t),
                 limit: MAGNITUDE_LIMIT,
             }));
         }
@@ -675,7 +620,9 @@ impl<R: Read> WeatherReader<R> {
         let mut problems = Vec::new();
         let format = self.date_format.unwrap_or(DateFormat::Iso);
         let date_bytes = rec.get(self.date_idx).unwrap_or_default();
-        let date_col = column_of_field(rec, self.date_idx, self.delimiter);
+        // Every field's column in one pass (linear in the row's length).
+        let cols = field_columns(rec);
+        let date_col = cols[self.date_idx];
         let date = if let Ok(text) = std::str::from_utf8(date_bytes) {
             {
                 let t = text.trim();
@@ -684,7 +631,7 @@ impl<R: Read> WeatherReader<R> {
                     problems.push(ImportProblem {
                         at: self.at(line, date_col),
                         kind: ProblemKind::BadDate {
-                            found: t.into(),
+                            found: shown_cell(t),
                             expected: format.describe().into(),
                         },
                     });
@@ -710,7 +657,7 @@ impl<R: Read> WeatherReader<R> {
         let columns = self.columns.clone();
         for (idx, quantity) in columns {
             let bytes = rec.get(idx).unwrap_or_default();
-            let column = column_of_field(rec, idx, self.delimiter);
+            let column = cols[idx];
             let Ok(text) = std::str::from_utf8(bytes) else {
                 problems.push(ImportProblem {
                     at: self.at(line, column),
@@ -848,7 +795,11 @@ pub fn import_weather_file(
     options: &ImportOptions,
 ) -> Result<ImportedSeries, ImportError> {
     let reader = WeatherReader::open(path, options)?;
-    collect_series(reader, options.max_problems)
+    // Named in the message if the series is refused as too long (which
+    // happens as soon as the day past the cap is read, before more memory
+    // is taken).
+    let file_bytes = std::fs::metadata(path).ok().map(|m| m.len());
+    collect_series(reader, options.max_problems, file_bytes)
 }
 
 /// Imports from any reader (e.g. an in-memory string); `source` names it in messages.
@@ -861,12 +812,13 @@ pub fn import_weather_reader<R: Read>(
     options: &ImportOptions,
 ) -> Result<ImportedSeries, ImportError> {
     let reader = WeatherReader::new(reader, source, options)?;
-    collect_series(reader, options.max_problems)
+    collect_series(reader, options.max_problems, None)
 }
 
 fn collect_series<R: Read>(
     mut reader: WeatherReader<R>,
     cap: usize,
+    file_bytes: Option<u64>,
 ) -> Result<ImportedSeries, ImportError> {
     let mut days = Vec::new();
     let mut lines = Vec::new();
@@ -875,6 +827,13 @@ fn collect_series<R: Read>(
     for item in reader.by_ref() {
         match item {
             Ok(r) => {
+                if days.len() == MAX_SERIES_DAYS {
+                    return Err(ImportError::TooManyDays {
+                        at: reader.at(r.line, 1),
+                        limit_days: MAX_SERIES_DAYS,
+                        file_bytes,
+                    });
+                }
                 days.push(r.day);
                 lines.push(r.line);
             }
@@ -923,6 +882,17 @@ pub fn load_mapping(path: &Path) -> Result<ColumnMapping, ImportError> {
     })
 }
 
+/// Whether `text` (a number that parsed to `value`) is a non-zero number too
+/// small for a double: it would be read as 0 (e.g. `1e-400`) or lose its
+/// precision as a subnormal (e.g. `1e-310`).
+fn underflows(text: &str, value: f64) -> bool {
+    if value != 0.0 {
+        return value.abs() < f64::MIN_POSITIVE;
+    }
+    let mantissa = text.split(['e', 'E']).next().unwrap_or("");
+    mantissa.bytes().any(|b| (b'1'..=b'9').contains(&b))
+}
+
 fn set_field(day: &mut WeatherDay, quantity: Quantity, value: Option<f64>) {
     let slot = match quantity {
         Quantity::Tmax(_) => &mut day.tmax_c,
@@ -939,51 +909,4 @@ fn set_field(day: &mut WeatherDay, quantity: Quantity, value: Option<f64>) {
         Quantity::Rain(_) => &mut day.rain_mm,
     };
     *slot = value;
-}
-
-fn detect_delimiter(header: &str) -> Option<u8> {
-    let count = |c: char| header.matches(c).count();
-    [(b',', count(',')), (b';', count(';')), (b'\t', count('\t'))]
-        .into_iter()
-        .filter(|(_, n)| *n > 0)
-        .max_by_key(|(_, n)| *n)
-        .map(|(d, _)| d)
-}
-
-fn delimiter_name(d: u8) -> &'static str {
-    match d {
-        b',' => "comma",
-        b';' => "semicolon",
-        b'\t' => "tab",
-        _ => "other",
-    }
-}
-
-/// Character column (from 1) where field `idx` starts, assuming unquoted
-/// fields (exact for the files this reader expects; approximate with quotes).
-fn column_of_field(rec: &csv::ByteRecord, idx: usize, _delimiter: u8) -> u64 {
-    let before: usize = rec
-        .iter()
-        .take(idx)
-        .map(|f| String::from_utf8_lossy(f).chars().count() + 1)
-        .sum();
-    before as u64 + 1
-}
-
-fn line_length(rec: &csv::ByteRecord, delimiter: u8) -> u64 {
-    if rec.is_empty() {
-        return 0;
-    }
-    column_of_field(rec, rec.len(), delimiter) - 2
-}
-
-fn csv_fatal(e: csv::Error, source: &str) -> ImportError {
-    let io = match e.into_kind() {
-        csv::ErrorKind::Io(err) => err,
-        other => std::io::Error::other(format!("{other:?}")),
-    };
-    ImportError::Io {
-        path: source.into(),
-        source: io,
-    }
 }

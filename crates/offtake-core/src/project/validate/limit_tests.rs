@@ -22,6 +22,7 @@ fn base() -> Project {
             conveyance_efficiency: 0.9,
             existing_capacity_m3s: Some(1.0),
             operating_hours_per_day: 24.0,
+            section: crate::project::CanalSectionSpec::default(),
         }],
         blocks: vec![Block {
             id: "b1".into(),
@@ -34,6 +35,8 @@ fn base() -> Project {
                 application_efficiency: 0.6,
             },
             field_canal_efficiency: 0.8,
+            delivery: crate::project::DeliveryMode::OnDemand,
+            outlet_stream_size_ls: None,
         }],
         plantings: vec![Planting {
             id: "p1".into(),
@@ -357,6 +360,34 @@ fn cases() -> Vec<(&'static Limit, Set, &'static str, bool)> {
                 });
             },
             "options.available_supply: Available flow (flow)",
+            false,
+        ),
+        (
+            &limits::DELIVERY_CYCLE_DAYS,
+            |p, v| {
+                p.blocks[0].delivery = crate::project::DeliveryMode::RotationWithinBlock {
+                    cycle_days: days(v),
+                    min_depth_mm: 10.0,
+                };
+            },
+            "block \"b1\": Delivery cycle (delivery.cycle_days)",
+            true,
+        ),
+        (
+            &limits::MIN_TURN_DEPTH_MM,
+            |p, v| {
+                p.blocks[0].delivery = crate::project::DeliveryMode::RotationWithinBlock {
+                    cycle_days: 7,
+                    min_depth_mm: v,
+                };
+            },
+            "block \"b1\": Smallest turn (delivery.min_depth_mm)",
+            false,
+        ),
+        (
+            &limits::OUTLET_STREAM_SIZE_LS,
+            |p, v| p.blocks[0].outlet_stream_size_ls = Some(v),
+            "block \"b1\": Outlet stream size (outlet_stream_size_ls)",
             false,
         ),
         (
