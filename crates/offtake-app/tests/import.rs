@@ -51,7 +51,12 @@ const MAX_READS: usize = 3;
 fn read(h: &mut Harness<'static, OfftakeApp>) {
     h.step();
     let mut reads = 0;
-    while h.state().import.as_ref().is_some_and(|j| j.running()) {
+    while h
+        .state()
+        .import
+        .as_ref()
+        .is_some_and(offtake_app::import::ImportJob::running)
+    {
         assert!(reads < MAX_READS, "more than {MAX_READS} reads in a row");
         h.state_mut().wait_for_import(Duration::from_mins(10));
         reads += 1;
