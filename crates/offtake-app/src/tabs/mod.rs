@@ -258,10 +258,7 @@ pub fn delivery_sentence(project: &offtake_core::project::Project, canal: Option
             None => parts.push((d, 1)),
         }
     }
-    let list: Vec<String> = parts
-        .iter()
-        .map(|(d, n)| format!("{n} by {d}"))
-        .collect();
+    let list: Vec<String> = parts.iter().map(|(d, n)| format!("{n} by {d}")).collect();
     let on_demand = blocks
         .iter()
         .any(|b| matches!(b.delivery, DeliveryMode::OnDemand));

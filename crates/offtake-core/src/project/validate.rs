@@ -957,27 +957,6 @@ fn check_id_list<'a>(
     }
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-    use proptest::prelude::*;
-
-    proptest! {
-        /// The difference-array occupancy equals counting every cohort-day.
-        #[test]
-        fn occupancy_matches_direct_count(start in 0usize..365, cohorts in 1usize..40, season in 1usize..300) {
-            prop_assume!(cohorts - 1 + season <= PLAN_YEAR_DAYS);
-            let mut direct = [0_u32; PLAN_YEAR_DAYS];
-            for c in 0..cohorts {
-                for t in 0..season {
-                    direct[(start + c + t) % PLAN_YEAR_DAYS] += 1;
-                }
-            }
-            prop_assert_eq!(cohort_occupancy(start, cohorts, season), direct);
-        }
-    }
-}
-
 /// A block's delivery mode and outlet against the table of limits
 /// (DESIGN.md "Delivery").
 fn check_delivery(b: &super::Block, out: &mut Vec<ValidationProblem>) {
@@ -1020,5 +999,26 @@ fn check_delivery(b: &super::Block, out: &mut Vec<ValidationProblem>) {
             q,
             out,
         );
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use proptest::prelude::*;
+
+    proptest! {
+        /// The difference-array occupancy equals counting every cohort-day.
+        #[test]
+        fn occupancy_matches_direct_count(start in 0usize..365, cohorts in 1usize..40, season in 1usize..300) {
+            prop_assume!(cohorts - 1 + season <= PLAN_YEAR_DAYS);
+            let mut direct = [0_u32; PLAN_YEAR_DAYS];
+            for c in 0..cohorts {
+                for t in 0..season {
+                    direct[(start + c + t) % PLAN_YEAR_DAYS] += 1;
+                }
+            }
+            prop_assert_eq!(cohort_occupancy(start, cohorts, season), direct);
+        }
     }
 }
