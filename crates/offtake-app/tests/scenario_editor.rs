@@ -433,6 +433,17 @@ fn base_run_canals() -> Vec<offtake_core::project::Canal> {
 #[test]
 fn a_block_field_canal_efficiency_set_in_the_form_scales_its_gir() {
     let mut h = demo_harness();
+    // An outlet that never limits (no stream size entered: the block's own
+    // largest delivery is assumed), so that halving Eb can double the GIR.
+    let mut c1 = project(&h).block("C1").expect("C1").clone();
+    c1.outlet_stream_size_ls = None;
+    h.state_mut().push(offtake_app::command::Command::Edit(
+        offtake_app::edit::DocEdit::SetBlock {
+            id: c1.id.clone(),
+            block: Box::new(c1),
+        },
+    ));
+    settle(&mut h);
     let base_run = engine_results(&h);
     let base_gir = block_gir_m3(&base_run, "C1");
     let base_nir = block_nir_m3(&base_run, "C1");

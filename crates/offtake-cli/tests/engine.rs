@@ -331,6 +331,9 @@ fn a_mediterranean_winter_wheat_at_18_degrees_north_warns_naming_the_planting() 
     let (mut project, libs, weather) = demo();
     let id = project.plantings[0].id.clone();
     project.plantings[0].crop = "wheat-winter".to_owned();
+    // Its own row's length (the planting had rice's season length).
+    project.plantings[0].season_length_days = None;
+    project.plantings[0].paddy = None;
     let r = engine::run_scenario(&project, None, &libs.crops, &libs.soils, &weather).unwrap();
     let w = r
         .warnings

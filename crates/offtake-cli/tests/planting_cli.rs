@@ -306,12 +306,13 @@ fn bad_wetting_is_an_error() {
         stderr.contains("--wetting") && stderr.contains("bucket"),
         "{stderr}"
     );
-    // --wetting belongs to --dual-kc.
+    // --wetting also sets Kc ini's fw (FAO-56 eq. 60-61) without --dual-kc,
+    // and a bad name is refused there too.
     let mut args = base.to_vec();
-    args.extend_from_slice(&["--wetting", "drip"]);
+    args.extend_from_slice(&["--wetting", "bucket"]);
     let o = offtake(&args);
     assert!(!o.status.success());
-    assert!(String::from_utf8_lossy(&o.stderr).contains("--dual-kc"));
+    assert!(String::from_utf8_lossy(&o.stderr).contains("bucket"));
 }
 
 #[test]

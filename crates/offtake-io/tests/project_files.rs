@@ -43,7 +43,7 @@ fn position_of(file: &str, needle: &str) -> (usize, usize) {
 #[test]
 fn minimal_project_loads() {
     let p = load_project(&corpus("minimal.ron")).unwrap();
-    assert_eq!(p.schema, 2);
+    assert_eq!(p.schema, 3);
     assert_eq!(p.canals[0].kind, CanalKind::Main);
     assert_eq!(p.plantings[0].area, PlantingArea::Hectares(50.0));
     assert_eq!(p.plantings[0].first_planting, MonthDay { month: 7, day: 1 });
@@ -77,7 +77,7 @@ fn schema0_is_migrated() {
     assert!(
         std::fs::read_to_string(&path)
             .unwrap()
-            .contains("schema: 2,")
+            .contains("schema: 3,")
     );
     assert_eq!(load_project(&path).unwrap(), p);
 }
@@ -152,7 +152,7 @@ fn schema_errors_are_clear() {
             err,
             ProjectFileError::NewerSchema {
                 found: 7,
-                supported: 2,
+                supported: 3,
                 ..
             }
         ),
@@ -518,7 +518,7 @@ fn schema1_mapping_is_migrated_to_import_settings() {
     save_project(&path, &p).unwrap();
     let text = std::fs::read_to_string(&path).unwrap();
     assert!(
-        text.contains("schema: 2,") && text.contains("import:"),
+        text.contains("schema: 3,") && text.contains("import:"),
         "{text}"
     );
     assert!(!text.contains("target:"), "{text}");
@@ -529,7 +529,7 @@ fn schema1_mapping_is_migrated_to_import_settings() {
 fn schema1_without_mapping_loads_as_the_same_project() {
     let text = std::fs::read_to_string(corpus("minimal.ron")).unwrap();
     let current = parse_project(&text, &corpus("minimal.ron")).unwrap();
-    let old_text = text.replace("schema: 2,", "schema: 1,");
+    let old_text = text.replace("schema: 3,", "schema: 1,");
     assert_ne!(old_text, text);
     let old = parse_project(&old_text, Path::new("old.ron")).unwrap();
     assert_eq!(old, current);
