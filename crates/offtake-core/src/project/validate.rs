@@ -620,15 +620,19 @@ impl Project {
                 .physical
                 .contains(f64::from(season))
             {
-                // A library season is checked with the library; an override
-                // here.
-                check_count(
-                    &subject,
-                    "season_length_days",
-                    &limits::SEASON_LENGTH_DAYS,
-                    season,
-                    out,
-                );
+                // A library season is checked with the library (a perennial's
+                // first cycle, e.g. sugarcane's 405 days of FAO-56 Table 11,
+                // is longer than a year and is computed as a chain); an
+                // override here.
+                if p.season_length_days.is_some() {
+                    check_count(
+                        &subject,
+                        "season_length_days",
+                        &limits::SEASON_LENGTH_DAYS,
+                        season,
+                        out,
+                    );
+                }
                 continue;
             }
             if p.season_length_days.is_some() {
