@@ -165,7 +165,10 @@ fn run_writes_the_contract_tables() {
     // interval of its required capacity (1,470 to 1,610 l/s): plainly too
     // small, not "within the uncertainty of the record" (the app's capacity
     // tab test covers that verdict).
-    assert!(stdout.contains("required 1,538 l/s (TOO SMALL)"), "{stdout}");
+    assert!(
+        stdout.contains("required 1,538 l/s (TOO SMALL)"),
+        "{stdout}"
+    );
 }
 
 #[test]

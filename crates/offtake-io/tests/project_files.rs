@@ -529,7 +529,7 @@ fn schema1_mapping_is_migrated_to_import_settings() {
 fn schema1_without_mapping_loads_as_the_same_project() {
     let text = std::fs::read_to_string(corpus("minimal.ron")).unwrap();
     let current = parse_project(&text, &corpus("minimal.ron")).unwrap();
-    let old_text = text.replace("schema: 3,", "schema: 1,");
+    let old_text = text.replace("schema: 2,", "schema: 1,");
     assert_ne!(old_text, text);
     let old = parse_project(&old_text, Path::new("old.ron")).unwrap();
     assert_eq!(old, current);

@@ -178,7 +178,7 @@ fn saved_import_settings_round_trip_and_are_applied() {
     assert_eq!(project.weather.import, Some(foreign_settings()));
     assert!((project.weather.wind_height_m - 10.0).abs() < 1e-12);
     let text = std::fs::read_to_string(&fx.foreign).unwrap();
-    assert!(text.contains("schema: 2,"), "{text}");
+    assert!(text.contains("schema: 3,"), "{text}");
     assert!(text.contains("import:"), "{text}");
     assert_eq!(parse_project(&text, &fx.foreign).unwrap(), project);
 
