@@ -89,6 +89,8 @@ fn project(blocks: usize, delivery: Delivery) -> Project {
     p.scheme.name = "synthetic (invented)".into();
     p.weather.latitude_deg = 15.0;
     p.weather.elevation_m = 300.0;
+    // The weather is given in memory; the path only satisfies validation.
+    p.weather.path = "invented-weather.csv".into();
     p.canals.push(Canal {
         id: "main".into(),
         name: "main".into(),
