@@ -120,6 +120,37 @@ pub fn share_first_day(share: usize, cycle_days: usize, first_weather_index: usi
     (share + cycle_days - first_weather_index % cycle_days) % cycle_days
 }
 
+/// Adds `w` × every depth, coefficient and water-holding term of `d` to `t`
+/// (not ET₀ and rain, which are the day's own, nor Ks, whose callers weight
+/// it each their way): the one area-weighted sum of balance days, used for
+/// the shares of a cohort and for the cohorts of a season.
+pub(super) fn add_weighted_day(t: &mut BalanceDay, d: &BalanceDay, w: f64) {
+    t.kc += w * d.kc;
+    t.etc_mm += w * d.etc_mm;
+    t.etc_adj_mm += w * d.etc_adj_mm;
+    t.runoff_mm += w * d.runoff_mm;
+    t.peff_mm += w * d.peff_mm;
+    t.irrigation_mm += w * d.irrigation_mm;
+    t.capillary_rise_mm += w * d.capillary_rise_mm;
+    t.deep_perc_mm += w * d.deep_perc_mm;
+    t.depletion_mm += w * d.depletion_mm;
+    t.taw_mm += w * d.taw_mm;
+    t.raw_mm += w * d.raw_mm;
+    t.p += w * d.p;
+}
+
+/// Adds `w` × an evaporation-layer day `d` to `t` (dual coefficient).
+pub(super) fn add_weighted_layer(t: &mut EvaporationDay, d: &EvaporationDay, w: f64) {
+    t.kcb += w * d.kcb;
+    t.kc_max += w * d.kc_max;
+    t.few += w * d.few;
+    t.kr += w * d.kr;
+    t.ke += w * d.ke;
+    t.evaporation_mm += w * d.evaporation_mm;
+    t.deep_perc_mm += w * d.deep_perc_mm;
+    t.depletion_mm += w * d.depletion_mm;
+}
+
 /// The mean of equal-area shares' daily balances (each 1/N of the area).
 pub fn mean_of_shares(shares: &[Vec<BalanceDay>]) -> Vec<BalanceDay> {
     let Some(first) = shares.first() else {
@@ -131,18 +162,7 @@ pub fn mean_of_shares(shares: &[Vec<BalanceDay>]) -> Vec<BalanceDay> {
         for (t, d) in out.iter_mut().zip(s) {
             t.et0_mm = d.et0_mm;
             t.rain_mm = d.rain_mm;
-            t.kc += w * d.kc;
-            t.etc_mm += w * d.etc_mm;
-            t.etc_adj_mm += w * d.etc_adj_mm;
-            t.runoff_mm += w * d.runoff_mm;
-            t.peff_mm += w * d.peff_mm;
-            t.irrigation_mm += w * d.irrigation_mm;
-            t.capillary_rise_mm += w * d.capillary_rise_mm;
-            t.deep_perc_mm += w * d.deep_perc_mm;
-            t.depletion_mm += w * d.depletion_mm;
-            t.taw_mm += w * d.taw_mm;
-            t.raw_mm += w * d.raw_mm;
-            t.p += w * d.p;
+            add_weighted_day(t, d, w);
             t.ks += w * d.ks;
         }
     }
@@ -158,14 +178,7 @@ pub fn mean_of_share_layers(shares: &[Vec<EvaporationDay>]) -> Vec<EvaporationDa
     let mut out = vec![EvaporationDay::default(); first.len()];
     for s in shares {
         for (t, d) in out.iter_mut().zip(s) {
-            t.kcb += w * d.kcb;
-            t.kc_max += w * d.kc_max;
-            t.few += w * d.few;
-            t.kr += w * d.kr;
-            t.ke += w * d.ke;
-            t.evaporation_mm += w * d.evaporation_mm;
-            t.deep_perc_mm += w * d.deep_perc_mm;
-            t.depletion_mm += w * d.depletion_mm;
+            add_weighted_layer(t, d, w);
         }
     }
     out

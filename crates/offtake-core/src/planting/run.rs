@@ -4,8 +4,8 @@
 use chrono::{Datelike, Days, NaiveDate};
 
 use super::delivery::{
-    DeliveryRule, MAX_CYCLE_DAYS, mean_of_share_layers, mean_of_shares, share_first_day,
-    spread_over_cycles, turn_strategy,
+    DeliveryRule, MAX_CYCLE_DAYS, add_weighted_day, add_weighted_layer, mean_of_share_layers,
+    mean_of_shares, share_first_day, spread_over_cycles, turn_strategy,
 };
 use super::dual::{
     CoefficientMode, DualFallback, KC_MIN, STANDARD_RHMIN_PCT, STANDARD_WIND_2M_MS, crop_height_m,
@@ -1082,18 +1082,7 @@ pub fn season_detail(
                 continue;
             }
             let t = &mut days[g - lo];
-            t.kc += w * d.kc;
-            t.etc_mm += w * d.etc_mm;
-            t.etc_adj_mm += w * d.etc_adj_mm;
-            t.runoff_mm += w * d.runoff_mm;
-            t.peff_mm += w * d.peff_mm;
-            t.irrigation_mm += w * d.irrigation_mm;
-            t.capillary_rise_mm += w * d.capillary_rise_mm;
-            t.deep_perc_mm += w * d.deep_perc_mm;
-            t.depletion_mm += w * d.depletion_mm;
-            t.taw_mm += w * d.taw_mm;
-            t.raw_mm += w * d.raw_mm;
-            t.p += w * d.p;
+            add_weighted_day(t, d, w);
             t.ks += w * (d.ks - 1.0);
         }
         for (i, e) in c.evaporation.iter().enumerate() {
@@ -1102,14 +1091,7 @@ pub fn season_detail(
                 continue;
             }
             let t = &mut evaporation[g - lo];
-            t.kcb += w * e.kcb;
-            t.kc_max += w * e.kc_max;
-            t.few += w * e.few;
-            t.kr += w * e.kr;
-            t.ke += w * e.ke;
-            t.evaporation_mm += w * e.evaporation_mm;
-            t.deep_perc_mm += w * e.deep_perc_mm;
-            t.depletion_mm += w * e.depletion_mm;
+            add_weighted_layer(t, e, w);
         }
     }
     for t in &mut days {
